@@ -1,0 +1,2 @@
+// Package cluster implements agglomerative hierarchical clustering of themes and incidents.
+package cluster

@@ -1,0 +1,34 @@
+package sparse
+
+import (
+	"reflect"
+	"testing"
+)
+
+// The 3×3 example below is checked by hand against the CSR definition (Saad, §3.4): row 0 holds
+// (0,1)=2, row 1 is empty, row 2 holds (2,0)=1 and (2,2)=4.
+func TestBuilder(t *testing.T) {
+	b := NewBuilder(3)
+	b.AddRow([]int32{1, 1}, []float64{1, 1})
+	b.AddRow(nil, nil)
+	b.AddCounts([]int32{2, 0, 2, 2, 2})
+	b.AddRow([]int32{0}, []float64{0}) // zero dropped
+	m := b.Matrix()
+	// last row had only a zero, so AddCounts row is [1,0,4]
+	want := [][]float64{{0, 2, 0}, {0, 0, 0}, {1, 0, 4}, {0, 0, 0}}
+	if got := m.Dense(); !reflect.DeepEqual(got, want) {
+		t.Fatalf("Dense = %v, want %v", got, want)
+	}
+	if !reflect.DeepEqual(m.Indptr, []int{0, 1, 1, 3, 3}) {
+		t.Fatalf("Indptr = %v", m.Indptr)
+	}
+	if m.At(2, 2) != 4 || m.At(1, 1) != 0 {
+		t.Fatal("At wrong")
+	}
+	if got := m.DocumentFrequency(); !reflect.DeepEqual(got, []int{1, 1, 1}) {
+		t.Fatalf("df = %v", got)
+	}
+	if got := m.ColumnSums(nil); !reflect.DeepEqual(got, []float64{1, 2, 4}) {
+		t.Fatalf("sums = %v", got)
+	}
+}
