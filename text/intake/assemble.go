@@ -1,0 +1,345 @@
+package intake
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"sort"
+	"strconv"
+	"strings"
+	"time"
+)
+
+// rowRef is a row of one of the tables, its fields in the first table's column order.
+type rowRef struct {
+	file string
+	fi   int // index of the file in the run
+	line int
+	f    []string
+}
+
+// plausible dates: from 1900-01-01 to Now plus the widest zone offset.
+var earliest = time.Date(1900, 1, 1, 0, 0, 0, 0, time.UTC)
+
+const zoneSlack = 14 * time.Hour
+
+func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
+	s := &Set{}
+	header := tabs[0].header
+	xlsx := true
+	var rows []rowRef
+	for fi, t := range tabs {
+		s.Notes = append(s.Notes, t.notes...)
+		s.Files = append(s.Files, t.info)
+		s.Read += t.read()
+		xlsx = xlsx && t.xlsx
+		perm, err := align(tabs[0], t)
+		if err != nil {
+			return nil, err
+		}
+		if perm != nil {
+			s.Notes = append(s.Notes, fmt.Sprintf("%s: same columns as %s in another order; matched by name", t.info.Path, tabs[0].info.Path))
+		}
+		for _, r := range t.rows {
+			f := r.f
+			if perm != nil {
+				g := make([]string, len(f))
+				for j, p := range perm {
+					g[j] = f[p]
+				}
+				f = g
+			}
+			file := t.info.Path
+			if r.file != "" {
+				file = r.file
+			}
+			rows = append(rows, rowRef{file: file, fi: fi, line: r.line, f: f})
+		}
+		for _, rj := range t.rejects {
+			s.Rejects = append(s.Rejects, rj)
+		}
+	}
+	// Pre-rejects carry their file index through the order of tabs; remember it.
+	fileIndex := map[string]int{}
+	for fi, t := range tabs {
+		if _, ok := fileIndex[t.info.Path]; !ok {
+			fileIndex[t.info.Path] = fi
+		}
+	}
+	if err := ctx.Err(); err != nil {
+		return nil, err
+	}
+	first := tabs[0].info.Path
+	idCol, dateCol, textCols, groupCols, notes, err := chooseColumns(first, header, rows, xlsx, opt)
+	if err != nil {
+		return nil, err
+	}
+	s.Notes = append(s.Notes, notes...)
+	role := map[int]bool{idCol: true, dateCol: true}
+	if idCol >= 0 {
+		s.IDName = header[idCol]
+	}
+	if dateCol >= 0 {
+		s.DateName = header[dateCol]
+	}
+	for _, c := range textCols {
+		s.TextNames = append(s.TextNames, header[c])
+		role[c] = true
+	}
+	for _, c := range groupCols {
+		s.GroupNames = append(s.GroupNames, header[c])
+		role[c] = true
+	}
+	var extraCols []int
+	for c, h := range header {
+		if !role[c] {
+			extraCols = append(extraCols, c)
+			s.ExtraNames = append(s.ExtraNames, h)
+		}
+	}
+	var reading *dateReading
+	if dateCol >= 0 {
+		vals := make([]string, len(rows))
+		for i, r := range rows {
+			vals[i] = r.f[dateCol]
+		}
+		var note string
+		reading, note, err = decideReading(header[dateCol], vals, opt, xlsx, opt.Now)
+		if err != nil {
+			return nil, err
+		}
+		if note != "" {
+			s.Notes = append(s.Notes, note)
+		}
+		s.DateRead = reading.describe()
+	}
+
+	type cand struct {
+		rec Record
+		fi  int
+	}
+	var cands []cand
+	var synth, noDate, badDate, implausible int
+	late := opt.Now.Add(zoneSlack)
+	for i, r := range rows {
+		if i&4095 == 0 {
+			if err := ctx.Err(); err != nil {
+				return nil, err
+			}
+		}
+		rec := Record{File: r.file, Line: r.line}
+		if idCol >= 0 {
+			rec.ID = strings.TrimSpace(r.f[idCol])
+		}
+		if rec.ID == "" {
+			rec.ID = r.file + ":" + strconv.Itoa(r.line)
+			if idCol >= 0 {
+				synth++
+			}
+		}
+		rej := func(reason, detail string) {
+			s.Rejects = append(s.Rejects, Reject{File: r.file, Line: r.line, ID: rec.ID, Reason: reason, Detail: detail})
+		}
+		var parts []string
+		for _, c := range textCols {
+			if p := strings.TrimSpace(r.f[c]); p != "" {
+				parts = append(parts, p)
+			}
+		}
+		if len(parts) == 0 && allBlank(r.f) {
+			rej(ReasonBlankRow, "every field is empty")
+			continue
+		}
+		if len(parts) == 0 {
+			rej(ReasonEmptyNarrative, "no text in "+quoteList(s.TextNames))
+			continue
+		}
+		if len(parts) == 1 {
+			rec.Text = parts[0]
+		} else {
+			rec.Text = strings.Join(parts, "\n\n")
+		}
+		if dateCol >= 0 {
+			v := strings.TrimSpace(r.f[dateCol])
+			switch {
+			case v == "" && opt.RequireDate:
+				rej(ReasonMissingDate, fmt.Sprintf("%q is empty", s.DateName))
+				continue
+			case v == "":
+				noDate++
+			default:
+				t, err := reading.parse(v)
+				if err != nil {
+					badDate++
+					rej(ReasonUnparseableDate, fmt.Sprintf("%q: %v", clip(v, 64), err))
+					continue
+				}
+				if t.Before(earliest) || t.After(late) {
+					implausible++
+					rej(ReasonImplausibleDate, fmt.Sprintf("%q read as %s, outside 1900-01-01 .. %s", clip(v, 64), t.Format("2006-01-02"), opt.Now.UTC().Format("2006-01-02")))
+					continue
+				}
+				rec.Date, rec.HasDate = t, true
+			}
+		}
+		if len(groupCols) > 0 {
+			rec.Groups = make([]string, len(groupCols))
+			for j, c := range groupCols {
+				rec.Groups[j] = strings.TrimSpace(r.f[c])
+			}
+		}
+		if len(extraCols) > 0 {
+			rec.Extra = make([]string, len(extraCols))
+			for j, c := range extraCols {
+				rec.Extra[j] = r.f[c]
+			}
+		}
+		cands = append(cands, cand{rec, r.fi})
+	}
+	if synth > 0 {
+		s.Notes = append(s.Notes, fmt.Sprintf("id column %q: %d rows have no id; their id is file:line", s.IDName, synth))
+	}
+	if noDate > 0 {
+		s.Notes = append(s.Notes, fmt.Sprintf("date column %q: %d rows have no date; kept without one", s.DateName, noDate))
+	}
+	if dateCol >= 0 && badDate+implausible > 0 {
+		s.Notes = append(s.Notes, fmt.Sprintf("date column %q: %d values do not read as dates, %d are implausible; those rows are rejected", s.DateName, badDate, implausible))
+		if nonEmpty := len(rows) - noDate; nonEmpty > 0 && 2*badDate > nonEmpty {
+			s.Notes = append(s.Notes, fmt.Sprintf("date column %q is mostly not dates (%d of %d values); check the column or name another", s.DateName, badDate, nonEmpty))
+		}
+	}
+
+	// Duplicate ids: keep the first (or, with KeepLast, the last) row of each id.
+	byID := map[string][]int{}
+	for i, c := range cands {
+		byID[c.rec.ID] = append(byID[c.rec.ID], i)
+	}
+	drop := make([]bool, len(cands))
+	dups := 0
+	for i, c := range cands {
+		idx := byID[c.rec.ID]
+		if len(idx) < 2 || idx[0] != i {
+			continue
+		}
+		keep := idx[0]
+		if opt.KeepLast {
+			keep = idx[len(idx)-1]
+		}
+		k := cands[keep].rec
+		for _, j := range idx {
+			if j == keep {
+				continue
+			}
+			drop[j] = true
+			dups++
+			o := cands[j].rec
+			reason := ReasonDuplicateID
+			if o.Text != k.Text {
+				reason = ReasonDuplicateIDText
+			}
+			s.Rejects = append(s.Rejects, Reject{File: o.File, Line: o.Line, ID: o.ID, Reason: reason,
+				Detail: fmt.Sprintf("kept the row at %s:%d", k.File, k.Line)})
+		}
+	}
+	if dups > 0 {
+		which := "first"
+		if opt.KeepLast {
+			which = "last"
+		}
+		s.Notes = append(s.Notes, fmt.Sprintf("duplicate ids: %d rows share an id with another; kept the %s of each", dups, which))
+	}
+	for i, c := range cands {
+		if !drop[i] {
+			s.Records = append(s.Records, c.rec)
+		}
+	}
+	sort.SliceStable(s.Rejects, func(i, j int) bool {
+		a, b := s.Rejects[i], s.Rejects[j]
+		fa, fb := fileIndex[tabOf(a.File, tabs)], fileIndex[tabOf(b.File, tabs)]
+		if fa != fb {
+			return fa < fb
+		}
+		if a.File != b.File {
+			return a.File < b.File
+		}
+		return a.Line < b.Line
+	})
+	if len(s.Records)+len(s.Rejects) != s.Read {
+		return nil, errors.New("intake: internal error: rows kept plus rejected differ from rows read")
+	}
+	return s, nil
+}
+
+// tabOf maps a row's file to its table's path (rows of a .txt folder name their file).
+func tabOf(file string, tabs []*table) string {
+	for _, t := range tabs {
+		if t.info.Path == file {
+			return file
+		}
+	}
+	for _, t := range tabs {
+		if t.info.Format == "txt" && strings.HasPrefix(file, t.info.Path) {
+			return t.info.Path
+		}
+	}
+	return file
+}
+
+// align checks that t has the columns of t0. It returns nil when they are in the same
+// order, or the permutation perm such that t's field perm[j] is t0's column j.
+func align(t0, t *table) ([]int, error) {
+	if t == t0 {
+		return nil, nil
+	}
+	same := len(t.header) == len(t0.header)
+	for i := 0; same && i < len(t.header); i++ {
+		same = t.header[i] == t0.header[i]
+	}
+	if same {
+		return nil, nil
+	}
+	pos := map[string]int{}
+	for i, h := range t.header {
+		pos[h] = i
+	}
+	var missing, extra []string
+	perm := make([]int, len(t0.header))
+	in0 := map[string]bool{}
+	for j, h := range t0.header {
+		in0[h] = true
+		p, ok := pos[h]
+		if !ok {
+			missing = append(missing, h)
+		}
+		perm[j] = p
+	}
+	for _, h := range t.header {
+		if !in0[h] {
+			extra = append(extra, h)
+		}
+	}
+	if len(missing) > 0 || len(extra) > 0 {
+		msg := fmt.Sprintf("%v (%s)", ErrColumns, t0.info.Path)
+		if len(missing) > 0 {
+			msg += "; missing " + quoteList(missing)
+		}
+		if len(extra) > 0 {
+			msg += "; extra " + quoteList(extra)
+		}
+		return nil, &PosError{File: t.info.Path, Line: 1, Err: fmt.Errorf("%w%s", ErrColumns, strings.TrimPrefix(msg, ErrColumns.Error()))}
+	}
+	return perm, nil
+}
+
+// describe says how the date column is read, for Set.DateRead.
+func (r *dateReading) describe() string {
+	switch {
+	case r.layout != "":
+		return "layout " + r.layout
+	case r.iso:
+		return "ISO 8601"
+	case r.serial:
+		return "Excel serial (1900 system)"
+	}
+	return r.order.String()
+}

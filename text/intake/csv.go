@@ -1,0 +1,197 @@
+package intake
+
+import (
+	"bufio"
+	"context"
+	"encoding/csv"
+	"errors"
+	"fmt"
+	"io"
+	"strings"
+)
+
+// sniffDelimiter chooses the field separator from the first lines of decoded text.
+// For each candidate (',', '\t', ';', '|', in that order of preference) it counts the
+// candidate outside double quotes on each of the first 50 records; the winner is the
+// candidate found on the header line whose count matches the header's on the most
+// lines (ties: the larger header count, then the order above). spaced reports the
+// ", " separator: a comma winner where every separator of the header line is followed
+// by a space (the safenet exports).
+func sniffDelimiter(sample []byte) (delim rune, spaced bool) {
+	cands := []byte{',', '\t', ';', '|'}
+	var counts [][4]int
+	var spaceAfter, seps int
+	var cur [4]int
+	inQ := false
+	for i := 0; i < len(sample) && len(counts) < 50; i++ {
+		c := sample[i]
+		switch {
+		case c == '"':
+			inQ = !inQ
+		case inQ:
+		case c == '\n':
+			counts = append(counts, cur)
+			cur = [4]int{}
+		default:
+			for k, d := range cands {
+				if c == d {
+					cur[k]++
+					if len(counts) == 0 && k == 0 {
+						seps++
+						if i+1 < len(sample) && sample[i+1] == ' ' {
+							spaceAfter++
+						}
+					}
+				}
+			}
+		}
+	}
+	if len(counts) < 50 && cur != ([4]int{}) {
+		counts = append(counts, cur)
+	}
+	if len(counts) == 0 {
+		return ',', false
+	}
+	best, bestScore, bestN := -1, -1, 0
+	for k := range cands {
+		n := counts[0][k]
+		if n == 0 {
+			continue
+		}
+		score := 0
+		for _, row := range counts {
+			if row[k] == n {
+				score++
+			}
+		}
+		if score > bestScore || (score == bestScore && n > bestN) {
+			best, bestScore, bestN = k, score, n
+		}
+	}
+	if best < 0 {
+		return ',', false
+	}
+	if best == 0 && seps > 0 && spaceAfter == seps {
+		return ',', true
+	}
+	return rune(cands[best]), false
+}
+
+func delimName(d rune, spaced bool) string {
+	if spaced {
+		return ", "
+	}
+	return string(d)
+}
+
+// readCSV reads delimited text. Quoting follows RFC 4180 through encoding/csv with
+// LazyQuotes off (unless Options.LazyQuotes). A row whose field count differs from
+// the header's is rejected as a ragged row; a row with bad quoting is rejected with the
+// parser's line and column; a quoted field that never closes is an error, since the
+// rest of the file was swallowed by it.
+func readCSV(ctx context.Context, name string, br *bufio.Reader, peek []byte, ext string, dec decision, opt *Options) (*table, error) {
+	delim, spaced := opt.Delimiter, false
+	if delim == 0 {
+		delim, spaced = sniffDelimiter(peek)
+		if ext == ".tsv" && delim == ',' && !strings.ContainsRune(string(peek), ',') {
+			delim = '\t'
+		}
+	}
+	t := &table{info: FileInfo{Path: name, Format: "csv", Delimiter: delimName(delim, spaced)}}
+	if delim == '\t' {
+		t.info.Format = "tsv"
+	}
+	cr := csv.NewReader(br)
+	cr.Comma = delim
+	cr.FieldsPerRecord = -1
+	cr.LazyQuotes = opt.LazyQuotes
+	cr.TrimLeadingSpace = spaced
+	cr.ReuseRecord = false
+	hdr, err := cr.Read()
+	if err == io.EOF {
+		return nil, &PosError{File: name, Err: ErrEmpty}
+	}
+	if err != nil {
+		return nil, csvErr(name, err, cr)
+	}
+	t.header, t.notes = uniqueHeader(name, hdr)
+	if spaced {
+		t.notes = append(t.notes, fmt.Sprintf("%s: fields separated by \", \" (comma and space); leading spaces of fields are dropped", name))
+	}
+	blank := 0
+	for i := 0; ; i++ {
+		if i&1023 == 0 {
+			if err := ctx.Err(); err != nil {
+				return nil, err
+			}
+		}
+		rec, err := cr.Read()
+		if err == io.EOF {
+			break
+		}
+		if err != nil {
+			var pe *csv.ParseError
+			if !errors.As(err, &pe) {
+				return nil, &PosError{File: name, Err: err}
+			}
+			if _, err2 := br.Peek(1); err2 == io.EOF && errors.Is(err, csv.ErrQuote) {
+				return nil, &PosError{File: name, Line: pe.Line, Column: pe.Column,
+					Err: fmt.Errorf("%w: the quoted field of the record starting at line %d never closes", ErrUnclosedQuote, pe.StartLine)}
+			}
+			d := fmt.Sprintf("%d:%d: %v", pe.Line, pe.Column, pe.Err)
+			if pe.Line != pe.StartLine {
+				d = fmt.Sprintf("record on lines %d-%d, at %s", pe.StartLine, pe.Line, d)
+			}
+			t.rejects = append(t.rejects, Reject{File: name, Line: pe.StartLine, Reason: ReasonBadQuoting, Detail: d})
+			continue
+		}
+		line, _ := cr.FieldPos(0)
+		if dec.sanitize {
+			for j := range rec {
+				rec[j] = strings.ToValidUTF8(rec[j], "\uFFFD")
+			}
+		}
+		if len(rec) != len(t.header) {
+			if len(rec) == 1 && strings.TrimSpace(rec[0]) == "" {
+				// A line of only blanks is no record (encoding/csv skips empty lines alike).
+				blank++
+				continue
+			}
+			id := ""
+			if len(rec) > 0 {
+				id = rec[0]
+			}
+			t.rejects = append(t.rejects, Reject{File: name, Line: line, ID: clip(id, 64), Reason: ReasonRaggedRow,
+				Detail: fmt.Sprintf("%d fields, header has %d", len(rec), len(t.header))})
+			continue
+		}
+		t.rows = append(t.rows, rawRow{line: line, f: rec})
+	}
+	if blank > 0 {
+		t.notes = append(t.notes, fmt.Sprintf("%s: %d lines hold only spaces; not counted as rows", name, blank))
+	}
+	if t.read() == 0 {
+		return nil, &PosError{File: name, Line: 1, Err: ErrHeaderOnly}
+	}
+	t.info.Rows = t.read()
+	return t, nil
+}
+
+func csvErr(name string, err error, cr *csv.Reader) error {
+	var pe *csv.ParseError
+	if errors.As(err, &pe) {
+		return &PosError{File: name, Line: pe.Line, Column: pe.Column, Err: pe.Err}
+	}
+	return &PosError{File: name, Err: err}
+}
+
+// clip shortens s to at most n bytes on a rune boundary, adding "..." when cut.
+func clip(s string, n int) string {
+	if len(s) <= n {
+		return s
+	}
+	for n > 0 && n < len(s) && s[n]&0xC0 == 0x80 {
+		n--
+	}
+	return s[:n] + "..."
+}

@@ -1,0 +1,223 @@
+package intake
+
+import (
+	"bufio"
+	"bytes"
+	"context"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"io"
+	"strings"
+)
+
+// lineCounter passes bytes through and remembers where lines start, so that a byte
+// offset of the JSON decoder can be turned into a line number. Offsets must be asked in
+// increasing order; older line starts are dropped.
+type lineCounter struct {
+	r      io.Reader
+	off    int64
+	starts []int64 // offsets of line starts not yet passed
+	base   int     // line number of the line before starts[0]
+}
+
+func (c *lineCounter) Read(p []byte) (int, error) {
+	n, err := c.r.Read(p)
+	for i, b := range p[:n] {
+		if b == '\n' {
+			c.starts = append(c.starts, c.off+int64(i)+1)
+		}
+	}
+	c.off += int64(n)
+	return n, err
+}
+
+// lineAt returns the 1-based line holding byte offset off.
+func (c *lineCounter) lineAt(off int64) int {
+	i := 0
+	for i < len(c.starts) && c.starts[i] <= off {
+		i++
+	}
+	c.base += i
+	c.starts = c.starts[i:]
+	return c.base + 1
+}
+
+// readJSON reads a JSON array of objects (array true) or JSON Lines (one object a
+// line; blank lines are skipped). Keys become columns in the order first seen; a
+// string value is kept as is, null as "", numbers and booleans as their JSON text,
+// and nested arrays or objects as compact JSON text. An element that is not an object
+// is rejected ("bad json"); a syntax error in JSON Lines rejects that line and reading
+// goes on, while in an array it is an error, as the rest cannot be trusted.
+func readJSON(ctx context.Context, name string, br *bufio.Reader, array bool, dec decision, opt *Options) (*table, error) {
+	t := &table{info: FileInfo{Path: name, Format: "jsonl"}}
+	col := map[string]int{}
+	add := func(line int, obj []kv) {
+		f := make([]string, len(t.header))
+		for _, p := range obj {
+			j, ok := col[p.k]
+			if !ok {
+				j = len(t.header)
+				col[p.k] = j
+				t.header = append(t.header, p.k)
+				f = append(f, "")
+			}
+			f[j] = p.v
+		}
+		t.rows = append(t.rows, rawRow{line: line, f: f})
+	}
+	if array {
+		t.info.Format = "json"
+		lc := &lineCounter{r: br}
+		d := json.NewDecoder(lc)
+		d.UseNumber()
+		if _, err := d.Token(); err != nil {
+			return nil, jsonErr(name, lc, d, err)
+		}
+		for i := 0; d.More(); i++ {
+			if i&1023 == 0 {
+				if err := ctx.Err(); err != nil {
+					return nil, err
+				}
+			}
+			var raw json.RawMessage
+			if err := d.Decode(&raw); err != nil {
+				return nil, jsonErr(name, lc, d, err)
+			}
+			line := lc.lineAt(d.InputOffset() - int64(len(raw)))
+			obj, err := object(raw)
+			if err != nil {
+				t.rejects = append(t.rejects, Reject{File: name, Line: line, Reason: ReasonBadJSON, Detail: err.Error()})
+				continue
+			}
+			add(line, obj)
+		}
+		if _, err := d.Token(); err != nil {
+			return nil, jsonErr(name, lc, d, err)
+		}
+		if _, err := d.Token(); err != io.EOF {
+			return nil, &PosError{File: name, Line: lc.lineAt(d.InputOffset()), Err: errors.New("data after the closing ] of the JSON array")}
+		}
+	} else {
+		line := 0
+		for {
+			b, err := br.ReadBytes('\n')
+			if len(b) > 0 {
+				line++
+				if line&1023 == 0 {
+					if err := ctx.Err(); err != nil {
+						return nil, err
+					}
+				}
+				b = bytes.TrimSpace(b)
+				if len(b) > 0 {
+					obj, perr := object(b)
+					if perr != nil {
+						t.rejects = append(t.rejects, Reject{File: name, Line: line, Reason: ReasonBadJSON, Detail: perr.Error()})
+					} else {
+						add(line, obj)
+					}
+				}
+			}
+			if err == io.EOF {
+				break
+			}
+			if err != nil {
+				return nil, &PosError{File: name, Line: line, Err: err}
+			}
+		}
+	}
+	for i := range t.rows {
+		for len(t.rows[i].f) < len(t.header) {
+			t.rows[i].f = append(t.rows[i].f, "")
+		}
+		if dec.sanitize {
+			for j, v := range t.rows[i].f {
+				t.rows[i].f[j] = strings.ToValidUTF8(v, "\uFFFD")
+			}
+		}
+	}
+	if t.read() == 0 {
+		return nil, &PosError{File: name, Err: errors.New("no JSON objects")}
+	}
+	t.info.Rows = t.read()
+	return t, nil
+}
+
+func jsonErr(name string, lc *lineCounter, d *json.Decoder, err error) error {
+	var se *json.SyntaxError
+	if errors.As(err, &se) {
+		return &PosError{File: name, Line: lc.lineAt(se.Offset), Err: fmt.Errorf("bad JSON: %v", err)}
+	}
+	if err == io.EOF || errors.Is(err, io.ErrUnexpectedEOF) {
+		return &PosError{File: name, Err: errors.New("bad JSON: unexpected end of file")}
+	}
+	return &PosError{File: name, Line: lc.lineAt(d.InputOffset()), Err: fmt.Errorf("bad JSON: %v", err)}
+}
+
+type kv struct{ k, v string }
+
+// object reads one JSON object, keeping its keys in order.
+func object(raw []byte) ([]kv, error) {
+	d := json.NewDecoder(bytes.NewReader(raw))
+	d.UseNumber()
+	tok, err := d.Token()
+	if err != nil {
+		return nil, fmt.Errorf("not JSON: %v", err)
+	}
+	if tok != json.Delim('{') {
+		return nil, fmt.Errorf("a JSON %s, not an object", kind(tok))
+	}
+	var out []kv
+	for d.More() {
+		kt, err := d.Token()
+		if err != nil {
+			return nil, err
+		}
+		k, _ := kt.(string)
+		var v json.RawMessage
+		if err := d.Decode(&v); err != nil {
+			return nil, err
+		}
+		out = append(out, kv{k, scalar(v)})
+	}
+	if _, err := d.Token(); err != nil {
+		return nil, err
+	}
+	if _, err := d.Token(); err != io.EOF {
+		return nil, errors.New("data after the object")
+	}
+	return out, nil
+}
+
+func kind(tok json.Token) string {
+	switch tok.(type) {
+	case json.Delim:
+		return "array"
+	case string:
+		return "string"
+	case json.Number:
+		return "number"
+	case bool:
+		return "boolean"
+	}
+	return "null"
+}
+
+func scalar(v json.RawMessage) string {
+	switch {
+	case len(v) == 0 || string(v) == "null":
+		return ""
+	case v[0] == '"':
+		var s string
+		if json.Unmarshal(v, &s) == nil {
+			return s
+		}
+	case v[0] == '{' || v[0] == '[':
+		var b bytes.Buffer
+		if json.Compact(&b, v) == nil {
+			return b.String()
+		}
+	}
+	return string(v)
+}

@@ -1,0 +1,464 @@
+package intake
+
+import (
+	"bytes"
+	"context"
+	"errors"
+	"os"
+	"path/filepath"
+	"reflect"
+	"strings"
+	"testing"
+
+	"github.com/xuri/excelize/v2"
+)
+
+// writeFile writes content to name in a fresh temporary folder and returns its path.
+func writeFile(t *testing.T, name string, content []byte) string {
+	t.Helper()
+	p := filepath.Join(t.TempDir(), name)
+	if err := os.WriteFile(p, content, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	return p
+}
+
+func readOne(t *testing.T, name, content string, opt Options) (*Set, error) {
+	t.Helper()
+	if opt.Now.IsZero() {
+		opt.Now = testNow
+	}
+	s, err := Read(context.Background(), []string{writeFile(t, name, []byte(content))}, nil, opt)
+	if err == nil && len(s.Records)+len(s.Rejects) != s.Read {
+		t.Fatalf("accounting: kept %d + rejected %d != read %d", len(s.Records), len(s.Rejects), s.Read)
+	}
+	return s, err
+}
+
+func texts(s *Set) []string {
+	var out []string
+	for _, r := range s.Records {
+		out = append(out, r.Text)
+	}
+	return out
+}
+
+// TestRFC4180 reads the examples of RFC 4180 section 2, rules 1-7, each under a header
+// "id,text,x" (rule 3 allows a header; our reader always takes one).
+func TestRFC4180(t *testing.T) {
+	hdr := "id,text,x\r\n"
+	tests := []struct {
+		rule  string
+		in    string
+		text  []string
+		x     []string
+		lines []int
+	}{
+		{"2.1 each record on its own line, CRLF", hdr + "aaa,bbb,ccc\r\nzzz,yyy,xxx\r\n", []string{"bbb", "yyy"}, []string{"ccc", "xxx"}, []int{2, 3}},
+		{"2.2 last record without line break", hdr + "aaa,bbb,ccc\r\nzzz,yyy,xxx", []string{"bbb", "yyy"}, []string{"ccc", "xxx"}, []int{2, 3}},
+		{"2.4 spaces are part of a field", hdr + "aaa,bbb, ccc \r\n", []string{"bbb"}, []string{" ccc "}, []int{2}},
+		{"2.5 fields may be quoted", hdr + "\"aaa\",\"bbb\",\"ccc\"\r\nzzz,yyy,xxx\r\n", []string{"bbb", "yyy"}, []string{"ccc", "xxx"}, []int{2, 3}},
+		{"2.6 line breaks, quotes and commas inside quotes", hdr + "\"aaa\",\"b\r\nbb\",\"c,cc\"\r\nzzz,yyy,xxx\r\n", []string{"b\nbb", "yyy"}, []string{"c,cc", "xxx"}, []int{2, 4}},
+		{"2.7 a quote is escaped by another", hdr + "\"aaa\",\"b\"\"bb\",\"ccc\"\r\n", []string{"b\"bb"}, []string{"ccc"}, []int{2}},
+	}
+	for _, tt := range tests {
+		t.Run(tt.rule, func(t *testing.T) {
+			s, err := readOne(t, "rfc.csv", tt.in, Options{Text: []string{"text"}, ID: "id"})
+			if err != nil {
+				t.Fatal(err)
+			}
+			if got := texts(s); !reflect.DeepEqual(got, tt.text) {
+				t.Errorf("texts %q, want %q", got, tt.text)
+			}
+			var xs []string
+			var lines []int
+			for _, r := range s.Records {
+				xs = append(xs, r.Extra[0])
+				lines = append(lines, r.Line)
+			}
+			if !reflect.DeepEqual(xs, tt.x) || !reflect.DeepEqual(lines, tt.lines) {
+				t.Errorf("x %q lines %v, want %q %v", xs, lines, tt.x, tt.lines)
+			}
+		})
+	}
+}
+
+func TestRFC4180HeaderRule3(t *testing.T) {
+	// RFC 4180 2.3: the header "field_name,field_name,field_name"; repeated names are
+	// made distinct and noted.
+	s, err := readOne(t, "h.csv", "field_name,field_name,field_name\r\naaa,bbb,ccc\r\nzzz,yyy,xxx\r\n", Options{ID: "-", Text: []string{"field_name (2)"}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !reflect.DeepEqual(s.ExtraNames, []string{"field_name", "field_name (3)"}) || !reflect.DeepEqual(texts(s), []string{"bbb", "yyy"}) {
+		t.Errorf("extra %q texts %q", s.ExtraNames, texts(s))
+	}
+}
+
+func TestDelimiters(t *testing.T) {
+	tests := []struct{ name, in, want string }{
+		{"a.csv", "id,narrative\n1,one\n2,two\n", ","},
+		{"a.csv", "id;narrative\n1;one, two\n2;three\n", ";"},
+		{"a.tsv", "id\tnarrative\n1\tone, two\n2\tthree\n", "\t"},
+		{"a.txt", "id|narrative\n1|one; two\n2|three\n", "|"},
+		// safenet: header and fields separated by ", " (SOURCES.md), rows by ",".
+		{"a.csv", "\"ID\", \"Narrative\"\n\"1\",\"one\"\n\"2\",\"two\"\n", ", "},
+	}
+	for _, tt := range tests {
+		s, err := readOne(t, tt.name, tt.in, Options{})
+		if err != nil {
+			t.Fatalf("%q: %v", tt.in, err)
+		}
+		if s.Files[0].Delimiter != tt.want || len(s.Records) != 2 || s.Records[1].Text == "" {
+			t.Errorf("%q: delimiter %q, records %d %q; want %q", tt.in, s.Files[0].Delimiter, len(s.Records), texts(s), tt.want)
+		}
+	}
+}
+
+func TestBadInputs(t *testing.T) {
+	tests := []struct {
+		name, in string
+		want     error
+		pos      string
+	}{
+		{"empty.csv", "", ErrEmpty, "empty.csv: empty file"},
+		{"blank.csv", "\n\n  \n", ErrEmpty, "blank.csv: empty file"},
+		{"header.csv", "id,narrative\n", ErrHeaderOnly, "header.csv:1: header only"},
+		{"unclosed.csv", "id,narrative\n1,\"never closed\n2,two\n", ErrUnclosedQuote, "unclosed.csv:3:7: unclosed quote: the quoted field of the record starting at line 2 never closes"},
+		{"bin.csv", "id,narrative\n1,\x00\x01\x02\n", ErrBinary, "bin.csv: binary content, not a text export (NUL byte at offset 15)"},
+		{"zip.csv", "PK\x03\x04garbage", ErrBinary, "zip.csv: binary content"},
+		{"ole.xls", "\xD0\xCF\x11\xE0\xA1\xB1\x1A\xE1rest", ErrBinary, "ole.xls: binary content, not a text export: legacy Excel"},
+	}
+	for _, tt := range tests {
+		_, err := readOne(t, tt.name, tt.in, Options{})
+		var pe *PosError
+		if !errors.Is(err, tt.want) || !errors.As(err, &pe) {
+			t.Errorf("%s: err %v, want %v", tt.name, err, tt.want)
+			continue
+		}
+		if !strings.Contains(err.Error(), tt.pos) || !strings.HasSuffix(pe.File, tt.name) {
+			t.Errorf("%s: %q does not name %q", tt.name, err, tt.pos)
+		}
+	}
+}
+
+func TestRowRejects(t *testing.T) {
+	in := "id,date,narrative\n" +
+		"1,2020-01-05,first\n" +
+		"2,2020-01-06\n" + // ragged
+		"3,2020-01-07,x\"y\n" + // bare quote
+		"4,2020-01-08,   \n" + // empty narrative
+		"5,soon,text five\n" + // unparseable date
+		"6,1850-01-01,text six\n" + // implausible
+		"7,2031-01-01,text seven\n" + // implausible (after now)
+		"1,2020-01-09,first\n" + // duplicate id
+		"1,2020-01-10,other\n" + // duplicate id, different text
+		",,\n" + // blank row
+		"8,,no date\n"
+	s, err := readOne(t, "r.csv", in, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	type rj struct {
+		line   int
+		reason string
+	}
+	var got []rj
+	for _, r := range s.Rejects {
+		got = append(got, rj{r.Line, r.Reason})
+	}
+	want := []rj{{3, ReasonRaggedRow}, {4, ReasonBadQuoting}, {5, ReasonEmptyNarrative}, {6, ReasonUnparseableDate},
+		{7, ReasonImplausibleDate}, {8, ReasonImplausibleDate}, {9, ReasonDuplicateID}, {10, ReasonDuplicateIDText}, {11, ReasonBlankRow}}
+	if !reflect.DeepEqual(got, want) {
+		t.Errorf("rejects\n%v\nwant\n%v", got, want)
+	}
+	if len(s.Records) != 2 || s.Records[1].HasDate || s.Records[1].ID != "8" {
+		t.Errorf("records %+v", s.Records)
+	}
+	wantSum := "read 11: kept 2, rejected 9 (implausible date 2, bad quoting 1, blank row 1, duplicate id 1, duplicate id, different text 1, empty narrative 1, ragged row 1, unparseable date 1)"
+	if s.Summary() != wantSum {
+		t.Errorf("summary\n%s\nwant\n%s", s.Summary(), wantSum)
+	}
+	var b bytes.Buffer
+	if err := WriteRejects(&b, s.Rejects[:2]); err != nil {
+		t.Fatal(err)
+	}
+	p := s.Rejects[0].File
+	wantCSV := "file,line,id,reason,detail\n" + p + ",3,2,ragged row,\"2 fields, header has 3\"\n" +
+		p + ",4,,bad quoting,\"4:15: bare \"\" in non-quoted-field\"\n"
+	if b.String() != wantCSV {
+		t.Errorf("WriteRejects:\n%s\nwant\n%s", b.String(), wantCSV)
+	}
+
+	// KeepLast keeps the last version of id 1.
+	s, err = readOne(t, "r.csv", in, Options{KeepLast: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s.Records[0].Text != "other" || s.Records[0].Line != 10 {
+		t.Errorf("KeepLast kept %+v", s.Records[0])
+	}
+	// RequireDate rejects the row without a date.
+	s, _ = readOne(t, "r.csv", in, Options{RequireDate: true})
+	if n := len(s.Records); n != 1 {
+		t.Errorf("RequireDate kept %d", n)
+	}
+}
+
+func TestNamedColumnMissing(t *testing.T) {
+	_, err := readOne(t, "n.csv", "Report ID,Narrative,District\n1,a,b\n", Options{Text: []string{"narative"}})
+	if !errors.Is(err, ErrNoColumn) || !strings.Contains(err.Error(), `did you mean "Narrative"`) || !strings.Contains(err.Error(), `"District"`) {
+		t.Errorf("err %v", err)
+	}
+	s, err := readOne(t, "n.csv", "Report ID,Narrative,District\n1,a,b\n", Options{Text: []string{"narrative"}, Groups: []string{"district"}})
+	if err != nil || s.GroupNames[0] != "District" || s.Records[0].Groups[0] != "b" {
+		t.Errorf("case-insensitive names: %v %+v", err, s)
+	}
+}
+
+func TestAutoColumns(t *testing.T) {
+	in := "Call Type,Case Number,Reported,Details,Officer Notes\n" +
+		"NOISE,24-001,01/13/2024 10:00,loud music at the corner of Elm and 5th reported by caller,ok\n" +
+		"ALARM,24-002,01/14/2024,alarm sounding at the Birch Street pharmacy; area checked all clear,ok\n"
+	s, err := readOne(t, "a.csv", in, Options{Groups: []string{"Call Type"}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s.IDName != "Case Number" || s.DateName != "Reported" || s.TextNames[0] != "Details" || s.DateRead != "month-first" {
+		t.Errorf("chose id %q date %q text %q (%s); notes %q", s.IDName, s.DateName, s.TextNames, s.DateRead, s.Notes)
+	}
+	if !reflect.DeepEqual(s.ExtraNames, []string{"Officer Notes"}) {
+		t.Errorf("extra %q", s.ExtraNames)
+	}
+	// No narrative-like header: the longest mean text; no id header: file:line.
+	s, err = readOne(t, "b.csv", "a,b\nx,a longer text here\ny,another longer one\n", Options{})
+	if err != nil || s.TextNames[0] != "b" || s.IDName != "" || !strings.HasSuffix(s.Records[0].ID, "b.csv:2") {
+		t.Errorf("fallbacks: %v %q %q %q", err, s.TextNames, s.IDName, s.Records[0].ID)
+	}
+	// Several narrative columns are joined by a blank line.
+	s, _ = readOne(t, "c.csv", "id,n1,n2\n1,first part,second part\n2,,only second\n", Options{Text: []string{"n1", "n2"}})
+	if got := texts(s); !reflect.DeepEqual(got, []string{"first part\n\nsecond part", "only second"}) {
+		t.Errorf("joined %q", got)
+	}
+}
+
+func TestGarbageDates(t *testing.T) {
+	in := "id,date,narrative\n1,2020-01-05,a\n2,??,b\n3,N/A,c\n4,tbd,d\n5,soon,e\n"
+	s, err := readOne(t, "g.csv", in, Options{Date: "date"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(s.Records) != 1 || len(s.Rejects) != 4 || s.Rejects[0].Reason != ReasonUnparseableDate {
+		t.Errorf("%s", s.Summary())
+	}
+	mostly := false
+	for _, n := range s.Notes {
+		mostly = mostly || strings.Contains(n, "mostly not dates")
+	}
+	if !mostly {
+		t.Errorf("no note on a garbage date column: %q", s.Notes)
+	}
+	// Not named: the column is not chosen, and a note says so.
+	s, _ = readOne(t, "g.csv", in, Options{})
+	if s.DateName != "" || len(s.Records) != 5 {
+		t.Errorf("auto chose %q, kept %d", s.DateName, len(s.Records))
+	}
+}
+
+func TestDayFirstColumn(t *testing.T) {
+	in := "id,date,narrative\n1,03/04/2020,a\n2,25/12/2020,b\n"
+	s, err := readOne(t, "d.csv", in, Options{})
+	if err != nil || s.DateRead != "day-first" || s.Records[0].Date.Month() != 4 {
+		t.Errorf("%v %q %v", err, s.DateRead, s.Notes)
+	}
+	s, _ = readOne(t, "d.csv", in, Options{DateFormat: "%d/%m/%Y"})
+	if s.Records[0].Date.Month() != 4 || s.DateRead != "layout 02/01/2006" {
+		t.Errorf("explicit format: %q %v", s.DateRead, s.Records[0].Date)
+	}
+	_, err = readOne(t, "d.csv", in, Options{DateFormat: "dd/mm"})
+	if !errors.Is(err, ErrDateFormat) {
+		t.Errorf("bad format option: %v", err)
+	}
+}
+
+func TestEncodings(t *testing.T) {
+	const text = "id,narrative\n1,caf\u00e9 \u2013 \u201cquoted\u201d\n"
+	utf16 := func(be bool) []byte {
+		var b []byte
+		if be {
+			b = []byte{0xFE, 0xFF}
+		} else {
+			b = []byte{0xFF, 0xFE}
+		}
+		for _, r := range text { // all in the BMP
+			hi, lo := byte(r>>8), byte(r)
+			if be {
+				b = append(b, hi, lo)
+			} else {
+				b = append(b, lo, hi)
+			}
+		}
+		return b
+	}
+	// Windows-1252: 0xE9 é, 0x96 en dash, 0x93 0x94 curly quotes (the code page's
+	// published table, from memory).
+	cp1252 := []byte("id,narrative\n1,caf\xe9 \x96 \x93quoted\x94\n")
+	tests := []struct {
+		name    string
+		in      []byte
+		enc     string
+		invalid int
+		want    string
+	}{
+		{"utf8", []byte(text), EncUTF8, 0, "caf\u00e9 \u2013 \u201cquoted\u201d"},
+		{"bom", append([]byte{0xEF, 0xBB, 0xBF}, text...), EncUTF8BOM, 0, "caf\u00e9 \u2013 \u201cquoted\u201d"},
+		{"utf16le", utf16(false), EncUTF16LE, 0, "caf\u00e9 \u2013 \u201cquoted\u201d"},
+		{"utf16be", utf16(true), EncUTF16BE, 0, "caf\u00e9 \u2013 \u201cquoted\u201d"},
+		{"cp1252", cp1252, EncWindows1252, 0, "caf\u00e9 \u2013 \u201cquoted\u201d"},
+	}
+	for _, tt := range tests {
+		s, err := Read(context.Background(), []string{writeFile(t, tt.name+".csv", tt.in)}, nil, Options{Now: testNow})
+		if err != nil {
+			t.Fatalf("%s: %v", tt.name, err)
+		}
+		if s.Files[0].Encoding != tt.enc || s.Records[0].Text != tt.want || s.IDName != "id" {
+			t.Errorf("%s: encoding %q text %q id %q", tt.name, s.Files[0].Encoding, s.Records[0].Text, s.IDName)
+		}
+	}
+	// Mixed: two UTF-8 lines and one Windows-1252 line -> UTF-8, one invalid line.
+	mixed := []byte("id,narrative\n1,caf\u00e9\n2,na\u00efve\n3,caf\xe9\n")
+	s, err := Read(context.Background(), []string{writeFile(t, "mixed.csv", mixed)}, nil, Options{Now: testNow})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if f := s.Files[0]; f.Encoding != EncUTF8 || f.InvalidLines != 1 || s.Records[2].Text != "caf\uFFFD" || len(s.Notes) == 0 {
+		t.Errorf("mixed: %+v %q %q", f, s.Records[2].Text, s.Notes)
+	}
+	// Mostly Windows-1252 -> Windows-1252, the UTF-8 line counted.
+	mixed = []byte("id,narrative\n1,caf\xe9\n2,na\xefve\n3,caf\u00e9\n")
+	s, _ = Read(context.Background(), []string{writeFile(t, "mixed2.csv", mixed)}, nil, Options{Now: testNow})
+	if f := s.Files[0]; f.Encoding != EncWindows1252 || f.InvalidLines != 1 || s.Records[0].Text != "caf\u00e9" {
+		t.Errorf("mixed2: %+v", f)
+	}
+}
+
+func TestJSON(t *testing.T) {
+	arr := `[
+  {"id": 1, "narrative": "first", "nested": {"a": [1, 2]}, "flag": true},
+  {"id": "2", "narrative": "second", "extra": null},
+  {"id": 3.5, "narrative": ""},
+  42
+]`
+	s, err := readOne(t, "a.json", arr, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s.Files[0].Format != "json" || !reflect.DeepEqual(texts(s), []string{"first", "second"}) {
+		t.Fatalf("%s %q", s.Summary(), texts(s))
+	}
+	if s.Records[0].ID != "1" || !reflect.DeepEqual(s.ExtraNames, []string{"nested", "flag", "extra"}) ||
+		!reflect.DeepEqual(s.Records[0].Extra, []string{`{"a":[1,2]}`, "true", ""}) {
+		t.Errorf("%q %q %q", s.Records[0].ID, s.ExtraNames, s.Records[0].Extra)
+	}
+	lines := []int{s.Records[0].Line, s.Records[1].Line, s.Rejects[0].Line, s.Rejects[1].Line}
+	if !reflect.DeepEqual(lines, []int{2, 3, 4, 5}) || s.Rejects[1].Reason != ReasonBadJSON {
+		t.Errorf("lines %v rejects %+v", lines, s.Rejects)
+	}
+	jl := "{\"id\":\"a\",\"text\":\"one\"}\n\n{\"id\":\"b\",\"text\":\"two\"}\n{broken\n"
+	s, err = readOne(t, "a.jsonl", jl, Options{})
+	if err != nil || len(s.Records) != 2 || s.Rejects[0].Line != 4 || s.Rejects[0].Reason != ReasonBadJSON {
+		t.Errorf("jsonl: %v %s %+v", err, s.Summary(), s.Rejects)
+	}
+	_, err = readOne(t, "b.json", `[{"id":1,"text":"x"}, {"id":`, Options{})
+	if err == nil {
+		t.Error("truncated array accepted")
+	}
+}
+
+func TestTextDirAndStdin(t *testing.T) {
+	dir := t.TempDir()
+	os.WriteFile(filepath.Join(dir, "b.txt"), []byte("Date: 2020-01-05\nSecond narrative.\n"), 0o644)
+	os.WriteFile(filepath.Join(dir, "a.txt"), []byte("First narrative, no date line.\n"), 0o644)
+	os.WriteFile(filepath.Join(dir, "c.txt"), []byte("caf\xe9 in Windows-1252\n"), 0o644)
+	os.WriteFile(filepath.Join(dir, "skip.md"), []byte("not read"), 0o644)
+	s, err := Read(context.Background(), []string{dir}, nil, Options{Now: testNow})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(s.Records) != 3 || s.Records[0].ID != "a" || s.Records[1].ID != "b" || !s.Records[1].HasDate || s.Records[1].Text != "Second narrative." ||
+		s.Records[2].Text != "caf\u00e9 in Windows-1252" || s.Files[0].Encoding != "mixed: utf-8 2, windows-1252 1" {
+		t.Errorf("%+v %+v", s.Records, s.Files)
+	}
+	s, err = Read(context.Background(), []string{"-"}, strings.NewReader("id\tnarrative\n1\tfrom stdin\n"), Options{Now: testNow})
+	if err != nil || s.Records[0].File != StdinName || s.Records[0].Text != "from stdin" {
+		t.Errorf("stdin: %v %+v", err, s)
+	}
+}
+
+func TestSeveralFiles(t *testing.T) {
+	a := writeFile(t, "2019.csv", []byte("id,narrative,district\n1,one,N\n"))
+	b := writeFile(t, "2020.csv", []byte("district,id,narrative\nS,2,two\n"))
+	c := writeFile(t, "2021.csv", []byte("id,narrative,beat\n3,three,7\n"))
+	s, err := Read(context.Background(), []string{a, b}, nil, Options{Now: testNow, Groups: []string{"district"}})
+	if err != nil || len(s.Records) != 2 || s.Records[1].Groups[0] != "S" || s.Records[1].File != b {
+		t.Fatalf("%v %+v", err, s)
+	}
+	_, err = Read(context.Background(), []string{a, c}, nil, Options{Now: testNow})
+	if !errors.Is(err, ErrColumns) || !strings.HasPrefix(err.Error(), c+":1:") || !strings.Contains(err.Error(), `missing "district"; extra "beat"`) {
+		t.Errorf("err %v", err)
+	}
+}
+
+func TestXLSX(t *testing.T) {
+	f := excelize.NewFile()
+	f.SetSheetRow("Sheet1", "A1", &[]any{"Incident No", "Occurred", "Synopsis", "Zone"})
+	f.SetSheetRow("Sheet1", "A2", &[]any{"A-1", 43835.6041666667, "Caller reported a loose dog on Maple Row.", "East"})
+	f.SetSheetRow("Sheet1", "A4", &[]any{"A-2", 43836, "Alarm at the Quarry Lane library, all clear.", "West"})
+	f.SetSheetRow("Sheet1", "A5", &[]any{"A-3", 43837, "Too many cells", "West", "spill"})
+	f.NewSheet("Other")
+	f.SetSheetRow("Other", "A1", &[]any{"id", "text"})
+	f.SetSheetRow("Other", "A2", &[]any{"9", "from the other sheet"})
+	var buf bytes.Buffer
+	if _, err := f.WriteTo(&buf); err != nil {
+		t.Fatal(err)
+	}
+	// Extension says .csv: the bytes decide.
+	p := writeFile(t, "book.csv", buf.Bytes())
+	s, err := Read(context.Background(), []string{p}, nil, Options{Now: testNow})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s.Files[0].Format != "xlsx" || s.DateName != "Occurred" || s.IDName != "Incident No" || len(s.Records) != 2 {
+		t.Fatalf("%+v %s %q", s.Files, s.Summary(), s.Notes)
+	}
+	if got := s.Records[0].Date.Format("2006-01-02 15:04"); got != "2020-01-05 14:30" || s.Records[1].Line != 4 {
+		t.Errorf("date %s line %d", got, s.Records[1].Line)
+	}
+	if s.Rejects[0].Reason != ReasonRaggedRow || s.Rejects[0].Line != 5 {
+		t.Errorf("rejects %+v", s.Rejects)
+	}
+	s, err = Read(context.Background(), []string{p}, nil, Options{Now: testNow, Sheet: "other"})
+	if err != nil || s.Records[0].Text != "from the other sheet" {
+		t.Errorf("sheet option: %v", err)
+	}
+	if _, err = Read(context.Background(), []string{p}, nil, Options{Now: testNow, Sheet: "nope"}); err == nil || !strings.Contains(err.Error(), `"Other"`) {
+		t.Errorf("missing sheet: %v", err)
+	}
+}
+
+func TestHugeField(t *testing.T) {
+	if testing.Short() {
+		t.Skip("50 MB field")
+	}
+	// A 50 MB narrative (the brief), plus one over 128 KiB (issue 2), generated here.
+	big := strings.Repeat("word ", 10<<20)
+	mid := strings.Repeat("x", 200<<10)
+	in := "id,narrative\n1,\"" + big + "\"\n2," + mid + "\n3,small\n"
+	s, err := readOne(t, "big.csv", in, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(s.Records) != 3 || len(s.Records[0].Text) != len(big)-1 || len(s.Records[1].Text) != len(mid) || s.Records[2].Line != 4 {
+		t.Errorf("%s", s.Summary())
+	}
+}

@@ -1,0 +1,118 @@
+package intake
+
+import (
+	"archive/zip"
+	"bufio"
+	"bytes"
+	"context"
+	"fmt"
+	"io"
+	"path/filepath"
+	"strings"
+)
+
+// table is one input file read into rows of strings, before columns are chosen.
+type table struct {
+	info    FileInfo
+	header  []string
+	rows    []rawRow
+	rejects []Reject // rows rejected while parsing (ragged, bad quoting, bad json)
+	notes   []string
+	xlsx    bool
+}
+
+type rawRow struct {
+	line int
+	f    []string
+	file string // the file of the row when it differs from the table's (a .txt folder)
+}
+
+func (t *table) read() int { return len(t.rows) + len(t.rejects) }
+
+// readSource reads one file whose bytes are r[0:size]; name is used in messages.
+func readSource(ctx context.Context, name string, r io.ReaderAt, size int64, opt *Options) (*table, error) {
+	if size == 0 {
+		return nil, &PosError{File: name, Err: ErrEmpty}
+	}
+	head := make([]byte, 8)
+	n, _ := r.ReadAt(head, 0)
+	head = head[:n]
+	switch {
+	case bytes.HasPrefix(head, []byte("PK\x03\x04")):
+		zr, err := zip.NewReader(r, size)
+		if err != nil {
+			return nil, &PosError{File: name, Err: fmt.Errorf("%w: zip archive that cannot be opened: %v", ErrBinary, err)}
+		}
+		for _, f := range zr.File {
+			if strings.HasPrefix(f.Name, "xl/") {
+				return readXLSX(ctx, name, io.NewSectionReader(r, 0, size), opt)
+			}
+		}
+		return nil, &PosError{File: name, Err: fmt.Errorf("%w: zip archive that is not an Excel workbook (no xl/ inside)", ErrBinary)}
+	case bytes.HasPrefix(head, []byte{0xD0, 0xCF, 0x11, 0xE0, 0xA1, 0xB1, 0x1A, 0xE1}):
+		return nil, &PosError{File: name, Err: fmt.Errorf("%w: legacy Excel .xls (or other OLE2) file; save it as .xlsx or CSV", ErrBinary)}
+	}
+	dec, err := decideEncoding(name, head, func() (byteScan, error) {
+		return scanBytes(io.NewSectionReader(r, 0, size))
+	})
+	if err != nil {
+		return nil, err
+	}
+	br := bufio.NewReaderSize(decodedReader(r, size, dec), 64<<10)
+	peek, _ := br.Peek(64 << 10)
+	if len(peek) < 64<<10 && len(bytes.TrimSpace(peek)) == 0 {
+		return nil, &PosError{File: name, Err: ErrEmpty}
+	}
+	var t *table
+	ext := strings.ToLower(filepath.Ext(name))
+	first := firstNonSpace(peek)
+	if ext != ".csv" && ext != ".tsv" && (first == '[' || first == '{') {
+		t, err = readJSON(ctx, name, br, first == '[', dec, opt)
+	} else {
+		t, err = readCSV(ctx, name, br, peek, ext, dec, opt)
+	}
+	if err != nil {
+		return nil, err
+	}
+	t.info.Encoding = dec.encoding
+	t.info.InvalidLines = dec.invalidLines
+	if dec.note != "" {
+		t.notes = append([]string{dec.note}, t.notes...)
+	}
+	return t, nil
+}
+
+func firstNonSpace(b []byte) byte {
+	for _, c := range b {
+		switch c {
+		case ' ', '\t', '\r', '\n':
+			continue
+		}
+		return c
+	}
+	return 0
+}
+
+// uniqueHeader trims header names, names empty ones "column N" and suffixes repeats
+// " (2)", " (3)" ..., noting each change.
+func uniqueHeader(name string, h []string) ([]string, []string) {
+	var notes []string
+	seen := map[string]int{}
+	out := make([]string, len(h))
+	for i, c := range h {
+		c = strings.TrimSpace(c)
+		if c == "" {
+			c = fmt.Sprintf("column %d", i+1)
+			notes = append(notes, fmt.Sprintf("%s: column %d has no name, called %q", name, i+1, c))
+		}
+		if n := seen[c]; n > 0 {
+			nc := fmt.Sprintf("%s (%d)", c, n+1)
+			notes = append(notes, fmt.Sprintf("%s: column %d repeats the name %q, called %q", name, i+1, c, nc))
+			seen[c]++
+			c = nc
+		}
+		seen[c]++
+		out[i] = c
+	}
+	return out, notes
+}
