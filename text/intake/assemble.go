@@ -28,8 +28,8 @@ func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
 	header := tabs[0].header
 	xlsx := true
 	var rows []rowRef
+	s.Notes = mergeNotes(tabs)
 	for fi, t := range tabs {
-		s.Notes = append(s.Notes, t.notes...)
 		s.Files = append(s.Files, t.info)
 		s.Read += t.read()
 		xlsx = xlsx && t.xlsx
@@ -342,4 +342,45 @@ func (r *dateReading) describe() string {
 		return "Excel serial (1900 system)"
 	}
 	return r.order.String()
+}
+
+// mergeNotes gathers the per-file notes; a note that several files share word for word
+// (after their "path: " prefix) is given once with the number of files and the first.
+func mergeNotes(tabs []*table) []string {
+	type group struct {
+		files []string
+		first int
+	}
+	var order []string
+	groups := map[string]*group{}
+	for _, t := range tabs {
+		for _, n := range t.notes {
+			body, file := n, ""
+			if p := t.info.Path + ": "; strings.HasPrefix(n, p) {
+				body, file = n[len(p):], t.info.Path
+			}
+			g, ok := groups[body]
+			if !ok || file == "" {
+				g = &group{}
+				groups[body] = g
+				order = append(order, body)
+			}
+			if file != "" {
+				g.files = append(g.files, file)
+			}
+		}
+	}
+	var out []string
+	for _, body := range order {
+		g := groups[body]
+		switch len(g.files) {
+		case 0:
+			out = append(out, body)
+		case 1:
+			out = append(out, g.files[0]+": "+body)
+		default:
+			out = append(out, fmt.Sprintf("%s and %d more files: %s", g.files[0], len(g.files)-1, body))
+		}
+	}
+	return out
 }

@@ -8,6 +8,7 @@ import (
 	"fmt"
 	"io"
 	"strings"
+	"unicode/utf8"
 )
 
 // sniffDelimiter chooses the field separator from the first lines of decoded text.
@@ -93,8 +94,8 @@ func readCSV(ctx context.Context, name string, br *bufio.Reader, peek []byte, ex
 	delim, spaced := opt.Delimiter, false
 	if delim == 0 {
 		delim, spaced = sniffDelimiter(peek)
-		if ext == ".tsv" && delim == ',' && !strings.ContainsRune(string(peek), ',') {
-			delim = '\t'
+		if hdr, _, _ := strings.Cut(string(peek[:min(len(peek), 4096)]), "\n"); ext == ".tsv" && strings.Contains(hdr, "\t") {
+			delim, spaced = '\t', false
 		}
 	}
 	t := &table{info: FileInfo{Path: name, Format: "csv", Delimiter: delimName(delim, spaced)}}
@@ -147,6 +148,11 @@ func readCSV(ctx context.Context, name string, br *bufio.Reader, peek []byte, ex
 		}
 		line, _ := cr.FieldPos(0)
 		if dec.sanitize {
+			if bad := invalidField(rec); bad >= 0 && opt.RejectBadEncoding {
+				t.rejects = append(t.rejects, Reject{File: name, Line: line, ID: clip(strings.ToValidUTF8(rec[0], "\uFFFD"), 64),
+					Reason: ReasonBadEncoding, Detail: fmt.Sprintf("field %d holds bytes that are not valid UTF-8", bad+1)})
+				continue
+			}
 			for j := range rec {
 				rec[j] = strings.ToValidUTF8(rec[j], "\uFFFD")
 			}
@@ -194,4 +200,14 @@ func clip(s string, n int) string {
 		n--
 	}
 	return s[:n] + "..."
+}
+
+// invalidField returns the index of the first field that is not valid UTF-8, or -1.
+func invalidField(f []string) int {
+	for i, v := range f {
+		if !utf8.ValidString(v) {
+			return i
+		}
+	}
+	return -1
 }

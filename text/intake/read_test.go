@@ -334,6 +334,10 @@ func TestEncodings(t *testing.T) {
 	if f := s.Files[0]; f.Encoding != EncUTF8 || f.InvalidLines != 1 || s.Records[2].Text != "caf\uFFFD" || len(s.Notes) == 0 {
 		t.Errorf("mixed: %+v %q %q", f, s.Records[2].Text, s.Notes)
 	}
+	s, _ = Read(context.Background(), []string{writeFile(t, "mixed.csv", mixed)}, nil, Options{Now: testNow, RejectBadEncoding: true})
+	if len(s.Records) != 2 || len(s.Rejects) != 1 || s.Rejects[0].Reason != ReasonBadEncoding || s.Rejects[0].Line != 4 {
+		t.Errorf("RejectBadEncoding: %s %+v", s.Summary(), s.Rejects)
+	}
 	// Mostly Windows-1252 -> Windows-1252, the UTF-8 line counted.
 	mixed = []byte("id,narrative\n1,caf\xe9\n2,na\xefve\n3,caf\u00e9\n")
 	s, _ = Read(context.Background(), []string{writeFile(t, "mixed2.csv", mixed)}, nil, Options{Now: testNow})
