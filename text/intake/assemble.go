@@ -197,13 +197,13 @@ func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
 		cands = append(cands, cand{rec, r.fi})
 	}
 	if synth > 0 {
-		s.Notes = append(s.Notes, fmt.Sprintf("id column %q: %d rows have no id; their id is file:line", s.IDName, synth))
+		s.Notes = append(s.Notes, fmt.Sprintf("id column %q: %s no id; their id is file:line", s.IDName, count(synth, "row has", "rows have")))
 	}
 	if noDate > 0 {
-		s.Notes = append(s.Notes, fmt.Sprintf("date column %q: %d rows have no date; kept without one", s.DateName, noDate))
+		s.Notes = append(s.Notes, fmt.Sprintf("date column %q: %s no date; kept without one", s.DateName, count(noDate, "row has", "rows have")))
 	}
 	if dateCol >= 0 && badDate+implausible > 0 {
-		s.Notes = append(s.Notes, fmt.Sprintf("date column %q: %d values do not read as dates, %d are implausible; those rows are rejected", s.DateName, badDate, implausible))
+		s.Notes = append(s.Notes, fmt.Sprintf("date column %q: rows rejected for an unparseable date %d, for an implausible date %d", s.DateName, badDate, implausible))
 		if nonEmpty := len(rows) - noDate; nonEmpty > 0 && 2*badDate > nonEmpty {
 			s.Notes = append(s.Notes, fmt.Sprintf("date column %q is mostly not dates (%d of %d values); check the column or name another", s.DateName, badDate, nonEmpty))
 		}
@@ -246,7 +246,7 @@ func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
 		if opt.KeepLast {
 			which = "last"
 		}
-		s.Notes = append(s.Notes, fmt.Sprintf("duplicate ids: %d rows share an id with another; kept the %s of each", dups, which))
+		s.Notes = append(s.Notes, fmt.Sprintf("duplicate ids: %s an id with another row; kept the %s of each", count(dups, "row shares", "rows share"), which))
 	}
 	for i, c := range cands {
 		if !drop[i] {
@@ -383,4 +383,12 @@ func mergeNotes(tabs []*table) []string {
 		}
 	}
 	return out
+}
+
+// count writes n with the singular or plural words: count(1, "row has", "rows have").
+func count(n int, one, many string) string {
+	if n == 1 {
+		return "1 " + one
+	}
+	return fmt.Sprintf("%d %s", n, many)
 }

@@ -92,6 +92,9 @@ func delimName(d rune, spaced bool) string {
 // rest of the file was swallowed by it.
 func readCSV(ctx context.Context, name string, br *bufio.Reader, peek []byte, ext string, dec decision, opt *Options) (*table, error) {
 	delim, spaced := opt.Delimiter, false
+	if delim == ',' {
+		_, spaced = sniffDelimiter(peek)
+	}
 	if delim == 0 {
 		delim, spaced = sniffDelimiter(peek)
 		if hdr, _, _ := strings.Cut(string(peek[:min(len(peek), 4096)]), "\n"); ext == ".tsv" && strings.Contains(hdr, "\t") {

@@ -5,6 +5,8 @@ import (
 	"context"
 	"errors"
 	"testing"
+
+	"github.com/xuri/excelize/v2"
 )
 
 // readBytes reads one in-memory file as Read would.
@@ -82,6 +84,23 @@ func FuzzReadJSON(f *testing.F) {
 	}
 	f.Fuzz(func(t *testing.T, data []byte) {
 		s, err := readBytes("f.json", data, Options{})
+		checkAccounting(t, data, s, err)
+	})
+}
+
+func FuzzReadXLSX(f *testing.F) {
+	book := excelize.NewFile()
+	book.SetSheetRow("Sheet1", "A1", &[]any{"id", "date", "narrative"})
+	book.SetSheetRow("Sheet1", "A2", &[]any{1, 43835.5, "first"})
+	book.SetSheetRow("Sheet1", "A3", &[]any{2, "2020-01-06", "second", "extra"})
+	var buf bytes.Buffer
+	if _, err := book.WriteTo(&buf); err != nil {
+		f.Fatal(err)
+	}
+	f.Add(buf.Bytes())
+	f.Add([]byte("PK\x03\x04"))
+	f.Fuzz(func(t *testing.T, data []byte) {
+		s, err := readBytes("f.xlsx", data, Options{})
 		checkAccounting(t, data, s, err)
 	})
 }

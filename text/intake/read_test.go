@@ -125,7 +125,7 @@ func TestBadInputs(t *testing.T) {
 		{"blank.csv", "\n\n  \n", ErrEmpty, "blank.csv: empty file"},
 		{"header.csv", "id,narrative\n", ErrHeaderOnly, "header.csv:1: header only"},
 		{"unclosed.csv", "id,narrative\n1,\"never closed\n2,two\n", ErrUnclosedQuote, "unclosed.csv:3:7: unclosed quote: the quoted field of the record starting at line 2 never closes"},
-		{"bin.csv", "id,narrative\n1,\x00\x01\x02\n", ErrBinary, "bin.csv: binary content, not a text export (NUL byte at offset 15)"},
+		{"bin.csv", "id,narrative\n1,\x00\x01\x02\n", ErrBinary, "bin.csv:2:3: binary content, not a text export (NUL byte at offset 15)"},
 		{"zip.csv", "PK\x03\x04garbage", ErrBinary, "zip.csv: binary content"},
 		{"ole.xls", "\xD0\xCF\x11\xE0\xA1\xB1\x1A\xE1rest", ErrBinary, "ole.xls: binary content, not a text export: legacy Excel"},
 	}
