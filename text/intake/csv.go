@@ -122,7 +122,7 @@ func readCSV(ctx context.Context, name string, br *bufio.Reader, peek []byte, ex
 	if spaced {
 		t.notes = append(t.notes, fmt.Sprintf("%s: fields separated by \", \" (comma and space); leading spaces of fields are dropped", name))
 	}
-	blank := 0
+	blank, trailing, quoting := 0, 0, 0
 	for i := 0; ; i++ {
 		if i&1023 == 0 {
 			if err := ctx.Err(); err != nil {
@@ -147,6 +147,7 @@ func readCSV(ctx context.Context, name string, br *bufio.Reader, peek []byte, ex
 				d = fmt.Sprintf("record on lines %d-%d, at %s", pe.StartLine, pe.Line, d)
 			}
 			t.rejects = append(t.rejects, Reject{File: name, Line: pe.StartLine, Reason: ReasonBadQuoting, Detail: d})
+			quoting++
 			continue
 		}
 		line, _ := cr.FieldPos(0)
@@ -159,6 +160,11 @@ func readCSV(ctx context.Context, name string, br *bufio.Reader, peek []byte, ex
 			for j := range rec {
 				rec[j] = strings.ToValidUTF8(rec[j], "\uFFFD")
 			}
+		}
+		if len(rec) > len(t.header) && allBlank(rec[len(t.header):]) {
+			// A trailing delimiter (or several) with nothing after it: no data is lost.
+			rec = rec[:len(t.header)]
+			trailing++
 		}
 		if len(rec) != len(t.header) {
 			if len(rec) == 1 && strings.TrimSpace(rec[0]) == "" {
@@ -175,6 +181,12 @@ func readCSV(ctx context.Context, name string, br *bufio.Reader, peek []byte, ex
 			continue
 		}
 		t.rows = append(t.rows, rawRow{line: line, f: rec})
+	}
+	if trailing > 0 {
+		t.notes = append(t.notes, fmt.Sprintf("%s: %s empty fields after the header's last column; dropped them", name, count(trailing, "row ends in", "rows end in")))
+	}
+	if quoting > 0 && !opt.LazyQuotes {
+		t.notes = append(t.notes, fmt.Sprintf("%s: %s bad quoting (RFC 4180); the lazy-quotes option reads such rows leniently", name, count(quoting, "row was rejected for", "rows were rejected for")))
 	}
 	if blank > 0 {
 		t.notes = append(t.notes, fmt.Sprintf("%s: %d lines hold only spaces; not counted as rows", name, blank))

@@ -205,6 +205,13 @@ func TestRowRejects(t *testing.T) {
 	}
 }
 
+func TestTrailingDelimiter(t *testing.T) {
+	s, err := readOne(t, "t.csv", "id,narrative\n1,one,\n2,two,,\n3,three,x\n", Options{})
+	if err != nil || len(s.Records) != 2 || s.Rejects[0].Reason != ReasonRaggedRow || s.Rejects[0].Line != 4 {
+		t.Errorf("%v %s %+v", err, s.Summary(), s.Rejects)
+	}
+}
+
 func TestNamedColumnMissing(t *testing.T) {
 	_, err := readOne(t, "n.csv", "Report ID,Narrative,District\n1,a,b\n", Options{Text: []string{"narative"}})
 	if !errors.Is(err, ErrNoColumn) || !strings.Contains(err.Error(), `did you mean "Narrative"`) || !strings.Contains(err.Error(), `"District"`) {
