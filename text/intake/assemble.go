@@ -28,8 +28,8 @@ func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
 	header := tabs[0].header
 	xlsx := true
 	var rows []rowRef
+	s.Notes = mergeNotes(tabs)
 	for fi, t := range tabs {
-		s.Notes = append(s.Notes, t.notes...)
 		s.Files = append(s.Files, t.info)
 		s.Read += t.read()
 		xlsx = xlsx && t.xlsx
@@ -197,13 +197,13 @@ func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
 		cands = append(cands, cand{rec, r.fi})
 	}
 	if synth > 0 {
-		s.Notes = append(s.Notes, fmt.Sprintf("id column %q: %d rows have no id; their id is file:line", s.IDName, synth))
+		s.Notes = append(s.Notes, fmt.Sprintf("id column %q: %s no id; their id is file:line", s.IDName, count(synth, "row has", "rows have")))
 	}
 	if noDate > 0 {
-		s.Notes = append(s.Notes, fmt.Sprintf("date column %q: %d rows have no date; kept without one", s.DateName, noDate))
+		s.Notes = append(s.Notes, fmt.Sprintf("date column %q: %s no date; kept without one", s.DateName, count(noDate, "row has", "rows have")))
 	}
 	if dateCol >= 0 && badDate+implausible > 0 {
-		s.Notes = append(s.Notes, fmt.Sprintf("date column %q: %d values do not read as dates, %d are implausible; those rows are rejected", s.DateName, badDate, implausible))
+		s.Notes = append(s.Notes, fmt.Sprintf("date column %q: rows rejected for an unparseable date %d, for an implausible date %d", s.DateName, badDate, implausible))
 		if nonEmpty := len(rows) - noDate; nonEmpty > 0 && 2*badDate > nonEmpty {
 			s.Notes = append(s.Notes, fmt.Sprintf("date column %q is mostly not dates (%d of %d values); check the column or name another", s.DateName, badDate, nonEmpty))
 		}
@@ -246,7 +246,7 @@ func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
 		if opt.KeepLast {
 			which = "last"
 		}
-		s.Notes = append(s.Notes, fmt.Sprintf("duplicate ids: %d rows share an id with another; kept the %s of each", dups, which))
+		s.Notes = append(s.Notes, fmt.Sprintf("duplicate ids: %s an id with another row; kept the %s of each", count(dups, "row shares", "rows share"), which))
 	}
 	for i, c := range cands {
 		if !drop[i] {
@@ -342,4 +342,53 @@ func (r *dateReading) describe() string {
 		return "Excel serial (1900 system)"
 	}
 	return r.order.String()
+}
+
+// mergeNotes gathers the per-file notes; a note that several files share word for word
+// (after their "path: " prefix) is given once with the number of files and the first.
+func mergeNotes(tabs []*table) []string {
+	type group struct {
+		files []string
+		first int
+	}
+	var order []string
+	groups := map[string]*group{}
+	for _, t := range tabs {
+		for _, n := range t.notes {
+			body, file := n, ""
+			if p := t.info.Path + ": "; strings.HasPrefix(n, p) {
+				body, file = n[len(p):], t.info.Path
+			}
+			g, ok := groups[body]
+			if !ok || file == "" {
+				g = &group{}
+				groups[body] = g
+				order = append(order, body)
+			}
+			if file != "" {
+				g.files = append(g.files, file)
+			}
+		}
+	}
+	var out []string
+	for _, body := range order {
+		g := groups[body]
+		switch len(g.files) {
+		case 0:
+			out = append(out, body)
+		case 1:
+			out = append(out, g.files[0]+": "+body)
+		default:
+			out = append(out, fmt.Sprintf("%s and %d more files: %s", g.files[0], len(g.files)-1, body))
+		}
+	}
+	return out
+}
+
+// count writes n with the singular or plural words: count(1, "row has", "rows have").
+func count(n int, one, many string) string {
+	if n == 1 {
+		return "1 " + one
+	}
+	return fmt.Sprintf("%d %s", n, many)
 }

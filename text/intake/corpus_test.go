@@ -2,8 +2,10 @@ package intake
 
 import (
 	"context"
+	"encoding/json"
 	"os"
 	"path/filepath"
+	"reflect"
 	"sort"
 	"testing"
 	"time"
@@ -37,6 +39,37 @@ func sharedDir(t *testing.T) string {
 	}
 }
 
+// corpusCounts reads testdata/corpus_counts.json, written by
+// testdata/gen_corpus_counts.py (Python's csv module, independent of this package).
+func corpusCounts(t *testing.T, name string) (read, kept int, rejected map[string]int) {
+	t.Helper()
+	b, err := os.ReadFile(filepath.Join("testdata", "corpus_counts.json"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var all map[string]struct {
+		Read, Kept int
+		Rejected   map[string]int
+	}
+	if err := json.Unmarshal(b, &all); err != nil {
+		t.Fatal(err)
+	}
+	c := all[name]
+	return c.Read, c.Kept, c.Rejected
+}
+
+func checkCounts(t *testing.T, name string, s *Set) {
+	t.Helper()
+	read, kept, rej := corpusCounts(t, name)
+	got := map[string]int{}
+	for _, c := range RejectCounts(s.Rejects) {
+		got[c.Reason] = c.N
+	}
+	if s.Read != read || len(s.Records) != kept || !reflect.DeepEqual(got, rej) {
+		t.Errorf("%s: %s; want read %d, kept %d, rejected %v (testdata/corpus_counts.json)", name, s.Summary(), read, kept, rej)
+	}
+}
+
 // corpusNow is a fixed present for the corpus runs (after their last dates).
 var corpusNow = time.Date(2026, 1, 1, 0, 0, 0, 0, time.UTC)
 
@@ -46,18 +79,19 @@ func TestCorpusOSHA(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	t.Log(s.Summary())
-	for _, n := range s.Notes {
-		t.Log(n)
-	}
 	// 4,847 rows: /work/shared/corpora/SOURCES.md.
 	if s.Read != 4847 || len(s.Records)+len(s.Rejects) != s.Read {
 		t.Fatalf("read %d, kept %d, rejected %d; want 4847 accounted", s.Read, len(s.Records), len(s.Rejects))
 	}
-	if s.DateName != "Event Date" {
-		t.Errorf("date column %q, want \"Event Date\" (SOURCES.md)", s.DateName)
+	checkCounts(t, "osha", s)
+	if s.DateName != "Event Date" || s.DateRead != "month-first" || s.TextNames[0] != "Abstract Text" || s.IDName != "summary_nr" {
+		t.Errorf("columns id %q date %q (%s) text %q; want summary_nr, Event Date (M/D/YYYY, SOURCES.md), Abstract Text", s.IDName, s.DateName, s.DateRead, s.TextNames)
 	}
-	t.Log(s.IDName, s.TextNames, s.DateRead)
+	for _, r := range s.Records {
+		if !r.HasDate {
+			t.Fatalf("record %s:%d has no date", r.File, r.Line)
+		}
+	}
 }
 
 func TestCorpusSafenet(t *testing.T) {
@@ -73,12 +107,12 @@ func TestCorpusSafenet(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	t.Log(s.Summary())
-	for _, n := range s.Notes {
-		t.Log(n)
-	}
 	if s.Read != 2394 || len(s.Records)+len(s.Rejects) != s.Read {
 		t.Fatalf("read %d, kept %d, rejected %d; want 2394 accounted", s.Read, len(s.Records), len(s.Rejects))
 	}
-	t.Log(s.IDName, s.TextNames, s.DateName, s.DateRead)
+	checkCounts(t, "safenet", s)
+	// SOURCES.md: date column "Event Start Date"; fields separated by ", ".
+	if s.IDName != "ID" || s.DateName != "Event Start Date" || s.TextNames[0] != "Narrative" || s.Files[5].Delimiter != ", " {
+		t.Errorf("columns id %q date %q text %q, delimiter %q", s.IDName, s.DateName, s.TextNames, s.Files[5].Delimiter)
+	}
 }

@@ -8,6 +8,7 @@ import (
 	"fmt"
 	"io"
 	"strings"
+	"unicode/utf8"
 )
 
 // sniffDelimiter chooses the field separator from the first lines of decoded text.
@@ -91,10 +92,13 @@ func delimName(d rune, spaced bool) string {
 // rest of the file was swallowed by it.
 func readCSV(ctx context.Context, name string, br *bufio.Reader, peek []byte, ext string, dec decision, opt *Options) (*table, error) {
 	delim, spaced := opt.Delimiter, false
+	if delim == ',' {
+		_, spaced = sniffDelimiter(peek)
+	}
 	if delim == 0 {
 		delim, spaced = sniffDelimiter(peek)
-		if ext == ".tsv" && delim == ',' && !strings.ContainsRune(string(peek), ',') {
-			delim = '\t'
+		if hdr, _, _ := strings.Cut(string(peek[:min(len(peek), 4096)]), "\n"); ext == ".tsv" && strings.Contains(hdr, "\t") {
+			delim, spaced = '\t', false
 		}
 	}
 	t := &table{info: FileInfo{Path: name, Format: "csv", Delimiter: delimName(delim, spaced)}}
@@ -118,7 +122,7 @@ func readCSV(ctx context.Context, name string, br *bufio.Reader, peek []byte, ex
 	if spaced {
 		t.notes = append(t.notes, fmt.Sprintf("%s: fields separated by \", \" (comma and space); leading spaces of fields are dropped", name))
 	}
-	blank := 0
+	blank, trailing, quoting := 0, 0, 0
 	for i := 0; ; i++ {
 		if i&1023 == 0 {
 			if err := ctx.Err(); err != nil {
@@ -143,13 +147,24 @@ func readCSV(ctx context.Context, name string, br *bufio.Reader, peek []byte, ex
 				d = fmt.Sprintf("record on lines %d-%d, at %s", pe.StartLine, pe.Line, d)
 			}
 			t.rejects = append(t.rejects, Reject{File: name, Line: pe.StartLine, Reason: ReasonBadQuoting, Detail: d})
+			quoting++
 			continue
 		}
 		line, _ := cr.FieldPos(0)
 		if dec.sanitize {
+			if bad := invalidField(rec); bad >= 0 && opt.RejectBadEncoding {
+				t.rejects = append(t.rejects, Reject{File: name, Line: line, ID: clip(strings.ToValidUTF8(rec[0], "\uFFFD"), 64),
+					Reason: ReasonBadEncoding, Detail: fmt.Sprintf("field %d holds bytes that are not valid UTF-8", bad+1)})
+				continue
+			}
 			for j := range rec {
 				rec[j] = strings.ToValidUTF8(rec[j], "\uFFFD")
 			}
+		}
+		if len(rec) > len(t.header) && allBlank(rec[len(t.header):]) {
+			// A trailing delimiter (or several) with nothing after it: no data is lost.
+			rec = rec[:len(t.header)]
+			trailing++
 		}
 		if len(rec) != len(t.header) {
 			if len(rec) == 1 && strings.TrimSpace(rec[0]) == "" {
@@ -166,6 +181,12 @@ func readCSV(ctx context.Context, name string, br *bufio.Reader, peek []byte, ex
 			continue
 		}
 		t.rows = append(t.rows, rawRow{line: line, f: rec})
+	}
+	if trailing > 0 {
+		t.notes = append(t.notes, fmt.Sprintf("%s: %s empty fields after the header's last column; dropped them", name, count(trailing, "row ends in", "rows end in")))
+	}
+	if quoting > 0 && !opt.LazyQuotes {
+		t.notes = append(t.notes, fmt.Sprintf("%s: %s bad quoting (RFC 4180); the lazy-quotes option reads such rows leniently", name, count(quoting, "row was rejected for", "rows were rejected for")))
 	}
 	if blank > 0 {
 		t.notes = append(t.notes, fmt.Sprintf("%s: %d lines hold only spaces; not counted as rows", name, blank))
@@ -194,4 +215,14 @@ func clip(s string, n int) string {
 		n--
 	}
 	return s[:n] + "..."
+}
+
+// invalidField returns the index of the first field that is not valid UTF-8, or -1.
+func invalidField(f []string) int {
+	for i, v := range f {
+		if !utf8.ValidString(v) {
+			return i
+		}
+	}
+	return -1
 }

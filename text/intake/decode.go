@@ -27,6 +27,8 @@ type byteScan struct {
 	invalidLines int   // lines with bytes that are not valid UTF-8
 	utf8Lines    int   // lines with valid multi-byte UTF-8 and no invalid bytes
 	firstNUL     int64 // offset of the first NUL byte, -1 if none
+	nulLine      int   // its 1-based line and byte column
+	nulCol       int
 }
 
 // scanBytes reads r once in chunks and classifies every line as ASCII, valid UTF-8 or
@@ -36,7 +38,7 @@ func scanBytes(r io.Reader) (byteScan, error) {
 	buf := make([]byte, 64<<10)
 	var carry []byte
 	var lineBad, lineMB, lineAny bool
-	var off int64
+	var off, lineStart int64
 	for {
 		n, err := r.Read(buf)
 		chunk := buf[:n]
@@ -50,8 +52,10 @@ func scanBytes(r io.Reader) (byteScan, error) {
 			if c < utf8.RuneSelf {
 				if c == 0 && s.firstNUL < 0 {
 					s.firstNUL = off + int64(i)
+					s.nulLine, s.nulCol = s.lines+1, int(s.firstNUL-lineStart)+1
 				}
 				if c == '\n' {
+					lineStart = off + int64(i) + 1
 					s.tally(lineBad, lineMB)
 					lineBad, lineMB, lineAny = false, false, false
 				} else {
@@ -139,7 +143,7 @@ func decideEncoding(name string, head []byte, sc func() (byteScan, error)) (deci
 		return decision{}, err
 	}
 	if s.firstNUL >= 0 {
-		return decision{}, &PosError{File: name, Err: fmt.Errorf("%w (NUL byte at offset %d)", ErrBinary, s.firstNUL)}
+		return decision{}, &PosError{File: name, Line: s.nulLine, Column: s.nulCol, Err: fmt.Errorf("%w (NUL byte at offset %d)", ErrBinary, s.firstNUL)}
 	}
 	if s.invalidLines == 0 {
 		return decision{encoding: EncUTF8}, nil

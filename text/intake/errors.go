@@ -52,5 +52,6 @@ const (
 	ReasonDuplicateIDText = "duplicate id, different text"
 	ReasonRaggedRow       = "ragged row"
 	ReasonBadQuoting      = "bad quoting"
+	ReasonBadEncoding     = "bad encoding"
 	ReasonBadJSON         = "bad json"
 )

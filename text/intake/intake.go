@@ -39,6 +39,10 @@ type Options struct {
 	// RequireDate rejects rows with an empty date ("missing date"); by default they are
 	// kept with Record.HasDate false.
 	RequireDate bool
+	// RejectBadEncoding rejects rows holding bytes that are not valid in their file's
+	// encoding ("bad encoding"); by default such bytes become U+FFFD and the rows are
+	// kept (FileInfo.InvalidLines counts the lines).
+	RejectBadEncoding bool
 	// LazyQuotes lets a quote appear in an unquoted field and a non-doubled quote in a
 	// quoted field (encoding/csv's LazyQuotes). Off by default: RFC 4180 is strict.
 	LazyQuotes bool

@@ -127,16 +127,24 @@ func readJSON(ctx context.Context, name string, br *bufio.Reader, array bool, de
 			}
 		}
 	}
-	for i := range t.rows {
-		for len(t.rows[i].f) < len(t.header) {
-			t.rows[i].f = append(t.rows[i].f, "")
+	kept := t.rows[:0]
+	for _, r := range t.rows {
+		for len(r.f) < len(t.header) {
+			r.f = append(r.f, "")
 		}
 		if dec.sanitize {
-			for j, v := range t.rows[i].f {
-				t.rows[i].f[j] = strings.ToValidUTF8(v, "\uFFFD")
+			if bad := invalidField(r.f); bad >= 0 && opt.RejectBadEncoding {
+				t.rejects = append(t.rejects, Reject{File: name, Line: r.line, Reason: ReasonBadEncoding,
+					Detail: fmt.Sprintf("value of %q holds bytes that are not valid UTF-8", t.header[bad])})
+				continue
+			}
+			for j, v := range r.f {
+				r.f[j] = strings.ToValidUTF8(v, "\uFFFD")
 			}
 		}
+		kept = append(kept, r)
 	}
+	t.rows = kept
 	if t.read() == 0 {
 		return nil, &PosError{File: name, Err: errors.New("no JSON objects")}
 	}

@@ -125,7 +125,7 @@ func TestBadInputs(t *testing.T) {
 		{"blank.csv", "\n\n  \n", ErrEmpty, "blank.csv: empty file"},
 		{"header.csv", "id,narrative\n", ErrHeaderOnly, "header.csv:1: header only"},
 		{"unclosed.csv", "id,narrative\n1,\"never closed\n2,two\n", ErrUnclosedQuote, "unclosed.csv:3:7: unclosed quote: the quoted field of the record starting at line 2 never closes"},
-		{"bin.csv", "id,narrative\n1,\x00\x01\x02\n", ErrBinary, "bin.csv: binary content, not a text export (NUL byte at offset 15)"},
+		{"bin.csv", "id,narrative\n1,\x00\x01\x02\n", ErrBinary, "bin.csv:2:3: binary content, not a text export (NUL byte at offset 15)"},
 		{"zip.csv", "PK\x03\x04garbage", ErrBinary, "zip.csv: binary content"},
 		{"ole.xls", "\xD0\xCF\x11\xE0\xA1\xB1\x1A\xE1rest", ErrBinary, "ole.xls: binary content, not a text export: legacy Excel"},
 	}
@@ -202,6 +202,13 @@ func TestRowRejects(t *testing.T) {
 	s, _ = readOne(t, "r.csv", in, Options{RequireDate: true})
 	if n := len(s.Records); n != 1 {
 		t.Errorf("RequireDate kept %d", n)
+	}
+}
+
+func TestTrailingDelimiter(t *testing.T) {
+	s, err := readOne(t, "t.csv", "id,narrative\n1,one,\n2,two,,\n3,three,x\n", Options{})
+	if err != nil || len(s.Records) != 2 || s.Rejects[0].Reason != ReasonRaggedRow || s.Rejects[0].Line != 4 {
+		t.Errorf("%v %s %+v", err, s.Summary(), s.Rejects)
 	}
 }
 
@@ -333,6 +340,10 @@ func TestEncodings(t *testing.T) {
 	}
 	if f := s.Files[0]; f.Encoding != EncUTF8 || f.InvalidLines != 1 || s.Records[2].Text != "caf\uFFFD" || len(s.Notes) == 0 {
 		t.Errorf("mixed: %+v %q %q", f, s.Records[2].Text, s.Notes)
+	}
+	s, _ = Read(context.Background(), []string{writeFile(t, "mixed.csv", mixed)}, nil, Options{Now: testNow, RejectBadEncoding: true})
+	if len(s.Records) != 2 || len(s.Rejects) != 1 || s.Rejects[0].Reason != ReasonBadEncoding || s.Rejects[0].Line != 4 {
+		t.Errorf("RejectBadEncoding: %s %+v", s.Summary(), s.Rejects)
 	}
 	// Mostly Windows-1252 -> Windows-1252, the UTF-8 line counted.
 	mixed = []byte("id,narrative\n1,caf\xe9\n2,na\xefve\n3,caf\u00e9\n")

@@ -10,6 +10,7 @@ import (
 	"regexp"
 	"sort"
 	"strings"
+	"unicode/utf8"
 )
 
 var reDateLine = regexp.MustCompile(`^(?i:date)\s*:\s*(.*)$`)
@@ -71,6 +72,11 @@ func readTextDir(ctx context.Context, dir string, opt *Options) (*table, error) 
 			return nil, &PosError{File: p, Err: err}
 		}
 		text := string(tb)
+		if dec.sanitize && opt.RejectBadEncoding && !utf8.ValidString(text) {
+			t.rejects = append(t.rejects, Reject{File: p, Line: 1, ID: id, Reason: ReasonBadEncoding,
+				Detail: fmt.Sprintf("%d lines hold bytes that are not valid UTF-8", dec.invalidLines)})
+			continue
+		}
 		if dec.sanitize {
 			text = strings.ToValidUTF8(text, "\uFFFD")
 		}
@@ -81,7 +87,7 @@ func readTextDir(ctx context.Context, dir string, opt *Options) (*table, error) 
 		}
 		t.rows = append(t.rows, rawRow{line: 1, f: []string{id, date, text}, file: p})
 	}
-	if len(t.rows) == 0 {
+	if t.read() == 0 {
 		return nil, &PosError{File: dir, Err: fmt.Errorf("%w: no .txt files in the folder", ErrEmpty)}
 	}
 	var keys []string

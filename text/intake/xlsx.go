@@ -14,7 +14,18 @@ import (
 // number format applied), so dates arrive as 1900-system serial numbers. Empty rows are
 // skipped like blank CSV lines; a row with a value beyond the header's last column is
 // rejected as a ragged row.
-func readXLSX(ctx context.Context, name string, r io.Reader, opt *Options) (*table, error) {
+func readXLSX(ctx context.Context, name string, r io.Reader, opt *Options) (t *table, err error) {
+	// A damaged workbook must give an error, never a crash; excelize is not guaranteed
+	// to be panic-free on arbitrary bytes.
+	defer func() {
+		if p := recover(); p != nil {
+			t, err = nil, &PosError{File: name, Err: fmt.Errorf("%w: damaged Excel workbook (%v)", ErrBinary, p)}
+		}
+	}()
+	return readSheet(ctx, name, r, opt)
+}
+
+func readSheet(ctx context.Context, name string, r io.Reader, opt *Options) (*table, error) {
 	f, err := excelize.OpenReader(r)
 	if err != nil {
 		return nil, &PosError{File: name, Err: fmt.Errorf("cannot open Excel workbook: %v", err)}
