@@ -1,6 +1,7 @@
 package demotown
 
 import (
+	"math"
 	"math/rand/v2"
 	"strings"
 	"time"
@@ -387,7 +388,8 @@ func (g *generator) narrative(ti int, tr *Truth) {
 	th := &themes[ti]
 	d := th.def
 	u := g.r.Float64()
-	L := d.minLen + int(float64(d.maxLen-d.minLen+1)*float64(u*u))
+	// Lengths skewed towards short: minLen + floor((maxLen-minLen+1) u^1.5).
+	L := d.minLen + int(float64(d.maxLen-d.minLen+1)*float64(u*math.Sqrt(u)))
 	routine := d.name == ThemeRoutine
 	si := -1
 	if !routine && g.cfg.MixRate > 0 && g.r.Float64() < g.cfg.MixRate {
@@ -573,6 +575,13 @@ func (g *generator) slot(name string, depth int) {
 		g.expand(streetText[g.r.IntN(len(streetText))], depth+1)
 	case "pl":
 		g.expand(places[g.r.IntN(len(places))], depth+1)
+	case "male", "female":
+		// A person noun that agrees with the narrative's pronouns.
+		alts := syn["male"]
+		if g.female {
+			alts = syn["female"]
+		}
+		g.expand(alts[g.r.IntN(len(alts))], depth+1)
 	case "animal":
 		// One animal per narrative.
 		if g.animal == "" {
@@ -601,6 +610,10 @@ func (g *generator) newPerson() person {
 	if g.r.IntN(10) < 3 {
 		f = !f
 	}
+	return g.newPersonOf(f)
+}
+
+func (g *generator) newPersonOf(f bool) person {
 	p := person{last: Surnames[g.r.IntN(len(Surnames))], female: f}
 	if f {
 		p.first = FemaleFirstNames[g.r.IntN(len(FemaleFirstNames))]
@@ -680,7 +693,7 @@ func (g *generator) piiSlot(name string) {
 			}
 		}
 		if !found || r.IntN(10) < 3 {
-			p = g.newPerson()
+			p = g.newPersonOf(g.female) // Mr./Ms. matches the narrative's pronouns
 		}
 		if p.female {
 			g.add("Ms.", pkOther)

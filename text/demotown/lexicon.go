@@ -90,7 +90,7 @@ var abbrevs = map[string]string{
 var syn = map[string][]string{
 	"veh":       {"vehicle", "vehicle", "vehicle", "car", "^veh", "^veh"},
 	"vehs":      {"vehicles", "cars", "^vehs"},
-	"subj":      {"subject", "subject", "male", "individual", "^subj"},
+	"subj":      {"subject", "subject", "{male}", "individual", "^subj"},
 	"subjf":     {"subject", "female", "woman", "^subj"},
 	"rp":        {"the RP", "the reporting party", "the caller", "the complainant", "the RP", "the comp"},
 	"RP":        {"^RP", "^RP", "The reporting party", "The caller", "The complainant", "^RP"},
@@ -130,6 +130,7 @@ var syn = map[string][]string{
 	"business":  {"business", "store", "office", "warehouse", "shop", "restaurant"},
 	"street":    {"{st}", "{st}", "{st}"},
 	"place":     {"{pl}"},
+	"days":      {"two weeks", "ten days", "a month", "several weeks", "three days", "over a week"},
 	"dur":       {"ten minutes", "about an hour", "twenty minutes", "most of the night", "several hours", "a few minutes", "two days"},
 	"nfa":       {"No further action.", "^NFA.", "Nothing further.", "No further action taken.", "No report needed."},
 	"cleared":   {"Cleared.", "Cleared, no report.", "Call cleared.", "Unit cleared.", "Cleared the call."},
