@@ -18,14 +18,14 @@ func ExampleGenerate() {
 	}
 	// Output:
 	// QM23-000001 1/9/2023 5:12 AM Lantern Hill | PROPERTY | lost_found_property
-	// A complainant came to the front desk to report her lost phone. I sent an email to jorrendale3@example.org to let the owner know. The owner, Ms. Westerhold, came to the station and picked it up. The owner could not be reached. Lost property report taken.
-	//   email "jorrendale3@example.org" at [82,105)
-	//   name "Westerhold" at [144,154)
-	// QM23-000002 2/22/2023 3:21 PM Sorrel Park | CHECK WELFARE | welfare_check
-	// Dispatched to check the welfare of a female sitting at the bus stop at Elm and Thistlecombe. Ms. Benavidro answered the door and said she had been sick and sleeping. The woman appeared confused but was able to tell me her name and address. The complainant can be reached at 555-555-0112. The subject was sitting in her veh in the driveway with the engine running. The individual explained she just wanted to be left alone. The individual had food and medication and did not appear to be in any danger. I knocked on the door several times and announced police, no answer. Resident was fine, family notified.
+	// Found a bicycle leaning against the fence at the Cobble Flats rec center. The caller stated she last had it at the grocery store. The owner, Ms. Drumberly, came to the station and picked it up. The caller was given a report number for insurance. Lost property report taken.
+	//   name "Drumberly" at [145,154)
+	// QM23-000002 2/22/2023 3:21 PM Eastwater | WELL BEING CHECK | welfare_check
+	// Dispatched to check the welfare of a female sitting at the bus stop at Elm and Thistlecombe. The resident was identified as Stephanie Gallardino, 61 years old. I gave the subject a ride to Pellinger Storage. I ran her name and found no warrants. Neighbors told me they had not seen her in three days. There was a strong odor coming from inside the res. The subject appeared confused but was able to tell me her name and address. The individual stated she just wanted to be left alone. The complainant was informed that her neighbor was okay. Call cleared.
 	//   intersection "Elm and Thistlecombe" at [71,91)
-	//   name "Benavidro" at [97,106)
-	//   phone "555-555-0112" at [274,286)
-	// QM23-000003 3/4/2023 10:17 AM Sorrel Park | NOISE COMPLAINT | routine_clear
-	// UTL.
+	//   name "Stephanie Gallardino" at [124,144)
+	//   age "61" at [146,148)
+	// QM23-000003 3/25/2023 6:29 PM Sorrel Park | SUSPICIOUS PERSON | alarm
+	// Residential panic alarm at 9427 Veltmoor Blvd, motion in the hallway.
+	//   address "9427 Veltmoor Blvd" at [27,45)
 }

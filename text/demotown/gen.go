@@ -604,10 +604,10 @@ func (g *generator) slot(name string, depth int) {
 	}
 }
 
-// newPerson returns a person of the narrative's gender (70%) or the other one.
+// newPerson returns a person of the narrative's gender (85%) or the other one.
 func (g *generator) newPerson() person {
 	f := g.female
-	if g.r.IntN(10) < 3 {
+	if g.r.IntN(20) < 3 {
 		f = !f
 	}
 	return g.newPersonOf(f)

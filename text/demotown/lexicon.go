@@ -91,6 +91,7 @@ var syn = map[string][]string{
 	"veh":       {"vehicle", "vehicle", "vehicle", "car", "^veh", "^veh"},
 	"vehs":      {"vehicles", "cars", "^vehs"},
 	"subj":      {"subject", "subject", "{male}", "individual", "^subj"},
+	"asubj":     {"a subject", "a subject", "a {male}", "an individual"},
 	"subjf":     {"subject", "female", "woman", "^subj"},
 	"rp":        {"the RP", "the reporting party", "the caller", "the complainant", "the RP", "the comp"},
 	"RP":        {"^RP", "^RP", "The reporting party", "The caller", "The complainant", "^RP"},
