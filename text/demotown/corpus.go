@@ -120,6 +120,9 @@ func Themes(cfg Config) []ThemeInfo {
 	return out
 }
 
+// MonthCounts returns the number of narratives in each month for cfg.
+func MonthCounts(cfg Config) []int { return monthCounts(cfg.resolved()) }
+
 // Generate returns the corpus cfg describes, in memory.
 func Generate(cfg Config) *Corpus {
 	g := newGenerator(cfg)
@@ -273,6 +276,7 @@ type truthHeader struct {
 	Months      int         `json:"months"`
 	Start       string      `json:"start"` // YYYY-MM
 	AppearMonth int         `json:"appear_month"`
+	MonthCounts []int       `json:"month_counts"`
 	NoiseRate   float64     `json:"noise_rate"`
 	HTMLRate    float64     `json:"html_rate"`
 	PIIRate     float64     `json:"pii_rate"`
@@ -285,7 +289,7 @@ type truthHeader struct {
 func writeTruthHeader(w io.Writer, cfg Config, th []ThemeInfo) error {
 	b, err := json.Marshal(truthHeader{
 		Record: "corpus", Town: TownName, Seed: cfg.Seed, N: cfg.N, Months: cfg.Months,
-		Start: cfg.Start.Format("2006-01"), AppearMonth: AppearMonth(cfg.Months),
+		Start: cfg.Start.Format("2006-01"), AppearMonth: AppearMonth(cfg.Months), MonthCounts: monthCounts(cfg),
 		NoiseRate: cfg.NoiseRate, HTMLRate: cfg.HTMLRate, PIIRate: cfg.PIIRate, MixRate: cfg.MixRate,
 		Offsets:   "byte offsets [start,end) into the narrative field as decoded from the CSV (UTF-8)",
 		Districts: Districts, Themes: th,

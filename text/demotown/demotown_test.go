@@ -579,3 +579,69 @@ func (c *byteCounter) Write(p []byte) (int, error) { *c += byteCounter(len(p)); 
 
 func BenchmarkStream6k(b *testing.B)   { benchmarkStream(b, 6000) }
 func BenchmarkStream100k(b *testing.B) { benchmarkStream(b, 100000) }
+
+// TestEdgeConfigs runs unusual settings: fewer narratives than months, one month, a start
+// in mid-month, every rate off or at 1.
+func TestEdgeConfigs(t *testing.T) {
+	for _, tc := range []struct {
+		name string
+		cfg  Config
+	}{
+		{"one", Config{N: 1, Months: 1}},
+		{"fewer than months", Config{N: 5, Months: 36}},
+		{"mid-month start", Config{N: 300, Months: 120, Start: time.Date(2019, 7, 15, 13, 0, 0, 0, time.FixedZone("x", 3600))}},
+		{"all off", Config{N: 400, NoiseRate: -1, HTMLRate: -1, PIIRate: -1, MixRate: -1}},
+		{"all on", Config{N: 400, NoiseRate: 1, HTMLRate: 1, PIIRate: 1, MixRate: 1}},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			c := Generate(tc.cfg)
+			if len(c.Incidents) != c.Config.N {
+				t.Fatalf("%d incidents", len(c.Incidents))
+			}
+			counts := MonthCounts(tc.cfg)
+			got := make([]int, c.Config.Months)
+			end := c.Config.Start.AddDate(0, c.Config.Months, 0)
+			for i, tr := range c.Truth {
+				got[tr.Month]++
+				r := c.Incidents[i].Reported
+				if r.Before(c.Config.Start) || !r.Before(end) || r.Day() < 1 {
+					t.Fatalf("%s reported %v outside the corpus months", tr.ID, r)
+				}
+				if m := (r.Year()-c.Config.Start.Year())*12 + int(r.Month()-c.Config.Start.Month()); m != tr.Month {
+					t.Fatalf("%s reported %v in month %d, truth says %d", tr.ID, r, m, tr.Month)
+				}
+				switch tc.name {
+				case "all off":
+					if len(tr.Noise)+len(tr.HTML)+len(tr.PII) != 0 || len(tr.Themes) != 1 {
+						t.Fatalf("%s: events with every rate off: %+v", tr.ID, tr)
+					}
+				case "all on":
+					if len(tr.HTML) == 0 || (tr.Theme != ThemeRoutine && tr.NoPII) {
+						t.Fatalf("%s: missing HTML or PII with rates at 1: %+v", tr.ID, tr)
+					}
+				}
+			}
+			if !reflect.DeepEqual(got, counts) {
+				t.Fatalf("month counts %v, MonthCounts %v", got, counts)
+			}
+		})
+	}
+}
+
+// TestMonthCounts checks that the monthly volumes sum to N and are busier in summer.
+func TestMonthCounts(t *testing.T) {
+	c := MonthCounts(Config{})
+	sum, summer, winter := 0, 0, 0
+	for m, n := range c {
+		sum += n
+		switch m % 12 {
+		case 5, 6, 7:
+			summer += n
+		case 11, 0, 1:
+			winter += n
+		}
+	}
+	if sum != DefaultN || summer <= winter {
+		t.Fatalf("counts %v: sum %d, summer %d, winter %d", c, sum, summer, winter)
+	}
+}

@@ -3,6 +3,7 @@ package demotown
 import (
 	"math"
 	"math/rand/v2"
+	"sort"
 	"strings"
 	"time"
 )
@@ -179,6 +180,9 @@ type generator struct {
 	hr      *rand.Rand // HTML residue
 	monthly [][]float64
 	cum     [][]float64
+	counts  []int // narratives per month
+
+	noiseDebt int
 
 	month, inMonth, monthN int
 	curYear, yearCount     int
@@ -204,6 +208,7 @@ func newGenerator(cfg Config) *generator {
 		nr:       rand.New(rand.NewPCG(cfg.Seed, 0x6e6f697365)),
 		hr:       rand.New(rand.NewPCG(cfg.Seed, 0x68746d6c)),
 		monthly:  monthlyProbs(cfg),
+		counts:   monthCounts(cfg),
 		capCache: map[string]string{},
 	}
 	for _, p := range g.monthly {
@@ -265,21 +270,50 @@ func monthlyProbs(cfg Config) [][]float64 {
 	return out
 }
 
-func (g *generator) monthCount(m int) int {
-	n := g.cfg.N / g.cfg.Months
-	if m < g.cfg.N%g.cfg.Months {
-		n++
+// monthCounts splits N over the months in proportion to
+//
+//	v_m = (1 + 0.15 (s_m - 1) / 0.7) (0.9 + 0.2 u_m)
+//
+// where s_m is the seasonal table for month m's calendar month (so summer months are 15%
+// busier and winter ones 15% quieter) and u_m is uniform on [0,1) from its own PCG stream;
+// the largest-remainder method makes the counts sum to N exactly (ties to the earlier
+// month).
+func monthCounts(cfg Config) []int {
+	r := rand.New(rand.NewPCG(cfg.Seed, 0x6d6f6e746873))
+	v := make([]float64, cfg.Months)
+	sum := 0.0
+	for m := range v {
+		cal := (int(cfg.Start.Month()) - 1 + m) % 12
+		v[m] = float64(1+float64(0.15*(seasonal[cal]-1))/0.7) * float64(0.9+float64(0.2*r.Float64()))
+		sum += v[m]
 	}
-	return n
+	counts := make([]int, cfg.Months)
+	frac := make([]float64, cfg.Months)
+	left := cfg.N
+	for m := range v {
+		x := float64(cfg.N) * v[m] / sum
+		counts[m] = int(x)
+		frac[m] = x - float64(counts[m])
+		left -= counts[m]
+	}
+	idx := make([]int, cfg.Months)
+	for i := range idx {
+		idx[i] = i
+	}
+	sort.SliceStable(idx, func(a, b int) bool { return frac[idx[a]] > frac[idx[b]] })
+	for i := 0; i < left; i++ {
+		counts[idx[i%len(idx)]]++
+	}
+	return counts
 }
 
 func (g *generator) advanceMonth() {
 	g.month++
 	g.inMonth = 0
-	g.monthN = g.monthCount(g.month)
+	g.monthN = g.counts[g.month]
 	for g.monthN == 0 && g.month < g.cfg.Months-1 {
 		g.month++
-		g.monthN = g.monthCount(g.month)
+		g.monthN = g.counts[g.month]
 	}
 }
 
@@ -859,7 +893,16 @@ func (g *generator) noisify(w string) (noisy, kind string, ok bool) {
 // and records every span in tr.
 func (g *generator) render(tr *Truth) string {
 	tr.PII, tr.Noise, tr.HTML, tr.Abbrevs = []Span{}, []NoiseEvent{}, []HTMLEvent{}, []Abbrev{}
-	noisy := g.cfg.NoiseRate > 0 && g.nr.Float64() < g.cfg.NoiseRate
+	// A narrative drawn for noise that has no word to spoil passes its turn on to the
+	// next one (noiseDebt), so that NoiseRate of the narratives carry noise.
+	noisy := false
+	if g.cfg.NoiseRate > 0 {
+		noisy = g.nr.Float64() < g.cfg.NoiseRate
+		if !noisy && g.noiseDebt > 0 {
+			noisy = true
+			g.noiseDebt--
+		}
+	}
 	html := g.cfg.HTMLRate > 0 && g.hr.Float64() < g.cfg.HTMLRate
 	if noisy {
 		g.cand = g.cand[:0]
@@ -947,6 +990,9 @@ func (g *generator) render(tr *Truth) string {
 	} else if html && len(tr.HTML) == 0 {
 		out = append(out, "<br />"...)
 		event(len(out)-6, "<br />", "\n", "")
+	}
+	if noisy && len(tr.Noise) == 0 {
+		g.noiseDebt++
 	}
 	g.out = out
 	return string(out)
