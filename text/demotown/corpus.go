@@ -4,11 +4,14 @@ import (
 	"bufio"
 	"encoding/csv"
 	"encoding/json"
+	"errors"
 	"fmt"
 	"io"
 	"os"
 	"path/filepath"
+	"sort"
 	"strconv"
+	"strings"
 	"time"
 )
 
@@ -85,6 +88,32 @@ type Truth struct {
 	Noise           []NoiseEvent `json:"noise"`
 	HTML            []HTMLEvent  `json:"html"`
 	Abbrevs         []Abbrev     `json:"abbrevs"`
+}
+
+// Restore returns narrative, the text t describes, with every noise and HTML event undone:
+// the clean text the generator wrote before planting them.
+func (t *Truth) Restore(narrative string) string {
+	type edit struct {
+		start, end int
+		repl       string
+	}
+	eds := make([]edit, 0, len(t.Noise)+len(t.HTML))
+	for _, z := range t.Noise {
+		eds = append(eds, edit{z.Start, z.End, z.Original})
+	}
+	for _, h := range t.HTML {
+		eds = append(eds, edit{h.Start, h.End, h.Original})
+	}
+	sort.Slice(eds, func(a, b int) bool { return eds[a].start < eds[b].start })
+	var b strings.Builder
+	at := 0
+	for _, e := range eds {
+		b.WriteString(narrative[at:e.start])
+		b.WriteString(e.repl)
+		at = e.end
+	}
+	b.WriteString(narrative[at:])
+	return b.String()
 }
 
 // ThemeInfo describes a planted theme.
@@ -267,8 +296,9 @@ func writeDir(dir string, write func(w, t io.Writer) error) (err error) {
 	return nil
 }
 
-// truthHeader is the first line of truth.jsonl.
-type truthHeader struct {
+// TruthHeader is the first line of truth.jsonl: the settings the corpus was made with and
+// the planted themes.
+type TruthHeader struct {
 	Record      string      `json:"record"` // "corpus"
 	Town        string      `json:"town"`
 	Seed        uint64      `json:"seed"`
@@ -287,7 +317,7 @@ type truthHeader struct {
 }
 
 func writeTruthHeader(w io.Writer, cfg Config, th []ThemeInfo) error {
-	b, err := json.Marshal(truthHeader{
+	b, err := json.Marshal(TruthHeader{
 		Record: "corpus", Town: TownName, Seed: cfg.Seed, N: cfg.N, Months: cfg.Months,
 		Start: cfg.Start.Format("2006-01"), AppearMonth: AppearMonth(cfg.Months), MonthCounts: monthCounts(cfg),
 		NoiseRate: cfg.NoiseRate, HTMLRate: cfg.HTMLRate, PIIRate: cfg.PIIRate, MixRate: cfg.MixRate,
@@ -299,6 +329,44 @@ func writeTruthHeader(w io.Writer, cfg Config, th []ThemeInfo) error {
 	}
 	_, err = w.Write(append(b, '\n'))
 	return err
+}
+
+// ReadTruth reads a truth.jsonl stream: it returns the header and calls each, if not nil,
+// for every narrative's truth in order, stopping at the first error each returns. Memory
+// does not grow with the number of lines.
+func ReadTruth(r io.Reader, each func(*Truth) error) (TruthHeader, error) {
+	var h TruthHeader
+	sc := bufio.NewScanner(r)
+	sc.Buffer(make([]byte, 0, 1<<16), 64<<20)
+	line := 0
+	for sc.Scan() {
+		line++
+		if line == 1 {
+			if err := json.Unmarshal(sc.Bytes(), &h); err != nil || h.Record != "corpus" {
+				if err == nil {
+					err = errors.New(`not a "corpus" record`)
+				}
+				return h, fmt.Errorf("demotown: truth line 1: %w", err)
+			}
+			continue
+		}
+		var t Truth
+		if err := json.Unmarshal(sc.Bytes(), &t); err != nil {
+			return h, fmt.Errorf("demotown: truth line %d: %w", line, err)
+		}
+		if each != nil {
+			if err := each(&t); err != nil {
+				return h, err
+			}
+		}
+	}
+	if err := sc.Err(); err != nil {
+		return h, fmt.Errorf("demotown: truth line %d: %w", line+1, err)
+	}
+	if line == 0 {
+		return h, errors.New("demotown: empty truth file")
+	}
+	return h, nil
 }
 
 // appendJSONString appends s as a JSON string (the generator writes ASCII and U+00A0 only;

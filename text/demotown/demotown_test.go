@@ -134,22 +134,7 @@ func TestRestore(t *testing.T) {
 	cfg.NoiseRate, cfg.HTMLRate = -1, -1
 	clean := Generate(cfg)
 	for i, tr := range dirty.Truth {
-		type ed struct {
-			s, e int
-			repl string
-		}
-		var eds []ed
-		for _, z := range tr.Noise {
-			eds = append(eds, ed{z.Start, z.End, z.Original})
-		}
-		for _, h := range tr.HTML {
-			eds = append(eds, ed{h.Start, h.End, h.Original})
-		}
-		sort.Slice(eds, func(a, b int) bool { return eds[a].s > eds[b].s })
-		n := dirty.Incidents[i].Narrative
-		for _, e := range eds {
-			n = n[:e.s] + e.repl + n[e.e:]
-		}
+		n := tr.Restore(dirty.Incidents[i].Narrative)
 		if want := clean.Incidents[i].Narrative; n != want {
 			t.Fatalf("%s restored:\n%q\nwant\n%q", tr.ID, n, want)
 		}
@@ -201,7 +186,7 @@ func TestFiles(t *testing.T) {
 	if !sc.Scan() {
 		t.Fatal("empty truth")
 	}
-	var h truthHeader
+	var h TruthHeader
 	if err := json.Unmarshal(sc.Bytes(), &h); err != nil || h.Record != "corpus" || h.N != 1500 || len(h.Themes) != len(themeDefs) {
 		t.Fatalf("header %v: %+v", err, h)
 	}
@@ -229,6 +214,26 @@ func TestFiles(t *testing.T) {
 	}
 	if k != len(c.Truth) {
 		t.Fatalf("%d truth lines", k)
+	}
+}
+
+func TestReadTruth(t *testing.T) {
+	c := Generate(Config{Seed: 4, N: 300})
+	var a, b bytes.Buffer
+	if err := c.WriteTo(&a, &b); err != nil {
+		t.Fatal(err)
+	}
+	var got []Truth
+	h, err := ReadTruth(bytes.NewReader(b.Bytes()), func(tr *Truth) error { got = append(got, *tr); return nil })
+	if err != nil || h.N != 300 || h.Town != TownName || !reflect.DeepEqual(got, c.Truth) {
+		t.Fatalf("ReadTruth: %v, header %+v, %d truths", err, h, len(got))
+	}
+	bad := append(bytes.Clone(b.Bytes()[:bytes.IndexByte(b.Bytes(), '\n')+1]), "{oops\n"...)
+	if _, err := ReadTruth(bytes.NewReader(bad), nil); err == nil || !strings.Contains(err.Error(), "line 2") {
+		t.Fatalf("bad line: %v", err)
+	}
+	if _, err := ReadTruth(strings.NewReader(""), nil); err == nil {
+		t.Fatal("empty input accepted")
 	}
 }
 

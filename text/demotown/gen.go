@@ -379,10 +379,12 @@ func (g *generator) next() (Incident, Truth) {
 	return inc, tr
 }
 
+// append6 appends n with at least six digits, zero-padded.
 func append6(dst []byte, n int) []byte {
-	dst = append2(dst, n/10000%100)
-	dst = append2(dst, n/100%100)
-	return append2(dst, n%100)
+	for p := 100000; p > 1 && n < p; p /= 10 {
+		dst = append(dst, '0')
+	}
+	return appendInt(dst, n)
 }
 
 // pickTheme draws a theme index for month m, never not (when not >= 0) nor, with not >= 0,
