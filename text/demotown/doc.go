@@ -17,8 +17,11 @@
 // domestic disputes, a person in mental-health crisis, parking complaints, lost and found
 // property, trespass, use of force and resisting arrest, shared e-scooter complaints
 // (Appearing at AppearMonth, month 24 of 36) and a short routine "checked the area, all
-// clear" kind. A narrative has 1 to 12 sentences; MixRate of the others take one or more
-// body sentences from a second theme (Truth.Themes counts the sentences of each). The
+// clear" kind. A narrative has 1 to 12 sentences; a fifth of the non-routine ones open with
+// a dispatch-log line carrying the incident's own date ("On 3/4/2024 at 2130 hrs I was
+// dispatched to ..."), a date that is not PII; MixRate of the non-routine narratives take one
+// or more body sentences from a second theme (Truth.Themes counts the sentences of each).
+// Monthly volumes vary (MonthCounts): summer months are busier. The
 // district column favours a theme's district (60% of its narratives) and the call type
 // agrees with the theme 65% of the time (Truth.CallTypeMatches).
 //
@@ -60,6 +63,9 @@
 //	 "abbrevs":[{"start":0,"end":2,"text":"RP","expansion":"reporting party"}]}
 //
 // Offsets are bytes, [start,end), into the narrative field as decoded from the CSV.
+//
+// Truth.Restore undoes a narrative's noise and HTML events; ReadTruth reads truth.jsonl
+// back.
 //
 // Generate builds a corpus in memory; Stream and StreamDir write any N with memory that
 // does not grow with N. The same Config gives byte-identical files.

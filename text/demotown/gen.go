@@ -193,6 +193,9 @@ type generator struct {
 	capNext  bool
 	female   bool
 	animal   string
+	date     []byte // the incident's date, for {date}
+	ref      string // the theme's noun phrase, for {ref}
+	pii      bool   // whether {LOC} is PII
 	people   []person
 	buf      []byte
 	out      []byte
@@ -348,7 +351,7 @@ func (g *generator) next() (Incident, Truth) {
 	ti := g.pickTheme(m, -1)
 	th := &themes[ti]
 	tr.Theme = th.def.name
-	g.narrative(ti, &tr)
+	g.narrative(ti, t, &tr)
 	inc.Narrative = g.render(&tr)
 	tr.NoPII = len(tr.PII) == 0
 
@@ -415,7 +418,7 @@ const (
 	roleClose
 )
 
-func (g *generator) narrative(ti int, tr *Truth) {
+func (g *generator) narrative(ti int, t time.Time, tr *Truth) {
 	g.pieces = g.pieces[:0]
 	g.metas = g.metas[:0]
 	g.people = g.people[:0]
@@ -434,6 +437,7 @@ func (g *generator) narrative(ti int, tr *Truth) {
 			L = 3
 		}
 	}
+	L0 := 0 // preamble sentences
 	var plan [16]int
 	for i := 0; i < L; i++ {
 		plan[i] = roleBody
@@ -477,6 +481,17 @@ func (g *generator) narrative(ti int, tr *Truth) {
 			force = 0
 		}
 	}
+	// A dispatch-log preamble in front of a fifth of the non-routine narratives.
+	if !routine && L < 12 && g.r.IntN(5) == 0 {
+		g.date = t.AppendFormat(g.date[:0], "1/2/2006")
+		g.ref = d.ref[g.r.IntN(len(d.ref))]
+		g.pii = force >= 0
+		g.capNext = true
+		g.sent = 0
+		g.expand(preambles[g.r.IntN(len(preambles))], 0)
+		g.add(" ", pkSent)
+		L0++
+	}
 	var used [5]uint64
 	for i := 0; i < L; i++ {
 		p := poolFor(plan[i])
@@ -517,13 +532,16 @@ func (g *generator) narrative(ti int, tr *Truth) {
 		g.sent = len(g.pieces)
 		g.expand(p.all[k], 0)
 	}
-	tr.Themes = append(tr.Themes[:0], ThemeShare{Theme: d.name, Sentences: L - nSecond})
+	tr.Themes = append(tr.Themes[:0], ThemeShare{Theme: d.name, Sentences: L0 + L - nSecond})
 	if nSecond > 0 {
 		tr.Themes = append(tr.Themes, ThemeShare{Theme: themes[si].def.name, Sentences: nSecond})
 	}
 }
 
 func (g *generator) add(s string, kind pieceKind) {
+	if s == "" {
+		return
+	}
 	p := piece{s: s, kind: kind, meta: -1}
 	if kind == pkWord {
 		p.elig = eligible(s)
@@ -589,6 +607,9 @@ func (g *generator) expand(s string, depth int) {
 	}
 }
 
+// locSlots are the PII slots a {LOC} becomes.
+var locSlots = []string{"ADDR", "ADDR", "BLOCK", "XST"}
+
 func (g *generator) pron(male, female string) {
 	if g.female {
 		g.add(female, pkWord)
@@ -618,6 +639,20 @@ func (g *generator) slot(name string, depth int) {
 			alts = syn["female"]
 		}
 		g.expand(alts[g.r.IntN(len(alts))], depth+1)
+	case "date":
+		g.add(string(g.date), pkOther)
+	case "ref":
+		g.expand(g.ref, depth+1)
+	case "LOC":
+		if !g.pii {
+			if g.r.IntN(2) == 0 {
+				g.expand("{st}", depth+1)
+			} else {
+				g.expand("{pl}", depth+1)
+			}
+			return
+		}
+		g.piiSlot(locSlots[g.r.IntN(len(locSlots))])
 	case "animal":
 		// One animal per narrative.
 		if g.animal == "" {

@@ -19,6 +19,7 @@ type themeDef struct {
 	base        float64
 	district    int
 	callTypes   []string
+	ref         []string // noun phrases for the dispatch preamble ("a noise complaint")
 	minLen      int
 	maxLen      int
 	open, body  []string
@@ -46,6 +47,7 @@ const (
 var themeDefs = []themeDef{
 	{
 		name: ThemeTraffic, label: "Traffic stops", trend: Flat, base: 0.10, district: 1,
+		ref:       []string{"a traffic complaint", "a reckless driver", "a vehicle blocking traffic"},
 		callTypes: []string{"TRAFFIC STOP", "VEHICLE STOP", "TRAFFIC"}, minLen: 2, maxLen: 9,
 		open: []string{
 			"At {time} I stopped a {color} {make} {dir} on {street} for speeding, {speed} ^mph in a {limit} zone.",
@@ -103,6 +105,7 @@ var themeDefs = []themeDef{
 	},
 	{
 		name: ThemeWelfare, label: "Welfare checks", trend: Flat, base: 0.08, district: 3,
+		ref:       []string{"a welfare check", "a check welfare request", "a well being check"},
 		callTypes: []string{"WELFARE CHECK", "CHECK WELFARE", "WELL BEING CHECK"}, minLen: 2, maxLen: 10,
 		open: []string{
 			"Responded to {ADDR} for a welfare check on an elderly resident.",
@@ -152,6 +155,7 @@ var themeDefs = []themeDef{
 	},
 	{
 		name: ThemeNoise, label: "Noise complaints", trend: Seasonal, base: 0.08, district: 2,
+		ref:       []string{"a noise complaint", "a loud party", "a disturbance"},
 		callTypes: []string{"NOISE COMPLAINT", "DISTURBANCE - NOISE", "LOUD PARTY"}, minLen: 1, maxLen: 7,
 		open: []string{
 			"{RP} reported {noise} coming from {ADDR}.",
@@ -197,6 +201,7 @@ var themeDefs = []themeDef{
 	},
 	{
 		name: ThemeAlarm, label: "Alarms", trend: Flat, base: 0.08, district: 4,
+		ref:       []string{"an alarm", "an alarm call", "an audible alarm"},
 		callTypes: []string{"ALARM", "BURGLAR ALARM", "ALARM - COMMERCIAL"}, minLen: 1, maxLen: 6,
 		open: []string{
 			"Responded to {aalarm} at {place}.",
@@ -239,6 +244,7 @@ var themeDefs = []themeDef{
 	},
 	{
 		name: ThemeAnimal, label: "Animal calls", trend: Flat, base: 0.07, district: 0,
+		ref:       []string{"an animal complaint", "a loose animal", "an animal problem"},
 		callTypes: []string{"ANIMAL COMPLAINT", "ANIMAL CONTROL", "DOG AT LARGE"}, minLen: 1, maxLen: 7,
 		open: []string{
 			"{RP} reported a loose {animal} running in traffic on {street}.",
@@ -281,6 +287,7 @@ var themeDefs = []themeDef{
 	},
 	{
 		name: ThemeVehTheft, label: "Thefts from vehicles", trend: Rising, base: 0.08, district: 2,
+		ref:       []string{"a vehicle break in", "a theft report", "a car prowl"},
 		callTypes: []string{"THEFT FROM VEHICLE", "VEHICLE BURGLARY", "LARCENY"}, minLen: 2, maxLen: 9,
 		open: []string{
 			"{RP} reported that someone broke into {his} {veh} overnight while it was parked at {ADDR}.",
@@ -326,6 +333,7 @@ var themeDefs = []themeDef{
 	},
 	{
 		name: ThemeDomestic, label: "Domestic disputes", trend: Flat, base: 0.07, district: 1,
+		ref:       []string{"a domestic disturbance", "a family fight", "a verbal argument"},
 		callTypes: []string{"DOMESTIC DISTURBANCE", "DOMESTIC", "FAMILY FIGHT"}, minLen: 3, maxLen: 11,
 		open: []string{
 			"Responded to {ADDR} for a verbal domestic between a couple.",
@@ -373,6 +381,7 @@ var themeDefs = []themeDef{
 	},
 	{
 		name: ThemeMentalHealth, label: "Person in mental-health crisis", trend: Flat, base: 0.06, district: 3,
+		ref:       []string{"a person in crisis", "a mental health call", "a suicidal subject"},
 		callTypes: []string{"MENTAL HEALTH", "PERSON IN CRISIS", "SUICIDAL SUBJECT"}, minLen: 3, maxLen: 11,
 		open: []string{
 			"Responded to {ADDR} for a {male} in a {mh} crisis.",
@@ -417,6 +426,7 @@ var themeDefs = []themeDef{
 	},
 	{
 		name: ThemeParking, label: "Parking complaints", trend: Flat, base: 0.07, district: 4,
+		ref:       []string{"a parking complaint", "an abandoned vehicle", "a parking problem"},
 		callTypes: []string{"PARKING COMPLAINT", "PARKING VIOLATION", "ABANDONED VEHICLE"}, minLen: 1, maxLen: 6,
 		open: []string{
 			"{RP} {stated} a {veh} was blocking {his} driveway at {ADDR}.",
@@ -455,6 +465,7 @@ var themeDefs = []themeDef{
 	},
 	{
 		name: ThemeProperty, label: "Lost and found property", trend: Flat, base: 0.06, district: 0,
+		ref:       []string{"found property", "a lost property report", "property"},
 		callTypes: []string{"FOUND PROPERTY", "LOST PROPERTY", "PROPERTY"}, minLen: 1, maxLen: 6,
 		open: []string{
 			"{RP} turned in a wallet found at {place}.",
@@ -492,6 +503,7 @@ var themeDefs = []themeDef{
 	},
 	{
 		name: ThemeTrespass, label: "Trespass", trend: Flat, base: 0.06, district: 4,
+		ref:       []string{"an unwanted person", "a trespass", "a suspicious person"},
 		callTypes: []string{"TRESPASS", "UNWANTED PERSON", "SUSPICIOUS PERSON"}, minLen: 2, maxLen: 8,
 		open: []string{
 			"The manager of {place} requested that {asubj} be removed from the property.",
@@ -531,6 +543,7 @@ var themeDefs = []themeDef{
 	},
 	{
 		name: ThemeForce, label: "Use of force and resisting arrest", trend: Flat, base: 0.05, district: 1,
+		ref:       []string{"a disturbance", "a warrant service", "a fight"},
 		callTypes: []string{"RESISTING ARREST", "ASSAULT ON OFFICER", "WARRANT ARREST"}, minLen: 4, maxLen: 12,
 		open: []string{
 			"I attempted to detain the {subj} for a warrant and {he} pulled away.",
@@ -579,6 +592,7 @@ var themeDefs = []themeDef{
 	},
 	{
 		name: ThemeScooter, label: "Shared e-scooter complaints", trend: Appearing, base: 0.07, district: 2,
+		ref:       []string{"a scooter complaint", "a public nuisance", "a traffic hazard"},
 		callTypes: []string{"SCOOTER COMPLAINT", "PUBLIC NUISANCE", "TRAFFIC HAZARD"}, minLen: 1, maxLen: 6,
 		open: []string{
 			"{RP} reported rental scooters dumped across the sidewalk at {XST}.",
@@ -613,6 +627,7 @@ var themeDefs = []themeDef{
 	},
 	{
 		name: ThemeRoutine, label: "Routine: area checked, all clear", trend: Flat, base: 0.17, district: 0,
+		ref:       []string{"a suspicious circumstance", "an area check"},
 		callTypes: []string{"AREA CHECK", "SUSPICIOUS CIRCUMSTANCES", "EXTRA PATROL"}, minLen: 1, maxLen: 3,
 		open: []string{
 			"Checked the area, all clear.",
@@ -644,6 +659,18 @@ var themeDefs = []themeDef{
 			"{cleared}",
 		},
 	},
+}
+
+// preambles are optional first sentences in the style of a dispatch log. {date} is the
+// incident's own date (not PII, though it looks like a date of birth), {ref} the theme's
+// noun phrase, {LOC} a location that is PII (an address, block or intersection) when the
+// narrative carries PII and a street or place otherwise.
+var preambles = []string{
+	"On {date} at {time} I was dispatched to {LOC} reference {ref}.",
+	"On {date}, {approx} {hhmm} hrs, {ofc} responded to {LOC} regarding {ref}.",
+	"{date} {hhmm} hrs. Dispatched to {LOC} for {ref}.",
+	"On {date} I was sent to {LOC} for {ref}.",
+	"At {hhmm} hrs on {date}, {ofc} {arrived} at {LOC} for {ref}.",
 }
 
 // sharedBody holds body sentences any non-routine theme may use, so that themes share
