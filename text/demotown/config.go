@@ -22,6 +22,10 @@ type Config struct {
 	// PIIRate is the share of narratives, routine ones excepted, that carry at least one
 	// PII span; 0 means 0.6 and a negative value means none.
 	PIIRate float64
+	// TypoRate is the share of narratives with writers' misspellings ("vehical"),
+	// recorded as Noise events of kind Misspelling; 0 means 0.05 and a negative value
+	// means none.
+	TypoRate float64
 	// MixRate is the share of non-routine narratives with sentences from a second theme;
 	// 0 means 0.12 and a negative value means none.
 	MixRate float64
@@ -35,6 +39,7 @@ const (
 	DefaultHTMLRate  = 0.04
 	DefaultPIIRate   = 0.6
 	DefaultMixRate   = 0.12
+	DefaultTypoRate  = 0.05
 )
 
 // DefaultStart is the first month of a corpus whose Config.Start is zero.
@@ -73,6 +78,7 @@ func (c Config) resolved() Config {
 	c.HTMLRate = rate(c.HTMLRate, DefaultHTMLRate, "HTMLRate")
 	c.PIIRate = rate(c.PIIRate, DefaultPIIRate, "PIIRate")
 	c.MixRate = rate(c.MixRate, DefaultMixRate, "MixRate")
+	c.TypoRate = rate(c.TypoRate, DefaultTypoRate, "TypoRate")
 	return c
 }
 

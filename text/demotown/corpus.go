@@ -311,6 +311,7 @@ type TruthHeader struct {
 	HTMLRate    float64     `json:"html_rate"`
 	PIIRate     float64     `json:"pii_rate"`
 	MixRate     float64     `json:"mix_rate"`
+	TypoRate    float64     `json:"typo_rate"`
 	Offsets     string      `json:"offsets"`
 	Districts   []string    `json:"districts"`
 	Themes      []ThemeInfo `json:"themes"`
@@ -320,7 +321,7 @@ func writeTruthHeader(w io.Writer, cfg Config, th []ThemeInfo) error {
 	b, err := json.Marshal(TruthHeader{
 		Record: "corpus", Town: TownName, Seed: cfg.Seed, N: cfg.N, Months: cfg.Months,
 		Start: cfg.Start.Format("2006-01"), AppearMonth: AppearMonth(cfg.Months), MonthCounts: monthCounts(cfg),
-		NoiseRate: cfg.NoiseRate, HTMLRate: cfg.HTMLRate, PIIRate: cfg.PIIRate, MixRate: cfg.MixRate,
+		NoiseRate: cfg.NoiseRate, HTMLRate: cfg.HTMLRate, PIIRate: cfg.PIIRate, MixRate: cfg.MixRate, TypoRate: cfg.TypoRate,
 		Offsets:   "byte offsets [start,end) into the narrative field as decoded from the CSV (UTF-8)",
 		Districts: Districts, Themes: th,
 	})

@@ -129,9 +129,9 @@ func TestSpans(t *testing.T) {
 // TestRestore undoes every recorded noise and HTML event and compares with the corpus
 // generated without noise and HTML: the events are complete and exact.
 func TestRestore(t *testing.T) {
-	cfg := Config{Seed: 3, N: 3000, NoiseRate: 0.5, HTMLRate: 0.3}
+	cfg := Config{Seed: 3, N: 3000, NoiseRate: 0.5, HTMLRate: 0.3, TypoRate: 0.3}
 	dirty := Generate(cfg)
-	cfg.NoiseRate, cfg.HTMLRate = -1, -1
+	cfg.NoiseRate, cfg.HTMLRate, cfg.TypoRate = -1, -1, -1
 	clean := Generate(cfg)
 	for i, tr := range dirty.Truth {
 		n := tr.Restore(dirty.Incidents[i].Narrative)
@@ -389,10 +389,21 @@ func TestPIIForms(t *testing.T) {
 // standard errors.
 func TestRates(t *testing.T) {
 	c := defaultCorpus
-	var noisy, html, pii, nonRoutine, mixed, agree int
+	var noisy, typo, html, pii, nonRoutine, mixed, agree int
 	for _, tr := range c.Truth {
-		if len(tr.Noise) > 0 {
+		ocr, mis := false, false
+		for _, z := range tr.Noise {
+			if z.Kind == Misspelling {
+				mis = true
+			} else {
+				ocr = true
+			}
+		}
+		if ocr {
 			noisy++
+		}
+		if mis {
+			typo++
 		}
 		if len(tr.HTML) > 0 {
 			html++
@@ -418,6 +429,7 @@ func TestRates(t *testing.T) {
 	}{
 		{"noise", float64(noisy), n, DefaultNoiseRate},
 		{"html", float64(html), n, DefaultHTMLRate},
+		{"misspellings", float64(typo), n, DefaultTypoRate},
 		{"pii", float64(pii), nr, DefaultPIIRate},
 		{"call type agrees", float64(agree), n, 0.65},
 		{"mixed", float64(mixed), nr, DefaultMixRate},
@@ -599,8 +611,8 @@ func TestEdgeConfigs(t *testing.T) {
 		{"one", Config{N: 1, Months: 1}},
 		{"fewer than months", Config{N: 5, Months: 36}},
 		{"mid-month start", Config{N: 300, Months: 120, Start: time.Date(2019, 7, 15, 13, 0, 0, 0, time.FixedZone("x", 3600))}},
-		{"all off", Config{N: 400, NoiseRate: -1, HTMLRate: -1, PIIRate: -1, MixRate: -1}},
-		{"all on", Config{N: 400, NoiseRate: 1, HTMLRate: 1, PIIRate: 1, MixRate: 1}},
+		{"all off", Config{N: 400, NoiseRate: -1, HTMLRate: -1, PIIRate: -1, MixRate: -1, TypoRate: -1}},
+		{"all on", Config{N: 400, NoiseRate: 1, HTMLRate: 1, PIIRate: 1, MixRate: 1, TypoRate: 1}},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			c := Generate(tc.cfg)

@@ -35,6 +35,9 @@
 //     hit with probability 1/12, at least one per noisy narrative, by a character
 //     confusion, a split or an end-of-line hyphen break. A confusion never yields a word of
 //     the corpus's own vocabulary, so every event is a repairable error;
+//   - writers' misspellings ("vehical", "seperated"; Noise events of kind Misspelling) in
+//     TypoRate of the narratives: half of the words that have a listed misspelling, at
+//     least one. Measure OCR repair on the other kinds;
 //   - HTML residue (Truth.HTML) in HTMLRate of the narratives: <p>...</p>, <br />, &nbsp;,
 //     &amp; (for "and") and &#39; (for an apostrophe).
 //

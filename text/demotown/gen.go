@@ -25,6 +25,7 @@ type piece struct {
 	kind  pieceKind
 	elig  bool  // a content word that may receive OCR noise
 	noise bool  // chosen for noise
+	typo  bool  // chosen for a misspelling
 	meta  int32 // index into generator.metas for pkPII
 }
 
@@ -183,6 +184,7 @@ type generator struct {
 	counts  []int // narratives per month
 
 	noiseDebt int
+	typoDebt  int
 
 	month, inMonth, monthN int
 	curYear, yearCount     int
@@ -872,6 +874,9 @@ const (
 	NoiseConfusion = "confusion" // one OCR character confusion (o/0, l/1/i, s/5, m/rn, d/cl, e/c)
 	NoiseSplit     = "split"     // a space inside the word
 	NoiseHyphen    = "hyphen"    // an end-of-line hyphen break, "resi-\ndence"
+	// Misspelling is not OCR noise but a writer's misspelling ("vehical"), planted in
+	// TypoRate of the narratives.
+	Misspelling = "misspelling"
 )
 
 // confusions are the OCR character confusions applied to content words, original form
@@ -957,6 +962,35 @@ func (g *generator) render(tr *Truth) string {
 			g.pieces[g.cand[g.nr.IntN(len(g.cand))]].noise = true
 		}
 	}
+	typos := false
+	if g.cfg.TypoRate > 0 {
+		typos = g.nr.Float64() < g.cfg.TypoRate
+		if !typos && g.typoDebt > 0 {
+			typos = true
+			g.typoDebt--
+		}
+	}
+	if typos {
+		// Half of the misspellable words, at least one.
+		g.cand = g.cand[:0]
+		chosen := false
+		for i := range g.pieces {
+			p := &g.pieces[i]
+			if p.kind == pkWord && !p.noise && misspellings[strings.ToLower(p.s)] != nil {
+				g.cand = append(g.cand, i)
+				if g.nr.IntN(2) == 0 {
+					p.typo = true
+					chosen = true
+				}
+			}
+		}
+		if !chosen && len(g.cand) > 0 {
+			g.pieces[g.cand[g.nr.IntN(len(g.cand))]].typo = true
+		}
+		if len(g.cand) == 0 {
+			g.typoDebt++ // passed on, as for noise
+		}
+	}
 	out := g.out[:0]
 	event := func(start int, residue, decoded, original string) {
 		tr.HTML = append(tr.HTML, HTMLEvent{Start: start, End: len(out), Residue: residue, Decoded: decoded, Original: original})
@@ -994,6 +1028,14 @@ func (g *generator) render(tr *Truth) string {
 				}
 				out = append(out, n...)
 				tr.Noise = append(tr.Noise, NoiseEvent{Kind: kind, Start: start, End: len(out), Noisy: n, Original: p.s})
+			case p.typo:
+				alts := misspellings[strings.ToLower(p.s)]
+				m := alts[g.nr.IntN(len(alts))]
+				if p.s[0] < 'a' {
+					m = string(p.s[0]) + m[1:]
+				}
+				out = append(out, m...)
+				tr.Noise = append(tr.Noise, NoiseEvent{Kind: Misspelling, Start: start, End: len(out), Noisy: m, Original: p.s})
 			case html && p.s == "and" && g.hr.IntN(2) == 0:
 				out = append(out, "&amp;"...)
 				event(start, "&amp;", "&", "and")

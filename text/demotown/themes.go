@@ -490,7 +490,7 @@ var themeDefs = []themeDef{
 			"I sent an email to {EMAIL} to let the owner know.",
 			"The {comp} was given a report number for insurance.",
 			"The keys had a tag with the phone number {PHONE}.",
-			"The {item} was wet and appeared to have been outside for {days}.",
+			"The item was wet and appeared to have been outside for {days}.",
 			"The finder did not want to be contacted.",
 			"The owner {stated} {he} would come by the station tomorrow.",
 		},
