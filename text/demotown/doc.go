@@ -34,17 +34,18 @@
 //     or more lower-case letters, not a stop word, never a name, abbreviation or PII) is
 //     hit with probability 1/12, at least one per noisy narrative, by a character
 //     confusion, a split or an end-of-line hyphen break. A confusion never yields a word of
-//     the corpus's own vocabulary, so every event is a repairable error;
+//     the corpus's own vocabulary (a split may leave real words: "park ing"). A narrative
+//     drawn for noise without any content word passes its turn to the next one;
 //   - writers' misspellings ("vehical", "seperated"; Noise events of kind Misspelling) in
 //     TypoRate of the narratives: half of the words that have a listed misspelling, at
 //     least one. Measure OCR repair on the other kinds;
 //   - HTML residue (Truth.HTML) in HTMLRate of the narratives: <p>...</p>, <br />, &nbsp;,
 //     &amp; (for "and") and &#39; (for an apostrophe).
 //
-// The random streams for content, noise and HTML are separate PCG streams, so changing
-// NoiseRate or HTMLRate leaves the underlying clean text unchanged: undoing every recorded
-// Noise and HTML event of a narrative gives the narrative generated with both rates
-// negative.
+// The random streams for content, for noise and misspellings, and for HTML are separate
+// PCG streams, so changing NoiseRate, TypoRate or HTMLRate leaves the underlying clean
+// text unchanged: undoing every recorded Noise and HTML event of a narrative
+// (Truth.Restore) gives the narrative generated with those three rates negative.
 //
 // # Files
 //
@@ -53,8 +54,9 @@
 // narrative, officer_unit.
 //
 // truth.jsonl is JSON Lines. The first line is {"record":"corpus",...}: town, seed, n,
-// months, start (YYYY-MM), appear_month, the rates, districts and themes (each with name,
-// label, trend, district, call_types and monthly, the theme's probability in each month).
+// months, start (YYYY-MM), appear_month, month_counts, the rates, offsets (a sentence on
+// what offsets mean), districts and themes (each with name, label, trend, district,
+// call_types and monthly, the theme's probability in each month).
 // Each following line is {"record":"incident",...}, one per CSV row in the same order, the
 // JSON form of Truth:
 //
@@ -62,13 +64,12 @@
 //	 "themes":[{"theme":"alarm","sentences":3}],"call_type_matches":true,"no_pii":false,
 //	 "pii":[{"type":"phone","start":97,"end":109,"text":"555-555-0142","cue":"at"}],
 //	 "noise":[{"kind":"confusion","start":12,"end":18,"noisy":"a1arm","original":"alarm"}],
-//	 "html":[{"start":40,"end":46,"residue":"<br />","decoded":"\n"}],
+//	 "html":[{"start":40,"end":46,"residue":"<br />","decoded":"\n","original":" "}],
 //	 "abbrevs":[{"start":0,"end":2,"text":"RP","expansion":"reporting party"}]}
 //
 // Offsets are bytes, [start,end), into the narrative field as decoded from the CSV.
 //
-// Truth.Restore undoes a narrative's noise and HTML events; ReadTruth reads truth.jsonl
-// back.
+// ReadTruth reads truth.jsonl back.
 //
 // Generate builds a corpus in memory; Stream and StreamDir write any N with memory that
 // does not grow with N. The same Config gives byte-identical files.
