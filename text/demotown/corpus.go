@@ -58,8 +58,9 @@ type NoiseEvent struct {
 }
 
 // HTMLEvent is one piece of planted HTML residue: Narrative[Start:End] == Residue, which
-// decodes to Decoded ("" for <p> and </p>, "\n" for <br />, U+00A0 for &nbsp;) and
-// replaced Original, the clean text (" ", "", "and" or "'").
+// decodes to Decoded ("" for <p> and </p>, "\n" for <br />, U+00A0 for &nbsp;, "&" for
+// &amp;, U+2019 for &rsquo; and itself) and replaced Original, the clean text (" ", "",
+// "and" or "'").
 type HTMLEvent struct {
 	Start    int    `json:"start"`
 	End      int    `json:"end"`
@@ -370,8 +371,8 @@ func ReadTruth(r io.Reader, each func(*Truth) error) (TruthHeader, error) {
 	return h, nil
 }
 
-// appendJSONString appends s as a JSON string (the generator writes ASCII and U+00A0 only;
-// other bytes pass through unchanged, which is valid UTF-8 JSON).
+// appendJSONString appends s as a JSON string (the generator writes ASCII, U+00A0 and
+// U+2019 only; other bytes pass through unchanged, which is valid UTF-8 JSON).
 func appendJSONString(dst []byte, s string) []byte {
 	const hex = "0123456789abcdef"
 	dst = append(dst, '"')

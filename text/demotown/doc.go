@@ -40,7 +40,8 @@
 //     TypoRate of the narratives: half of the words that have a listed misspelling, at
 //     least one. Measure OCR repair on the other kinds;
 //   - HTML residue (Truth.HTML) in HTMLRate of the narratives: <p>...</p>, <br />, &nbsp;,
-//     &amp; (for "and") and &#39; (for an apostrophe).
+//     &amp; (for "and") and, for an apostrophe, &#39;, &rsquo; or a raw U+2019 (the only
+//     non-ASCII text the corpus writes).
 //
 // The random streams for content, for noise and misspellings, and for HTML are separate
 // PCG streams, so changing NoiseRate, TypoRate or HTMLRate leaves the underlying clean

@@ -1042,9 +1042,20 @@ func (g *generator) render(tr *Truth) string {
 			case html && strings.IndexByte(p.s, '\'') >= 0:
 				for j := 0; j < len(p.s); j++ {
 					if p.s[j] == '\'' {
+						// A word processor's curly apostrophe, raw or as an entity, or
+						// the numeric entity of a straight one.
 						s := len(out)
-						out = append(out, "&#39;"...)
-						event(s, "&#39;", "'", "'")
+						switch k := g.hr.IntN(10); {
+						case k < 6:
+							out = append(out, "&#39;"...)
+							event(s, "&#39;", "'", "'")
+						case k < 9:
+							out = append(out, "\u2019"...)
+							event(s, "\u2019", "\u2019", "'")
+						default:
+							out = append(out, "&rsquo;"...)
+							event(s, "&rsquo;", "\u2019", "'")
+						}
 					} else {
 						out = append(out, p.s[j])
 					}
