@@ -16,8 +16,8 @@ type normBuf struct {
 	text       []byte
 	start, end []int32 // len(text) each, unless ident
 
-	tmp                  []byte // HTML stage output
-	tmpStart, tmpEnd     []int32
+	tmp              []byte // HTML stage output
+	tmpStart, tmpEnd []int32
 }
 
 // rawSpan maps a span [a,b) of the normalised text to the raw narrative.

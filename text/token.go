@@ -71,6 +71,24 @@ type scanner struct {
 	toks []rawTok
 }
 
+const (
+	classLetter = 1 << iota
+	classDigit
+	classUpper
+)
+
+// asciiClass classifies ASCII letters and digits for the tokenizer's fast path.
+var asciiClass = func() (t [256]uint8) {
+	for c := 'a'; c <= 'z'; c++ {
+		t[c] = classLetter
+		t[c-'a'+'A'] = classLetter | classUpper
+	}
+	for c := '0'; c <= '9'; c++ {
+		t[c] = classDigit
+	}
+	return
+}()
+
 func isLetterASCII(c byte) bool { return (c|0x20) >= 'a' && (c|0x20) <= 'z' }
 func isDigitASCII(c byte) bool  { return c >= '0' && c <= '9' }
 
@@ -167,16 +185,24 @@ loop:
 	for j < len(x) {
 		c := x[j]
 		if c < utf8.RuneSelf {
-			if isLetterASCII(c) {
-				sc.appendLower(rune(c))
-				hasL = true
-				j++
-				continue
-			}
-			if isDigitASCII(c) {
-				sc.text = append(sc.text, c)
-				hasD = true
-				j++
+			if cls := asciiClass[c]; cls != 0 {
+				k, seen := j, uint8(0)
+				for k < len(x) && asciiClass[x[k]] != 0 {
+					seen |= asciiClass[x[k]]
+					k++
+				}
+				hasL = hasL || seen&classLetter != 0
+				hasD = hasD || seen&classDigit != 0
+				base := len(sc.text)
+				sc.text = append(sc.text, x[j:k]...)
+				if seen&classUpper != 0 {
+					for p := base; p < len(sc.text); p++ {
+						if b := sc.text[p]; b >= 'A' && b <= 'Z' {
+							sc.text[p] = b + ('a' - 'A')
+						}
+					}
+				}
+				j = k
 				continue
 			}
 			if j == i {

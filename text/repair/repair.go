@@ -10,8 +10,7 @@
 //	replace "rn" by "m", "cl" by "d", "vv" by "w" or back     0.5
 //
 // The confusion pairs are common practice for OCR of typed forms (written from memory).
-// Candidates are found with a deletion index (the "symmetric delete" idea: two words within
-// two edits share a string obtained by deleting at most two characters from each), then
+// Candidates are found with a deletion index over OCR-canonical forms (see keys), then
 // checked with the distance above.
 package repair
 
@@ -95,18 +94,57 @@ type Index struct {
 	del     map[string][]int32
 }
 
-// deletes calls f with w and every string made by deleting one or two runes of w.
-func deletes(w []rune, f func(string)) {
-	f(string(w))
-	buf := make([]rune, 0, len(w))
-	for i := range w {
-		buf = append(append(buf[:0], w[:i]...), w[i+1:]...)
-		f(string(buf))
-		for j := i; j < len(buf); j++ {
-			b2 := make([]rune, 0, len(buf))
-			b2 = append(append(b2, buf[:j]...), buf[j+1:]...)
-			f(string(b2))
+// canonical maps a word to its OCR-canonical form: 0→o, 1→l, i→l, 5→s, rn→m, cl→d, vv→w.
+// Two words that differ only by OCR confusions have the same canonical form.
+func canonical(w string) []rune {
+	rs := []rune(w)
+	out := rs[:0:0]
+	for i := 0; i < len(rs); i++ {
+		r := rs[i]
+		if i+1 < len(rs) {
+			pair := [2]rune{r, rs[i+1]}
+			switch pair {
+			case [2]rune{'r', 'n'}:
+				out = append(out, 'm')
+				i++
+				continue
+			case [2]rune{'c', 'l'}:
+				out = append(out, 'd')
+				i++
+				continue
+			case [2]rune{'v', 'v'}:
+				out = append(out, 'w')
+				i++
+				continue
+			}
 		}
+		switch r {
+		case '0':
+			r = 'o'
+		case '1', 'i':
+			r = 'l'
+		case '5':
+			r = 's'
+		}
+		out = append(out, r)
+	}
+	return out
+}
+
+// keys calls f with the canonical form of w and every string made by deleting one rune of
+// it. Two words within one plain edit plus any number of OCR confusions share a key
+// (the "symmetric delete" idea), so with costs of at most 1 no candidate is missed, apart from
+// rare interactions of an edit with a two-character confusion.
+func keys(w string, f func(string)) {
+	c := canonical(w)
+	f(string(c))
+	buf := make([]rune, 0, len(c))
+	for i := range c {
+		if i > 0 && c[i] == c[i-1] {
+			continue // same string as deleting c[i-1]
+		}
+		buf = append(append(buf[:0], c[:i]...), c[i+1:]...)
+		f(string(buf))
 	}
 }
 
@@ -121,7 +159,7 @@ func NewIndex(targets []string) *Index {
 		seen[t] = true
 		id := int32(len(ix.targets))
 		ix.targets = append(ix.targets, t)
-		deletes([]rune(t), func(s string) {
+		keys(t, func(s string) {
 			l := ix.del[s]
 			if len(l) == 0 || l[len(l)-1] != id {
 				ix.del[s] = append(l, id)
@@ -131,25 +169,22 @@ func NewIndex(targets []string) *Index {
 	return ix
 }
 
-// Best returns the unique target closest to w within maxCost. ok is false when no target is
-// that close or when two or more targets share the smallest distance (ambiguous). w itself is
-// never returned.
+// Best returns the unique target closest to w within maxCost (at most 1, see keys). ok is
+// false when no target is that close or when two or more targets share the smallest distance
+// (ambiguous). w itself is never returned.
 func (ix *Index) Best(w string, maxCost float64) (target string, cost float64, ok bool) {
 	rw := []rune(w)
-	cands := make(map[int32]bool)
-	deletes(rw, func(s string) {
-		for _, id := range ix.del[s] {
-			cands[id] = true
-		}
+	var cands []int32
+	keys(w, func(s string) {
+		cands = append(cands, ix.del[s]...)
 	})
-	ids := make([]int32, 0, len(cands))
-	for id := range cands {
-		ids = append(ids, id)
-	}
-	sort.Slice(ids, func(i, j int) bool { return ids[i] < ids[j] })
+	sort.Slice(cands, func(i, j int) bool { return cands[i] < cands[j] })
 	best, second := maxCost+1, maxCost+1
 	bestID := int32(-1)
-	for _, id := range ids {
+	for k, id := range cands {
+		if k > 0 && cands[k-1] == id {
+			continue
+		}
 		t := ix.targets[id]
 		if t == w {
 			continue
