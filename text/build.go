@@ -3,6 +3,7 @@ package text
 import (
 	"context"
 	"fmt"
+	"io"
 	"sort"
 	"strings"
 	"unicode"
@@ -564,3 +565,6 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 	}
 	return c, f, nil
 }
+
+// WriteAudit writes the repair audit as CSV (repair.WriteCSV).
+func (c *Corpus) WriteAudit(w io.Writer) error { return repair.WriteCSV(w, c.Audit) }

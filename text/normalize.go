@@ -67,15 +67,19 @@ func (nb *normBuf) normalize(raw string) {
 	nb.text, nb.start, nb.end = nb.text[:0], nb.start[:0], nb.end[:0]
 	var it norm.Iter
 	it.InitString(norm.NFKC, src)
+	var rs, re int32
 	for !it.Done() {
 		p0 := it.Pos()
 		seg := it.Next()
 		p1 := it.Pos()
-		var rs, re int32
-		if sStart == nil {
-			rs, re = int32(p0), int32(p1)
-		} else {
-			rs, re = sStart[p0], sEnd[p1-1]
+		// The iterator can emit a segment without advancing (it buffers combining sequences);
+		// such a segment is mapped to the span of the last one.
+		if p1 > p0 {
+			if sStart == nil {
+				rs, re = int32(p0), int32(p1)
+			} else {
+				rs, re = sStart[p0], sEnd[p1-1]
+			}
 		}
 		for len(seg) > 0 {
 			r, n := utf8.DecodeRune(seg)
