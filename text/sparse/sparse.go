@@ -9,6 +9,7 @@ package sparse
 
 import (
 	"fmt"
+	"slices"
 	"sort"
 )
 
@@ -143,4 +144,33 @@ func (m *Matrix) Dense() [][]float64 {
 		}
 	}
 	return out
+}
+
+// AddIDs appends a row of counts from a list of column ids (one entry per occurrence), like
+// AddCounts, but sorts ids in place (the caller's slice is reordered) and allocates nothing
+// beyond the matrix's own growth. It panics if a column is out of range.
+func (b *Builder) AddIDs(ids []int32) {
+	slices.Sort(ids)
+	for i := 0; i < len(ids); {
+		c := ids[i]
+		if c < 0 || int(c) >= b.m.Cols {
+			panic(fmt.Sprintf("sparse: column %d out of range [0,%d)", c, b.m.Cols))
+		}
+		j := i + 1
+		for j < len(ids) && ids[j] == c {
+			j++
+		}
+		b.m.Indices = append(b.m.Indices, c)
+		b.m.Data = append(b.m.Data, float64(j-i))
+		i = j
+	}
+	b.m.Rows++
+	b.m.Indptr = append(b.m.Indptr, len(b.m.Indices))
+}
+
+// Grow reserves room for about rows more rows and nnz more stored entries.
+func (b *Builder) Grow(rows, nnz int) {
+	b.m.Indptr = slices.Grow(b.m.Indptr, rows)
+	b.m.Indices = slices.Grow(b.m.Indices, nnz)
+	b.m.Data = slices.Grow(b.m.Data, nnz)
 }

@@ -32,3 +32,16 @@ func TestBuilder(t *testing.T) {
 		t.Fatalf("sums = %v", got)
 	}
 }
+
+// AddIDs must give the same rows as AddCounts (checked against it).
+func TestAddIDs(t *testing.T) {
+	a, b := NewBuilder(4), NewBuilder(4)
+	rows := [][]int32{{3, 1, 3, 0, 3}, nil, {2}}
+	for _, r := range rows {
+		a.AddCounts(append([]int32(nil), r...))
+		b.AddIDs(append([]int32(nil), r...))
+	}
+	if !reflect.DeepEqual(a.Matrix(), b.Matrix()) {
+		t.Fatalf("AddIDs %+v != AddCounts %+v", b.Matrix(), a.Matrix())
+	}
+}

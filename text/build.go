@@ -1,0 +1,570 @@
+package text
+
+import (
+	"context"
+	"fmt"
+	"io"
+	"sort"
+	"strings"
+	"unicode"
+
+	"undercurrent/text/phrase"
+	"undercurrent/text/repair"
+	"undercurrent/text/routine"
+	"undercurrent/text/sparse"
+	"undercurrent/text/weight"
+)
+
+// RoutineReason says why a narrative was set aside as routine.
+type RoutineReason uint8
+
+const (
+	NotRoutine   RoutineReason = iota
+	ShortContent               // at most Routine.MaxContent content tokens
+	RoutineWords               // every content token is a routine word
+	Duplicate                  // one of Routine.MinGroup or more exact or near duplicates
+)
+
+var routineNames = [...]string{"", "short", "routine-words", "duplicate"}
+
+func (r RoutineReason) String() string {
+	if int(r) < len(routineNames) {
+		return routineNames[r]
+	}
+	return fmt.Sprintf("RoutineReason(%d)", r)
+}
+
+// MarshalText writes the reason's name ("" for NotRoutine).
+func (r RoutineReason) MarshalText() ([]byte, error) { return []byte(r.String()), nil }
+
+// Expansion counts one abbreviation's expansions in a corpus.
+type Expansion struct {
+	Abbrev    string `json:"abbrev"`
+	Expansion string `json:"expansion"`
+	Count     int    `json:"count"`
+}
+
+// PhraseInfo describes a collocation that became a single token.
+type PhraseInfo struct {
+	Term    string  `json:"term"`    // vocabulary key: the two stems joined by '_'
+	Display string  `json:"display"` // the two display forms joined by '_' ("traffic_stop")
+	Count   int     `json:"count"`   // adjacent occurrences before merging
+	Score   float64 `json:"score"`   // Dunning's G² (package phrase)
+}
+
+// Corpus is the result of Build: the document-term counts and everything needed to explain
+// them. Narrative tokens are not kept (a million narratives would not fit); Frozen.Transform
+// recomputes any narrative's tokens, terms and spans on demand, identically.
+type Corpus struct {
+	Settings Settings
+	// Counts is the document-term count matrix: one row per narrative in input order, one
+	// column per vocabulary term. Routine narratives keep their rows.
+	Counts  *sparse.Matrix
+	Vocab   []string // term keys (stems, or stem_stem phrases), ascending byte order
+	Display []string // the display form of each term: its most frequent surface form
+	DocFreq []int    // narratives holding each term
+	// Routine gives, per narrative, why it is set aside (NotRoutine for the others).
+	Routine []RoutineReason
+	// DupGroup gives, per narrative, the index of the first narrative of its duplicate group
+	// (a narrative that is its own group representative has DupGroup[i] == i), or -1.
+	DupGroup []int
+	// Audit lists every repair (OCR corrections and rejoined split words) with its count.
+	Audit []repair.Correction
+	// Expansions counts every abbreviation expanded.
+	Expansions []Expansion
+	Phrases    []PhraseInfo
+	Docs       int // narratives
+	Bytes      int // total raw bytes
+	Tokens     int // tokens scanned (before policies, stopwords, pruning)
+	Terms      int // content term occurrences (after stopwords, before pruning)
+}
+
+// Weights returns the TF-IDF weights of the counts under the corpus's Settings.Weight, and
+// the idf vector (package weight).
+func (c *Corpus) Weights() (*sparse.Matrix, []float64) {
+	return weight.TFIDF(c.Counts, c.Settings.Weight)
+}
+
+type surface struct {
+	text  string
+	kind  Kind
+	count int
+}
+
+type lexEntry struct {
+	stem      int32
+	word      string
+	protected bool
+}
+
+func lettersOnly(s string, ocrDigits bool) bool {
+	letter := false
+	for _, r := range s {
+		switch {
+		case unicode.IsLetter(r):
+			letter = true
+		case ocrDigits && (r == '0' || r == '1' || r == '5'):
+		default:
+			return false
+		}
+	}
+	return letter
+}
+
+// Build runs the whole pipeline over a corpus: tokenize (Analyze's rules), rejoin split words
+// and repair OCR noise (corpus frequencies), expand abbreviations, remove stopwords, stem,
+// find phrases, prune the vocabulary, count, and set routine narratives aside. It returns the
+// corpus and the Frozen pipeline that repeats the same processing on new narratives. It
+// returns an error for unusable settings or when ctx is cancelled.
+//
+// Order of the steps, per token: policy for numbers/times/dates/codes → split-word join →
+// OCR repair → abbreviation expansion → stopwords and minimum length → stem. Phrases join two
+// adjacent content terms with nothing removed between them and no punctuation break.
+func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, error) {
+	if err := s.Validate(); err != nil {
+		return nil, nil, err
+	}
+	lx, err := newLexer(&s)
+	if err != nil {
+		return nil, nil, err
+	}
+	c := &Corpus{Settings: s, Docs: len(docs)}
+
+	// Pass 1: tokenize, intern surfaces, count.
+	intern := make(map[string]int32)
+	var surfs []surface
+	nbytes := 0
+	for _, raw := range docs {
+		nbytes += len(raw)
+	}
+	stream := make([]int32, 0, nbytes/5+16)
+	docOff := make([]int, len(docs)+1)
+	var sc scanner
+	for d, raw := range docs {
+		if d&511 == 0 {
+			if err := ctx.Err(); err != nil {
+				return nil, nil, err
+			}
+		}
+		c.Bytes += len(raw)
+		sc.scan(raw, s.Tokens.KeepPossessive)
+		for _, t := range sc.toks {
+			if t.brk && len(stream) > docOff[d] && stream[len(stream)-1] != -1 {
+				stream = append(stream, -1)
+			}
+			key := sc.text[t.a:t.b]
+			id, ok := intern[string(key)]
+			if !ok {
+				id = int32(len(surfs))
+				str := string(key)
+				intern[str] = id
+				surfs = append(surfs, surface{str, t.kind, 0})
+			}
+			surfs[id].count++
+			stream = append(stream, id)
+		}
+		c.Tokens += len(sc.toks)
+		docOff[d+1] = len(stream)
+	}
+	addSurface := func(w string) int32 {
+		if id, ok := intern[w]; ok {
+			return id
+		}
+		id := int32(len(surfs))
+		intern[w] = id
+		surfs = append(surfs, surface{w, Word, 0})
+		return id
+	}
+
+	// Repair tables.
+	rs := s.Repair
+	fmin, rmax := orInt(rs.FrequentMin, 10), orInt(rs.RareMax, 2)
+	nScanned := len(surfs)
+	repairTo := make([]int32, nScanned)
+	repairCost := make([]float64, nScanned)
+	for i := range repairTo {
+		repairTo[i] = -1
+	}
+	if rs.Enabled {
+		user := make(map[string]bool)
+		var targets []string
+		for id := 0; id < nScanned; id++ {
+			if sf := surfs[id]; sf.kind == Word && sf.count >= fmin && lettersOnly(sf.text, false) {
+				targets = append(targets, sf.text)
+			}
+		}
+		for _, w := range rs.Words {
+			w = strings.ToLower(strings.TrimSpace(w))
+			if w != "" {
+				user[w] = true
+				targets = append(targets, w)
+			}
+		}
+		ix := repair.NewIndex(targets)
+		minLen, shortLen := orInt(rs.MinLength, 5), orInt(rs.ShortLen, 8)
+		maxCost, shortCost := orFloat(rs.MaxCost, 1), orFloat(rs.ShortMaxCost, 0.5)
+		for id := 0; id < nScanned; id++ {
+			sf := surfs[id]
+			if sf.kind != Word || sf.count > rmax || user[sf.text] || lx.stop.Has(sf.text) || !lettersOnly(sf.text, true) {
+				continue
+			}
+			if _, ok := lx.abbrev.Lookup(sf.text); ok {
+				continue
+			}
+			n := len([]rune(sf.text))
+			if n < minLen {
+				continue
+			}
+			limit := maxCost
+			if n <= shortLen {
+				limit = shortCost
+			}
+			if tgt, cost, ok := ix.Best(sf.text, limit); ok {
+				if !s.Stem.Off && lx.stems.stem(tgt) == lx.stems.stem(sf.text) {
+					continue // an inflection of the target: stemming already merges them
+				}
+				repairTo[id] = addSurface(tgt)
+				repairCost[id] = cost
+			}
+		}
+	}
+	joinOn := rs.Enabled && !rs.NoJoin
+	joinCache := make(map[[2]int32]int32)
+	joinCount := make(map[[2]int32]int)
+	var joinBuf []byte
+	joinable := func(a, b int32) int32 {
+		if a >= int32(nScanned) || b >= int32(nScanned) {
+			return -1
+		}
+		sa, sb := &surfs[a], &surfs[b]
+		if sa.kind != Word || sb.kind != Word || sa.count >= fmin || sb.count >= fmin {
+			return -1
+		}
+		k := [2]int32{a, b}
+		if j, ok := joinCache[k]; ok {
+			return j
+		}
+		j := int32(-1)
+		if lettersOnly(sa.text, false) && lettersOnly(sb.text, false) {
+			joinBuf = append(append(joinBuf[:0], sa.text...), sb.text...)
+			if id, ok := intern[string(joinBuf)]; ok && int(id) < nScanned && surfs[id].count >= fmin && surfs[id].kind == Word {
+				j = id
+			}
+		}
+		joinCache[k] = j
+		return j
+	}
+
+	// Pass 2: join, repair, lex → stem stream.
+	stemID := make(map[string]int32)
+	var stemStr []string
+	var stemProt []bool
+	internStem := func(st string, prot bool) int32 {
+		if id, ok := stemID[st]; ok {
+			return id
+		}
+		id := int32(len(stemStr))
+		stemID[st] = id
+		stemStr = append(stemStr, st)
+		stemProt = append(stemProt, prot)
+		return id
+	}
+	lexCache := make([][]lexEntry, len(surfs))
+	lexDone := make([]bool, len(surfs))
+	lexExp := make([]bool, len(surfs))
+	lexOf := func(id int32) []lexEntry {
+		if lexDone[id] {
+			return lexCache[id]
+		}
+		words, exp := lx.lex(surfs[id].text, surfs[id].kind)
+		var le []lexEntry
+		for _, w := range words {
+			le = append(le, lexEntry{internStem(w.stem, w.protected), w.word, w.protected})
+		}
+		lexCache[id], lexDone[id], lexExp[id] = le, true, exp
+		return le
+	}
+	occ := make([]int, len(surfs))
+	repairCount := make([]int, nScanned)
+	out := make([]int32, 0, len(stream))
+	docOff2 := make([]int, len(docs)+1)
+	for d := range docs {
+		if d&511 == 0 {
+			if err := ctx.Err(); err != nil {
+				return nil, nil, err
+			}
+		}
+		ss := stream[docOff[d]:docOff[d+1]]
+		start := len(out)
+		brk := func() {
+			if len(out) > start && out[len(out)-1] != -1 {
+				out = append(out, -1)
+			}
+		}
+		for i := 0; i < len(ss); i++ {
+			id := ss[i]
+			if id < 0 {
+				brk()
+				continue
+			}
+			joined := false
+			if joinOn && i+1 < len(ss) && ss[i+1] >= 0 {
+				if j := joinable(id, ss[i+1]); j >= 0 {
+					joinCount[[2]int32{id, ss[i+1]}]++
+					id, joined = j, true
+					i++
+				}
+			}
+			if !joined && int(id) < nScanned && repairTo[id] >= 0 {
+				repairCount[id]++
+				id = repairTo[id]
+			}
+			occ[id]++
+			le := lexOf(id)
+			if len(le) == 0 {
+				brk()
+				continue
+			}
+			for _, e := range le {
+				out = append(out, e.stem)
+			}
+		}
+		if len(out) > start && out[len(out)-1] == -1 {
+			out = out[:len(out)-1]
+		}
+		docOff2[d+1] = len(out)
+	}
+	stream = nil
+
+	// Display forms of stems: the most frequent word, ties to the smaller (byte order).
+	type sw struct {
+		stem int32
+		word string
+	}
+	dispCount := make(map[sw]int)
+	for id := range surfs {
+		if occ[id] == 0 {
+			continue
+		}
+		for _, e := range lexCache[id] {
+			dispCount[sw{e.stem, e.word}] += occ[id]
+		}
+		if lexExp[id] {
+			e, _ := lx.abbrev.Lookup(surfs[id].text)
+			c.Expansions = append(c.Expansions, Expansion{surfs[id].text, strings.Join(e, " "), occ[id]})
+		}
+	}
+	sort.Slice(c.Expansions, func(i, j int) bool { return c.Expansions[i].Abbrev < c.Expansions[j].Abbrev })
+	disp := make([]string, len(stemStr))
+	best := make([]int, len(stemStr))
+	for k, n := range dispCount {
+		if n > best[k.stem] || (n == best[k.stem] && k.word < disp[k.stem]) {
+			best[k.stem], disp[k.stem] = n, k.word
+		}
+	}
+
+	// Phrases.
+	var phrasePairs [][2]string
+	if s.Phrases.Enabled {
+		pairCount := make(map[[2]int32]int)
+		left, right := make([]int, len(stemStr)), make([]int, len(stemStr))
+		n := 0
+		for d := range docs {
+			for k := docOff2[d]; k+1 < docOff2[d+1]; k++ {
+				a, b := out[k], out[k+1]
+				if a < 0 || b < 0 || stemProt[a] || stemProt[b] {
+					continue
+				}
+				pairCount[[2]int32{a, b}]++
+				left[a]++
+				right[b]++
+				n++
+			}
+		}
+		sel := phrase.Select(pairCount, left, right, n, s.Phrases.Settings)
+		phraseID := make(map[[2]int32]int32, len(sel))
+		for _, p := range sel {
+			key := stemStr[p.A] + "_" + stemStr[p.B]
+			id := internStem(key, false)
+			for len(disp) < len(stemStr) {
+				disp = append(disp, "")
+			}
+			disp[id] = disp[p.A] + "_" + disp[p.B]
+			phraseID[[2]int32{p.A, p.B}] = id
+			phrasePairs = append(phrasePairs, [2]string{stemStr[p.A], stemStr[p.B]})
+			c.Phrases = append(c.Phrases, PhraseInfo{key, disp[id], p.Count, p.Score})
+		}
+		if len(phraseID) > 0 {
+			w := 0
+			for d := range docs {
+				a, b := docOff2[d], docOff2[d+1]
+				docOff2[d] = w
+				for k := a; k < b; {
+					if k+1 < b && out[k] >= 0 && out[k+1] >= 0 {
+						if p, ok := phraseID[[2]int32{out[k], out[k+1]}]; ok {
+							out[w] = p
+							w++
+							k += 2
+							continue
+						}
+					}
+					out[w] = out[k]
+					w++
+					k++
+				}
+			}
+			docOff2[len(docs)] = w
+			out = out[:w]
+		}
+	}
+
+	// Term statistics and routine narratives.
+	nTerms := len(stemStr)
+	df := make([]int, nTerms)
+	total := make([]float64, nTerms)
+	last := make([]int, nTerms)
+	for i := range last {
+		last[i] = -1
+	}
+	routineStem := make(map[int32]bool)
+	for _, w := range s.Routine.Words {
+		w = strings.ToLower(strings.TrimSpace(w))
+		if w == "" {
+			continue
+		}
+		st := w
+		if !s.Stem.Off {
+			st = lx.stems.stem(w)
+		}
+		if id, ok := stemID[st]; ok {
+			routineStem[id] = true
+		}
+	}
+	c.Routine = make([]RoutineReason, len(docs))
+	c.DupGroup = make([]int, len(docs))
+	for d := range docs {
+		content, allRoutine := 0, len(s.Routine.Words) > 0
+		for _, t := range out[docOff2[d]:docOff2[d+1]] {
+			if t < 0 {
+				continue
+			}
+			content++
+			total[t]++
+			if last[t] != d {
+				last[t] = d
+				df[t]++
+			}
+			if !routineStem[t] {
+				allRoutine = false
+			}
+		}
+		c.Terms += content
+		c.DupGroup[d] = -1
+		switch {
+		case s.Routine.MaxContent > 0 && content <= s.Routine.MaxContent:
+			c.Routine[d] = ShortContent
+		case allRoutine && content > 0:
+			c.Routine[d] = RoutineWords
+		}
+	}
+	if s.Routine.NearDup {
+		h := routine.NewHasher(s.Routine.Settings)
+		th := make([]uint64, nTerms)
+		for i, st := range stemStr {
+			th[i] = routine.HashString(st)
+		}
+		sigs := make([][]uint64, len(docs))
+		var buf []uint64
+		for d := range docs {
+			buf = buf[:0]
+			for _, t := range out[docOff2[d]:docOff2[d+1]] {
+				if t >= 0 {
+					buf = append(buf, th[t])
+				}
+			}
+			sigs[d] = h.Signature(nil, buf)
+		}
+		g := h.Groups(sigs)
+		size := make(map[int]int)
+		for _, r := range g {
+			size[r]++
+		}
+		minGroup := orInt(s.Routine.MinGroup, 3)
+		for d, r := range g {
+			if size[r] >= minGroup {
+				c.DupGroup[d] = r
+				if c.Routine[d] == NotRoutine {
+					c.Routine[d] = Duplicate
+				}
+			}
+		}
+	}
+
+	// Vocabulary and counts.
+	keep := weight.Prune(stemStr, df, total, len(docs), s.Vocab)
+	newID := make([]int32, nTerms)
+	for i := range newID {
+		newID[i] = -1
+	}
+	c.Vocab = make([]string, len(keep))
+	c.Display = make([]string, len(keep))
+	c.DocFreq = make([]int, len(keep))
+	for j, t := range keep {
+		newID[t] = int32(j)
+		c.Vocab[j] = stemStr[t]
+		c.Display[j] = disp[t]
+		if c.Display[j] == "" {
+			c.Display[j] = stemStr[t]
+		}
+		c.DocFreq[j] = df[t]
+	}
+	b := sparse.NewBuilder(len(keep))
+	b.Grow(len(docs), len(out)/2)
+	var ids []int32
+	for d := range docs {
+		ids = ids[:0]
+		for _, t := range out[docOff2[d]:docOff2[d+1]] {
+			if t >= 0 && newID[t] >= 0 {
+				ids = append(ids, newID[t])
+			}
+		}
+		b.AddIDs(ids)
+	}
+	c.Counts = b.Matrix()
+
+	// Audit.
+	for id := 0; id < nScanned; id++ {
+		if repairCount[id] > 0 {
+			c.Audit = append(c.Audit, repair.Correction{From: surfs[id].text, To: surfs[repairTo[id]].text, Kind: "ocr", Cost: repairCost[id], Count: repairCount[id]})
+		}
+	}
+	f := &Frozen{
+		Settings: s,
+		Vocab:    c.Vocab,
+		Display:  c.Display,
+		DocFreq:  c.DocFreq,
+		Docs:     len(docs),
+		Phrases:  phrasePairs,
+		Repairs:  make(map[string]string),
+		Joins:    make(map[string]string),
+	}
+	for k, n := range joinCount {
+		from := surfs[k[0]].text + " " + surfs[k[1]].text
+		to := surfs[joinCache[k]].text
+		c.Audit = append(c.Audit, repair.Correction{From: from, To: to, Kind: "join", Count: n})
+		f.Joins[from] = to
+	}
+	repair.SortCorrections(c.Audit)
+	for id := 0; id < nScanned; id++ {
+		if repairTo[id] >= 0 {
+			f.Repairs[surfs[id].text] = surfs[repairTo[id]].text
+		}
+	}
+	if err := f.Prepare(); err != nil {
+		return nil, nil, err
+	}
+	return c, f, nil
+}
+
+// WriteAudit writes the repair audit as CSV (repair.WriteCSV).
+func (c *Corpus) WriteAudit(w io.Writer) error { return repair.WriteCSV(w, c.Audit) }

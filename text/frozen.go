@@ -1,0 +1,209 @@
+package text
+
+import (
+	"strings"
+	"sync"
+
+	"undercurrent/text/sparse"
+	"undercurrent/text/weight"
+)
+
+// Frozen is a pipeline fixed by Build: its settings, vocabulary, phrases, repair and join
+// tables and display forms. It is saved with every model (all exported fields are
+// JSON-serialisable) and applies exactly the same processing to new narratives, one at a
+// time. After loading a Frozen from JSON call Prepare once. Transform is safe for concurrent
+// use (calls are serialised).
+type Frozen struct {
+	Settings Settings          `json:"settings"`
+	Vocab    []string          `json:"vocab"`    // term keys, ascending
+	Display  []string          `json:"display"`  // display form of each term
+	DocFreq  []int             `json:"doc_freq"` // training document frequency of each term
+	Docs     int               `json:"docs"`     // training narratives
+	Phrases  [][2]string       `json:"phrases"`  // stem pairs merged into one term, by score
+	Repairs  map[string]string `json:"repairs"`  // OCR repairs: rare word → frequent word
+	Joins    map[string]string `json:"joins"`    // split words: "a b" → "ab"
+
+	mu       sync.Mutex
+	prepared bool
+	lx       *lexer
+	sc       scanner
+	vocabID  map[string]int32
+	phraseOf map[[2]string]string
+	lexMemo  map[string][]lexWord
+	items    []item
+	routine  map[string]bool
+}
+
+type item struct {
+	stem       string
+	start, end int
+	protected  bool
+	brk        bool
+}
+
+// Span ties a stretch of the original narrative to a vocabulary term: raw[Start:End] is where
+// the writer wrote the term (for a phrase, both words and what lies between).
+type Span struct {
+	Start, End int
+	Term       int32
+}
+
+// Doc is one narrative as the Frozen pipeline sees it.
+type Doc struct {
+	Terms   []int32       // vocabulary ids in narrative order (out-of-vocabulary terms left out)
+	Spans   []Span        // one per entry of Terms
+	Content int           // content terms before vocabulary pruning
+	Routine RoutineReason // ShortContent or RoutineWords (near duplicates are found by Build only)
+}
+
+// Prepare builds the lookup tables. It returns an error when the settings are unusable.
+func (f *Frozen) Prepare() error {
+	f.mu.Lock()
+	defer f.mu.Unlock()
+	if err := f.Settings.Validate(); err != nil {
+		return err
+	}
+	lx, err := newLexer(&f.Settings)
+	if err != nil {
+		return err
+	}
+	f.lx = lx
+	f.vocabID = make(map[string]int32, len(f.Vocab))
+	for i, v := range f.Vocab {
+		f.vocabID[v] = int32(i)
+	}
+	f.phraseOf = make(map[[2]string]string, len(f.Phrases))
+	for _, p := range f.Phrases {
+		f.phraseOf[p] = p[0] + "_" + p[1]
+	}
+	f.lexMemo = make(map[string][]lexWord)
+	f.routine = make(map[string]bool)
+	for _, w := range f.Settings.Routine.Words {
+		w = strings.ToLower(strings.TrimSpace(w))
+		if w == "" {
+			continue
+		}
+		st := w
+		if !f.Settings.Stem.Off {
+			st = StemWord(w)
+		}
+		f.routine[st] = true
+	}
+	f.prepared = true
+	return nil
+}
+
+func (f *Frozen) lex(text string, kind Kind) []lexWord {
+	if le, ok := f.lexMemo[text]; ok {
+		return le
+	}
+	words, _ := f.lx.lex(text, kind)
+	le := append([]lexWord(nil), words...)
+	if len(f.lexMemo) < 1<<20 {
+		f.lexMemo[text] = le
+	}
+	return le
+}
+
+// Transform applies the frozen pipeline to one narrative. It panics if the Frozen was not
+// prepared (a caller bug).
+func (f *Frozen) Transform(raw string) Doc {
+	f.mu.Lock()
+	defer f.mu.Unlock()
+	if !f.prepared {
+		panic("text: Frozen.Transform before Prepare")
+	}
+	s := &f.Settings
+	sc := &f.sc
+	sc.scan(raw, s.Tokens.KeepPossessive)
+	items := f.items[:0]
+	brk := func() {
+		if len(items) > 0 && !items[len(items)-1].brk {
+			items = append(items, item{brk: true})
+		}
+	}
+	joinOn := s.Repair.Enabled && !s.Repair.NoJoin && len(f.Joins) > 0
+	toks := sc.toks
+	for i := 0; i < len(toks); i++ {
+		t := toks[i]
+		if t.brk {
+			brk()
+		}
+		start, end := sc.nb.rawSpan(int(t.s), int(t.e))
+		text := string(sc.text[t.a:t.b])
+		kind := t.kind
+		joined := false
+		if joinOn && i+1 < len(toks) && !toks[i+1].brk {
+			n := toks[i+1]
+			if j, ok := f.Joins[text+" "+string(sc.text[n.a:n.b])]; ok {
+				text, kind, joined = j, Word, true
+				_, end = sc.nb.rawSpan(int(n.s), int(n.e))
+				i++
+			}
+		}
+		if !joined {
+			if r, ok := f.Repairs[text]; ok {
+				text, kind = r, Word
+			}
+		}
+		le := f.lex(text, kind)
+		if len(le) == 0 {
+			brk()
+			continue
+		}
+		for _, w := range le {
+			items = append(items, item{stem: w.stem, start: start, end: end, protected: w.protected})
+		}
+	}
+	f.items = items
+	var d Doc
+	allRoutine := len(f.routine) > 0
+	for k := 0; k < len(items); {
+		it := items[k]
+		if it.brk {
+			k++
+			continue
+		}
+		term := it.stem
+		end := it.end
+		k++
+		if len(f.phraseOf) > 0 && !it.protected && k < len(items) && !items[k].brk && !items[k].protected {
+			if p, ok := f.phraseOf[[2]string{it.stem, items[k].stem}]; ok {
+				term, end = p, items[k].end
+				k++
+			}
+		}
+		d.Content++
+		if !f.routine[term] {
+			allRoutine = false
+		}
+		if id, ok := f.vocabID[term]; ok {
+			d.Terms = append(d.Terms, id)
+			d.Spans = append(d.Spans, Span{it.start, end, id})
+		}
+	}
+	switch {
+	case s.Routine.MaxContent > 0 && d.Content <= s.Routine.MaxContent:
+		d.Routine = ShortContent
+	case allRoutine && d.Content > 0:
+		d.Routine = RoutineWords
+	}
+	return d
+}
+
+// Counts returns the document-term count matrix of narratives under the frozen vocabulary.
+func (f *Frozen) Counts(docs []string) *sparse.Matrix {
+	b := sparse.NewBuilder(len(f.Vocab))
+	for _, raw := range docs {
+		b.AddCounts(f.Transform(raw).Terms)
+	}
+	return b.Matrix()
+}
+
+// IDF returns the training idf of each term under the frozen weighting scheme, so new
+// narratives are weighted as the training narratives were.
+func (f *Frozen) IDF() []float64 {
+	sc := f.Settings.Weight
+	kind := sc.IDF
+	return weight.IDFWeights(nil, f.DocFreq, f.Docs, kind)
+}

@@ -1,0 +1,238 @@
+// Package repair finds OCR and typing noise in a corpus's rare words and maps each to a
+// frequent word, only when the match is unambiguous, keeping an audit of every correction.
+//
+// The distance is the optimal-string-alignment form of the Damerau–Levenshtein distance
+// (Damerau 1964; insertions, deletions, substitutions and adjacent transpositions, each
+// substring edited at most once), with costs of our own choosing for OCR confusions:
+//
+//	insert, delete, substitute, transpose adjacent     1
+//	substitute a confusable pair (0/o, 1/l, 1/i, l/i, 5/s)   0.5
+//	replace "rn" by "m", "cl" by "d", "vv" by "w" or back     0.5
+//
+// The confusion pairs are common practice for OCR of typed forms (written from memory).
+// Candidates are found with a deletion index over OCR-canonical forms (see keys), then
+// checked with the distance above.
+package repair
+
+import (
+	"encoding/csv"
+	"io"
+	"sort"
+	"strconv"
+)
+
+func confusable(a, b rune) bool {
+	if a > b {
+		a, b = b, a
+	}
+	switch [2]rune{a, b} {
+	case [2]rune{'0', 'o'}, [2]rune{'1', 'l'}, [2]rune{'1', 'i'}, [2]rune{'i', 'l'}, [2]rune{'5', 's'}:
+		return true
+	}
+	return false
+}
+
+// twoToOne lists the OCR confusions of two characters read as one (and back).
+var twoToOne = [][3]rune{{'r', 'n', 'm'}, {'c', 'l', 'd'}, {'v', 'v', 'w'}}
+
+// Distance returns the weighted distance between a and b (see the package comment).
+func Distance(a, b string) float64 {
+	return distance([]rune(a), []rune(b))
+}
+
+func distance(a, b []rune) float64 {
+	n, m := len(a), len(b)
+	d := make([][]float64, n+1)
+	for i := range d {
+		d[i] = make([]float64, m+1)
+		d[i][0] = float64(i)
+	}
+	for j := 0; j <= m; j++ {
+		d[0][j] = float64(j)
+	}
+	for i := 1; i <= n; i++ {
+		for j := 1; j <= m; j++ {
+			sub := 1.0
+			if a[i-1] == b[j-1] {
+				sub = 0
+			} else if confusable(a[i-1], b[j-1]) {
+				sub = 0.5
+			}
+			v := d[i-1][j-1] + sub
+			if x := d[i-1][j] + 1; x < v {
+				v = x
+			}
+			if x := d[i][j-1] + 1; x < v {
+				v = x
+			}
+			if i > 1 && j > 1 && a[i-1] == b[j-2] && a[i-2] == b[j-1] {
+				if x := d[i-2][j-2] + 1; x < v {
+					v = x
+				}
+			}
+			for _, t := range twoToOne {
+				if i > 1 && a[i-2] == t[0] && a[i-1] == t[1] && b[j-1] == t[2] {
+					if x := d[i-2][j-1] + 0.5; x < v {
+						v = x
+					}
+				}
+				if j > 1 && b[j-2] == t[0] && b[j-1] == t[1] && a[i-1] == t[2] {
+					if x := d[i-1][j-2] + 0.5; x < v {
+						v = x
+					}
+				}
+			}
+			d[i][j] = v
+		}
+	}
+	return d[n][m]
+}
+
+// Index finds the closest target word of a query word.
+type Index struct {
+	targets []string
+	del     map[string][]int32
+}
+
+// canonical maps a word to its OCR-canonical form: 0→o, 1→l, i→l, 5→s, rn→m, cl→d, vv→w.
+// Two words that differ only by OCR confusions have the same canonical form.
+func canonical(w string) []rune {
+	rs := []rune(w)
+	out := rs[:0:0]
+	for i := 0; i < len(rs); i++ {
+		r := rs[i]
+		if i+1 < len(rs) {
+			pair := [2]rune{r, rs[i+1]}
+			switch pair {
+			case [2]rune{'r', 'n'}:
+				out = append(out, 'm')
+				i++
+				continue
+			case [2]rune{'c', 'l'}:
+				out = append(out, 'd')
+				i++
+				continue
+			case [2]rune{'v', 'v'}:
+				out = append(out, 'w')
+				i++
+				continue
+			}
+		}
+		switch r {
+		case '0':
+			r = 'o'
+		case '1', 'i':
+			r = 'l'
+		case '5':
+			r = 's'
+		}
+		out = append(out, r)
+	}
+	return out
+}
+
+// keys calls f with the canonical form of w and every string made by deleting one rune of
+// it. Two words within one plain edit plus any number of OCR confusions share a key
+// (the "symmetric delete" idea), so with costs of at most 1 no candidate is missed, apart from
+// rare interactions of an edit with a two-character confusion.
+func keys(w string, f func(string)) {
+	c := canonical(w)
+	f(string(c))
+	buf := make([]rune, 0, len(c))
+	for i := range c {
+		if i > 0 && c[i] == c[i-1] {
+			continue // same string as deleting c[i-1]
+		}
+		buf = append(append(buf[:0], c[:i]...), c[i+1:]...)
+		f(string(buf))
+	}
+}
+
+// NewIndex indexes the target words (duplicates are ignored).
+func NewIndex(targets []string) *Index {
+	ix := &Index{del: make(map[string][]int32)}
+	seen := make(map[string]bool)
+	for _, t := range targets {
+		if seen[t] {
+			continue
+		}
+		seen[t] = true
+		id := int32(len(ix.targets))
+		ix.targets = append(ix.targets, t)
+		keys(t, func(s string) {
+			l := ix.del[s]
+			if len(l) == 0 || l[len(l)-1] != id {
+				ix.del[s] = append(l, id)
+			}
+		})
+	}
+	return ix
+}
+
+// Best returns the unique target closest to w within maxCost (at most 1, see keys). ok is
+// false when no target is that close or when two or more targets share the smallest distance
+// (ambiguous). w itself is never returned.
+func (ix *Index) Best(w string, maxCost float64) (target string, cost float64, ok bool) {
+	rw := []rune(w)
+	var cands []int32
+	keys(w, func(s string) {
+		cands = append(cands, ix.del[s]...)
+	})
+	sort.Slice(cands, func(i, j int) bool { return cands[i] < cands[j] })
+	best, second := maxCost+1, maxCost+1
+	bestID := int32(-1)
+	for k, id := range cands {
+		if k > 0 && cands[k-1] == id {
+			continue
+		}
+		t := ix.targets[id]
+		if t == w {
+			continue
+		}
+		c := distance(rw, []rune(t))
+		if c < best {
+			second, best, bestID = best, c, id
+		} else if c < second {
+			second = c
+		}
+	}
+	if bestID < 0 || best > maxCost || second <= best {
+		return "", 0, false
+	}
+	return ix.targets[bestID], best, true
+}
+
+// Correction is one entry of the repair audit.
+type Correction struct {
+	From  string  `json:"from"`  // the word as found (normalised)
+	To    string  `json:"to"`    // the word it was replaced by
+	Kind  string  `json:"kind"`  // "ocr" (edit distance) or "join" (split word rejoined; From holds "a b")
+	Cost  float64 `json:"cost"`  // weighted distance (0 for joins)
+	Count int     `json:"count"` // occurrences corrected in the corpus
+}
+
+// SortCorrections orders an audit by kind, then From.
+func SortCorrections(cs []Correction) {
+	sort.Slice(cs, func(i, j int) bool {
+		if cs[i].Kind != cs[j].Kind {
+			return cs[i].Kind < cs[j].Kind
+		}
+		return cs[i].From < cs[j].From
+	})
+}
+
+// WriteCSV writes the audit as CSV with the header kind,from,to,cost,count.
+func WriteCSV(w io.Writer, cs []Correction) error {
+	cw := csv.NewWriter(w)
+	if err := cw.Write([]string{"kind", "from", "to", "cost", "count"}); err != nil {
+		return err
+	}
+	for _, c := range cs {
+		rec := []string{c.Kind, c.From, c.To, strconv.FormatFloat(c.Cost, 'g', -1, 64), strconv.Itoa(c.Count)}
+		if err := cw.Write(rec); err != nil {
+			return err
+		}
+	}
+	cw.Flush()
+	return cw.Error()
+}

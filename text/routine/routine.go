@@ -1,0 +1,203 @@
+// Package routine finds near-duplicate narratives with MinHash signatures over word shingles.
+//
+// A narrative's shingles are its runs of k consecutive tokens (k = 3 by default; a narrative
+// shorter than k is one shingle). The signature is a one-permutation MinHash (Li, Owen and
+// Zhang 2012, "One permutation hashing", NIPS): each shingle is hashed once with a seeded
+// hash, the hash's top bits choose one of h bins and each bin keeps its least hash (an empty
+// bin holds the all-ones value). The share of equal entries among the bins that are not empty
+// in both signatures estimates the Jaccard similarity of the shingle sets (Broder 1997, "On
+// the resemblance and containment of documents"; Li et al.'s estimator without
+// densification). Candidate pairs come from banding (b bands of
+// h/b rows: two narratives are candidates when any band matches exactly; Leskovec, Rajaraman
+// and Ullman, "Mining of Massive Datasets", ch. 3) and are kept when the estimate reaches the
+// threshold. Groups are the connected components of kept pairs.
+package routine
+
+import "math/rand/v2"
+
+// Settings for near-duplicate detection. Zero values mean the defaults given.
+type Settings struct {
+	Shingle   int     `json:"shingle"`   // tokens per shingle; zero means 3
+	Hashes    int     `json:"hashes"`    // signature length (bins), a power of two; zero means 64
+	Bands     int     `json:"bands"`     // LSH bands, must divide Hashes; zero means 16
+	Threshold float64 `json:"threshold"` // least estimated Jaccard similarity; zero means 0.8
+	Seed      uint64  `json:"seed"`      // seeds the hash functions (rand.NewPCG(Seed, 0x726f7574))
+}
+
+func (s Settings) resolved() Settings {
+	if s.Shingle <= 0 {
+		s.Shingle = 3
+	}
+	if s.Hashes <= 0 {
+		s.Hashes = 64
+	}
+	if s.Bands <= 0 {
+		s.Bands = 16
+	}
+	if s.Hashes&(s.Hashes-1) != 0 {
+		panic("routine: Hashes must be a power of two")
+	}
+	if s.Hashes%s.Bands != 0 {
+		panic("routine: Bands must divide Hashes")
+	}
+	if s.Threshold <= 0 {
+		s.Threshold = 0.8
+	}
+	return s
+}
+
+// mix is the splitmix64 finaliser (Steele, Lea and Flood 2014).
+func mix(z uint64) uint64 {
+	z ^= z >> 30
+	z *= 0xbf58476d1ce4e5b9
+	z ^= z >> 27
+	z *= 0x94d049bb133111eb
+	z ^= z >> 31
+	return z
+}
+
+// HashString is 64-bit FNV-1a, used to hash tokens independently of any id numbering.
+func HashString(s string) uint64 {
+	h := uint64(14695981039346656037)
+	for i := 0; i < len(s); i++ {
+		h ^= uint64(s[i])
+		h *= 1099511628211
+	}
+	return h
+}
+
+// Hasher computes MinHash signatures.
+type Hasher struct {
+	s     Settings
+	seed  uint64
+	shift uint
+}
+
+// NewHasher returns a Hasher for s. It panics if Hashes is not a power of two or Bands does
+// not divide it.
+func NewHasher(s Settings) *Hasher {
+	s = s.resolved()
+	r := rand.New(rand.NewPCG(s.Seed, 0x726f7574))
+	shift := uint(64)
+	for n := s.Hashes; n > 1; n >>= 1 {
+		shift--
+	}
+	return &Hasher{s: s, seed: r.Uint64(), shift: shift}
+}
+
+const empty = ^uint64(0)
+
+// Signature puts the signature of a narrative, given as its token hashes, into dst (grown as
+// needed) and returns it. An empty narrative gets an empty signature.
+func (h *Hasher) Signature(dst []uint64, tokens []uint64) []uint64 {
+	dst = dst[:0]
+	if len(tokens) == 0 {
+		return dst
+	}
+	for i := 0; i < h.s.Hashes; i++ {
+		dst = append(dst, empty)
+	}
+	k := h.s.Shingle
+	if k > len(tokens) {
+		k = len(tokens)
+	}
+	for i := 0; i+k <= len(tokens); i++ {
+		sh := h.seed
+		for _, t := range tokens[i : i+k] {
+			sh = mix(sh ^ t)
+		}
+		bin := 0
+		if h.shift < 64 {
+			bin = int(sh >> h.shift)
+		}
+		v := sh << (64 - h.shift) >> (64 - h.shift) // low bits order the shingles within a bin
+		if h.shift == 64 {
+			v = sh
+		}
+		if v < dst[bin] {
+			dst[bin] = v
+		}
+	}
+	return dst
+}
+
+// Groups returns, for each narrative, the index of the first narrative of its near-duplicate
+// group (itself when it has none); nil or empty signatures are never grouped. The result does
+// not depend on anything but the signatures and their order.
+func (h *Hasher) Groups(sigs [][]uint64) []int {
+	parent := make([]int, len(sigs))
+	for i := range parent {
+		parent[i] = i
+	}
+	var find func(int) int
+	find = func(i int) int {
+		for parent[i] != i {
+			parent[i] = parent[parent[i]]
+			i = parent[i]
+		}
+		return i
+	}
+	rows := h.s.Hashes / h.s.Bands
+	first := make(map[uint64]int, len(sigs))
+	for b := 0; b < h.s.Bands; b++ {
+		clear(first)
+	next:
+		for i, sig := range sigs {
+			if len(sig) != h.s.Hashes {
+				continue
+			}
+			key := uint64(b)
+			filled := false
+			for _, v := range sig[b*rows : (b+1)*rows] {
+				key = mix(key ^ v)
+				filled = filled || v != empty
+			}
+			if !filled {
+				continue next // an all-empty band says nothing
+			}
+			j, ok := first[key]
+			if !ok {
+				first[key] = i
+				continue
+			}
+			if find(i) == find(j) {
+				continue
+			}
+			if Similarity(sig, sigs[j]) >= h.s.Threshold {
+				ri, rj := find(i), find(j)
+				if ri < rj {
+					parent[rj] = ri
+				} else if rj < ri {
+					parent[ri] = rj
+				}
+			}
+		}
+	}
+	out := make([]int, len(sigs))
+	for i := range out {
+		out[i] = find(i)
+	}
+	return out
+}
+
+// Similarity is the share of equal entries among the bins not empty in both signatures
+// (0 when the lengths differ or no bin is filled).
+func Similarity(a, b []uint64) float64 {
+	if len(a) != len(b) || len(a) == 0 {
+		return 0
+	}
+	eq, n := 0, 0
+	for i := range a {
+		if a[i] == empty && b[i] == empty {
+			continue
+		}
+		n++
+		if a[i] == b[i] {
+			eq++
+		}
+	}
+	if n == 0 {
+		return 0
+	}
+	return float64(eq) / float64(n)
+}

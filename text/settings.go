@@ -1,0 +1,186 @@
+package text
+
+import (
+	"fmt"
+
+	"undercurrent/text/phrase"
+	"undercurrent/text/routine"
+	"undercurrent/text/weight"
+)
+
+// Policy says what happens to tokens of a non-word kind.
+type Policy string
+
+const (
+	Drop        Policy = "drop"        // the token is removed (the zero value "" means Drop too)
+	Keep        Policy = "keep"        // the token is kept as written, protected
+	Placeholder Policy = "placeholder" // the token becomes "_number_", "_time_", "_date_" or "_code_", protected
+)
+
+// SettingsVersion is the version written into Settings by DefaultSettings.
+const SettingsVersion = 1
+
+// Settings hold every choice the text pipeline makes. One value is saved with every model
+// (it is JSON-serialisable), so that tagging new narratives later repeats exactly the same
+// processing. Zero values are documented on each field; DefaultSettings gives the values we
+// recommend.
+type Settings struct {
+	Version int             `json:"version"` // SettingsVersion; zero is read as 1
+	Tokens  TokenSettings   `json:"tokens"`
+	Abbrev  AbbrevSettings  `json:"abbreviations"`
+	Stop    StopSettings    `json:"stopwords"`
+	Stem    StemSettings    `json:"stemming"`
+	Repair  RepairSettings  `json:"repair"`
+	Phrases PhraseSettings  `json:"phrases"`
+	Vocab   weight.Pruning  `json:"vocabulary"`
+	Weight  weight.Scheme   `json:"weighting"`
+	Routine RoutineSettings `json:"routine"`
+}
+
+// TokenSettings are the token policies.
+type TokenSettings struct {
+	Numbers Policy `json:"numbers"` // zero: Drop
+	Times   Policy `json:"times"`   // zero: Drop
+	Dates   Policy `json:"dates"`   // zero: Drop
+	Codes   Policy `json:"codes"`   // zero: Drop (DefaultSettings keeps them: "10-50" means something)
+	// MinLength drops unprotected words shorter than this many characters (after abbreviation
+	// expansion); zero keeps all.
+	MinLength int `json:"min_length"`
+	// KeepPossessive keeps a trailing "'s"; zero (false) strips it ("driver's" → "driver").
+	KeepPossessive bool `json:"keep_possessive"`
+}
+
+// AbbrevSettings choose the abbreviation table.
+type AbbrevSettings struct {
+	// NoShipped leaves out the shipped table; zero (false) uses it.
+	NoShipped bool `json:"no_shipped"`
+	// User entries add to or override the shipped table; an empty expansion removes an entry.
+	// Read them with ParseAbbrev. Nil: none.
+	User map[string]string `json:"user,omitempty"`
+}
+
+// StopSettings choose the stopwords.
+type StopSettings struct {
+	// Lists are names for stopwords.Named ("en", "boilerplate"); nil: no embedded list.
+	Lists []string `json:"lists"`
+	// User words are added (read a file with stopwords.Set.Load); nil: none.
+	User []string `json:"user,omitempty"`
+	// Keep words are never stopped, even when a list holds them; nil: none.
+	Keep []string `json:"keep,omitempty"`
+}
+
+// StemSettings choose stemming.
+type StemSettings struct {
+	Off bool `json:"off"` // zero (false): Snowball English stemming is on
+}
+
+// RepairSettings choose OCR-noise repair (package repair). Zero numeric values mean the
+// defaults given.
+type RepairSettings struct {
+	Enabled bool `json:"enabled"` // zero (false): no repair
+	// RareMax: only words seen at most this many times in the corpus are repaired; zero means 2.
+	RareMax int `json:"rare_max"`
+	// FrequentMin: targets (and rejoined split words) must be seen at least this many times;
+	// zero means 10.
+	FrequentMin int `json:"frequent_min"`
+	// MaxCost is the largest weighted distance accepted for words longer than ShortLen
+	// characters; zero means 1. At most 1 is useful (package repair finds no candidate
+	// further away).
+	MaxCost float64 `json:"max_cost"`
+	// ShortMaxCost is the limit for words of at most ShortLen characters; zero means 0.5 (one
+	// OCR confusion), since a short word one plain edit from a frequent word is often a word.
+	ShortMaxCost float64 `json:"short_max_cost"`
+	ShortLen     int     `json:"short_len"` // zero means 8
+	// MinLength: shorter words are never repaired; zero means 5.
+	MinLength int `json:"min_length"`
+	// Words are extra correct words: targets of repair and never repaired themselves.
+	Words []string `json:"words,omitempty"`
+	// NoJoin switches off rejoining split words ("veh icle" → "vehicle"); zero: on.
+	NoJoin bool `json:"no_join"`
+}
+
+// PhraseSettings choose collocation detection.
+type PhraseSettings struct {
+	Enabled bool `json:"enabled"` // zero (false): no phrases
+	phrase.Settings
+}
+
+// RoutineSettings say which narratives are set aside as routine.
+type RoutineSettings struct {
+	// MaxContent: a narrative with at most this many content tokens (after stopwords) is
+	// routine; zero: this rule is off.
+	MaxContent int `json:"max_content"`
+	// Words are routine words (as written, e.g. "gone", "arrival"); a narrative whose content
+	// tokens are all routine words is routine. Nil: this rule is off.
+	Words []string `json:"words,omitempty"`
+	// NearDup sets aside groups of at least MinGroup exact or near-duplicate narratives.
+	NearDup  bool `json:"near_dup"`
+	MinGroup int  `json:"min_group"` // zero means 3
+	routine.Settings
+}
+
+// DefaultSettings returns the recommended settings.
+func DefaultSettings() Settings {
+	return Settings{
+		Version: SettingsVersion,
+		Tokens:  TokenSettings{Numbers: Drop, Times: Drop, Dates: Drop, Codes: Keep, MinLength: 2},
+		Stop:    StopSettings{Lists: []string{"en", "boilerplate"}},
+		Repair:  RepairSettings{Enabled: true, RareMax: 2, FrequentMin: 10, MaxCost: 1, ShortMaxCost: 0.5, ShortLen: 8, MinLength: 5},
+		Phrases: PhraseSettings{Enabled: true, Settings: phrase.Settings{MinCount: 5, MinLLR: 10.83}},
+		Vocab:   weight.Pruning{MinDocs: 2, MaxDocShare: 0.95},
+		Weight:  weight.Scheme{TF: weight.TFRaw, IDF: weight.IDFSmooth, Norm: weight.NormL2},
+		Routine: RoutineSettings{
+			MaxContent: 3,
+			Words:      []string{"gone", "arrival", "unable", "locate", "no", "action", "cleared", "clear", "cancelled", "canceled", "negative", "contact", "duplicate", "test"},
+			NearDup:    true,
+			MinGroup:   3,
+			Settings:   routine.Settings{Shingle: 3, Hashes: 64, Bands: 16, Threshold: 0.8, Seed: 1},
+		},
+	}
+}
+
+// Validate reports settings that cannot be used.
+func (s Settings) Validate() error {
+	if s.Version > SettingsVersion {
+		return fmt.Errorf("text: settings version %d is newer than this program (%d)", s.Version, SettingsVersion)
+	}
+	for _, p := range []Policy{s.Tokens.Numbers, s.Tokens.Times, s.Tokens.Dates, s.Tokens.Codes} {
+		switch p {
+		case "", Drop, Keep, Placeholder:
+		default:
+			return fmt.Errorf("text: unknown token policy %q (use drop, keep or placeholder)", p)
+		}
+	}
+	if err := s.Weight.Validate(); err != nil {
+		return err
+	}
+	r := s.Routine.Settings
+	h, b := r.Hashes, r.Bands
+	if h == 0 {
+		h = 64
+	}
+	if b == 0 {
+		b = 16
+	}
+	if h%b != 0 {
+		return fmt.Errorf("text: routine bands (%d) must divide hashes (%d)", b, h)
+	}
+	if s.Vocab.MaxDocShare < 0 || s.Vocab.MaxDocShare > 1 {
+		return fmt.Errorf("text: vocabulary max_doc_share %v outside [0,1]", s.Vocab.MaxDocShare)
+	}
+	return nil
+}
+
+func orInt(v, d int) int {
+	if v <= 0 {
+		return d
+	}
+	return v
+}
+
+func orFloat(v, d float64) float64 {
+	if v <= 0 {
+		return d
+	}
+	return v
+}
