@@ -84,6 +84,10 @@ def main():
         # Euclidean vectors (scipy computes pdist itself).
         x = rng.random((50, 4))
         cases.append(case("vectors-50x4", m, x=x))
+    # Dirichlet rows with d = 20 (the shape of document-theme vectors).
+    x = rng.dirichlet(np.ones(20), size=200)
+    for m in ["ward", "centroid", "median"]:
+        cases.append(case("dirichlet-200x20", m, x=x))
     # Heights equal up to 1e-9: points on a grid with a tiny jitter.
     g = np.array([[i, j] for i in range(5) for j in range(4)], dtype=float)
     g += rng.random(g.shape) * 1e-9
