@@ -93,8 +93,22 @@ def main():
     g += rng.random(g.shape) * 1e-9
     for m in METHODS:
         cases.append(case("grid-jitter-20", m, x=g))
+    # Probability rows (with exact zeros) for the theme-distance helpers:
+    # scipy.spatial.distance.jensenshannon (natural log) and the Hellinger
+    # distance as the Euclidean distance of square roots over sqrt(2).
+    p = rng.dirichlet(np.full(12, 0.3), size=9)
+    p[p < 0.02] = 0.0
+    p /= p.sum(axis=1, keepdims=True)
+    prob = {
+        "rows": [[float(v) for v in r] for r in p],
+        "jensenshannon": [float(v) for v in pdist(p, "jensenshannon")],
+        "hellinger": [float(v) for v in pdist(np.sqrt(p)) / np.sqrt(2)],
+        "average_js_z": [[int(r[0]), int(r[1]), float(r[2]), int(r[3])]
+                         for r in h.linkage(pdist(p, "jensenshannon"), "average")],
+    }
     json.dump({"source": "scipy.cluster.hierarchy %s (Debian python3-scipy), numpy %s"
-               % (scipy.__version__, np.__version__), "cases": cases}, sys.stdout, indent=None)
+               % (scipy.__version__, np.__version__), "cases": cases, "prob": prob},
+              sys.stdout, indent=None)
     sys.stdout.write("\n")
 
 
