@@ -143,5 +143,5 @@ func BenchmarkSummary100k(b *testing.B) {
 }
 
 // BenchmarkWardSmall etc.: quick sizes for regressions.
-func BenchmarkWardSmall(b *testing.B) { benchmarkLink(b, 2000, Ward) }
+func BenchmarkWardSmall(b *testing.B)    { benchmarkLink(b, 2000, Ward) }
 func BenchmarkAverageSmall(b *testing.B) { benchmarkLink(b, 2000, Average) }
