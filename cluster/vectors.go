@@ -3,6 +3,7 @@ package cluster
 import (
 	"fmt"
 	"math"
+	"math/bits"
 	"sync"
 )
 
@@ -441,36 +442,65 @@ func scanWard(cent, w []float64, key []int, cx []float64, wx float64, d, head, p
 		return b
 	}
 	lim := b.v * (1 + 1e-12)
-	for p := lo; p < hi; p++ {
-		c := cent[p*d:][:d:d]
-		t0, t1, t2, t3 := cx[0]-c[0], cx[1]-c[1], cx[2]-c[2], cx[3]-c[3]
-		t4, t5, t6, t7 := cx[4]-c[4], cx[5]-c[5], cx[6]-c[6], cx[7]-c[7]
-		s := (float64(t0*t0) + float64(t4*t4) + (float64(t1*t1) + float64(t5*t5))) +
-			(float64(t2*t2) + float64(t6*t6) + (float64(t3*t3) + float64(t7*t7)))
-		wp := w[p]
-		if float64(ww*wp)*s > lim*(wx+wp) || p == px {
-			continue
-		}
-		s += sqdist(cx[8:], c[8:])
-		v := ww * wp / (wx + wp) * s
-		if v > b.v {
-			continue
-		}
-		if cc := (cand{v: v, prev: key[p] == prevKey, key: key[p], pos: p}); cc.less(b) {
-			b = cc
-			lim = b.v * (1 + 1e-12)
+	q := (*[8]float64)(cx[:8])
+	var buf [256]float64
+	var mask [4]uint64
+	for blk := lo; blk < hi; blk += len(buf) {
+		end := min(hi, blk+len(buf))
+		part := buf[:end-blk]
+		ward8(q, cent[blk*d:], d, w[blk:], part, mask[:], ww, lim, lim*wx)
+		for mi, mw := range mask[:(len(part)+63)/64] {
+			for mw != 0 {
+				k := mi*64 + bits.TrailingZeros64(mw)
+				mw &= mw - 1
+				p := blk + k
+				if p == px {
+					continue
+				}
+				wp := w[p]
+				s := part[k] + sqdist(cx[8:], cent[p*d+8:p*d+d])
+				v := ww * wp / (wx + wp) * s
+				if v > b.v {
+					continue
+				}
+				if cc := (cand{v: v, prev: key[p] == prevKey, key: key[p], pos: p}); cc.less(b) {
+					b = cc
+					lim = b.v * (1 + 1e-12)
+				}
+			}
 		}
 	}
 	return b
 }
 
-// sumHead8 is the partial sum of scanWard, kept in one place with the
-// same operation order.
-func sumHead8(cx, c []float64) float64 {
-	t0, t1, t2, t3 := cx[0]-c[0], cx[1]-c[1], cx[2]-c[2], cx[3]-c[3]
-	t4, t5, t6, t7 := cx[4]-c[4], cx[5]-c[5], cx[6]-c[6], cx[7]-c[7]
-	return (float64(t0*t0) + float64(t4*t4) + (float64(t1*t1) + float64(t5*t5))) +
-		(float64(t2*t2) + float64(t6*t6) + (float64(t3*t3) + float64(t7*t7)))
+// sumHead8 is the partial sum of scanWard over the first eight
+// coordinates, in the order the AVX2 kernel adds its lanes:
+//
+//	((t0²+t4²) + (t2²+t6²)) + ((t1²+t5²) + (t3²+t7²)),  t_j = a_j − b_j
+func sumHead8(a, b []float64) float64 {
+	t0, t1, t2, t3 := a[0]-b[0], a[1]-b[1], a[2]-b[2], a[3]-b[3]
+	t4, t5, t6, t7 := a[4]-b[4], a[5]-b[5], a[6]-b[6], a[7]-b[7]
+	return (float64(float64(t0*t0)+float64(t4*t4)) + float64(float64(t2*t2)+float64(t6*t6))) +
+		(float64(float64(t1*t1)+float64(t5*t5)) + float64(float64(t3*t3)+float64(t7*t7)))
+}
+
+// ward8Go is the portable ward8.
+func ward8Go(x *[8]float64, c []float64, d int, w []float64, out []float64, mask []uint64, ww, lim, limwx float64) {
+	clear(mask[:(len(out)+63)/64])
+	for k := range out {
+		s := sumHead8(x[:], c[k*d:k*d+8])
+		out[k] = s
+		if w[k]*(s*ww-lim) <= limwx {
+			mask[k/64] |= 1 << (k % 64)
+		}
+	}
+}
+
+// partial8Go is the portable partial8.
+func partial8Go(x *[8]float64, c []float64, d int, out []float64) {
+	for k := range out {
+		out[k] = sumHead8(x[:], c[k*d:k*d+8])
+	}
 }
 
 // wardValue is the squared Ward distance between centroids a and b with
