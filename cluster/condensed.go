@@ -1,6 +1,9 @@
 package cluster
 
-import "math"
+import (
+	"math"
+	"slices"
+)
 
 // mstSingle is Müllner's MST algorithm (Prim): grow one tree from point 0,
 // keeping for every point outside it the smallest distance to the tree.
@@ -35,50 +38,66 @@ func mstSingle(dist []float64, n int) *Dendrogram {
 	return &Dendrogram{N: n, Merges: z}
 }
 
+// minParallel is the least number of active clusters per worker for the
+// NN chain on a matrix to split a scan (a variable so tests can lower it).
+var minParallel = 8192
+
 // nnChainCondensed is the nearest-neighbour-chain algorithm (Müllner 2011,
 // fig. 5) for the reducible methods on a working copy of dist. The chain
 // starts at the lowest active index; a nearest neighbour is the lowest
 // index at the smallest distance, except that the previous chain element
 // is kept on a tie (which guarantees termination). The merged cluster
-// takes the slot of the larger index.
-func nnChainCondensed(dist []float64, n int, m Linkage) *Dendrogram {
+// takes the slot of the larger index. Scans and updates run over the
+// sorted list of active slots, split over workers; the minimum under the
+// total order (distance, not-previous, index) does not depend on the
+// split.
+func nnChainCondensed(dist []float64, n int, m Linkage, workers int) *Dendrogram {
 	d := make([]float64, len(dist))
 	copy(d, dist)
 	z := make([]Merge, n-1)
 	size := make([]float64, n)
+	act := make([]int, n)
 	for i := range size {
 		size[i] = 1
+		act[i] = i
 	}
 	chain := make([]int, 0, n)
+	best := make([]cand, max(1, workers))
 	for k := 0; k < n-1; k++ {
 		if len(chain) == 0 {
-			for i := 0; i < n; i++ {
-				if size[i] > 0 {
-					chain = append(chain, i)
-					break
-				}
-			}
+			chain = append(chain, act[0])
 		}
 		var x, y int
 		var cur float64
 		for {
 			x = chain[len(chain)-1]
+			prev := -1
+			b0 := cand{v: math.Inf(1), key: -1}
 			if len(chain) > 1 {
-				y = chain[len(chain)-2]
-				cur = d[cidx(n, x, y)]
-			} else {
-				cur = math.Inf(1)
+				prev = chain[len(chain)-2]
+				b0 = cand{v: d[cidx(n, x, prev)], prev: true, key: prev}
 			}
-			for i := 0; i < n; i++ {
-				if size[i] == 0 || i == x {
-					continue
+			used := parallelRanges(len(act), workers, minParallel, func(w, lo, hi int) {
+				b := b0
+				for _, i := range act[lo:hi] {
+					if i == x {
+						continue
+					}
+					v := d[cidx(n, x, i)]
+					if v < b.v || (v == b.v && !b.prev && i < b.key) {
+						b = cand{v: v, prev: i == prev, key: i}
+					}
 				}
-				if v := d[cidx(n, x, i)]; v < cur {
-					cur = v
-					y = i
+				best[w] = b
+			})
+			r := best[0]
+			for w := 1; w < used; w++ {
+				if best[w].less(r) {
+					r = best[w]
 				}
 			}
-			if len(chain) > 1 && y == chain[len(chain)-2] {
+			y, cur = r.key, r.v
+			if prev >= 0 && y == prev {
 				break
 			}
 			chain = append(chain, y)
@@ -91,14 +110,17 @@ func nnChainCondensed(dist []float64, n int, m Linkage) *Dendrogram {
 		z[k] = Merge{A: x, B: y, Height: cur}
 		size[x] = 0
 		size[y] = nx + ny
-		for i := 0; i < n; i++ {
-			ni := size[i]
-			if ni == 0 || i == y {
-				continue
+		ax, _ := slices.BinarySearch(act, x)
+		act = slices.Delete(act, ax, ax+1)
+		parallelRanges(len(act), workers, minParallel, func(_, lo, hi int) {
+			for _, i := range act[lo:hi] {
+				if i == y {
+					continue
+				}
+				iy := cidx(n, i, y)
+				d[iy] = update(m, d[cidx(n, i, x)], d[iy], cur, nx, ny, size[i])
 			}
-			iy := cidx(n, i, y)
-			d[iy] = update(m, d[cidx(n, i, x)], d[iy], cur, nx, ny, ni)
-		}
+		})
 	}
 	sortAndLabel(z, n)
 	return &Dendrogram{N: n, Merges: z}

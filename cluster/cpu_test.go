@@ -62,3 +62,30 @@ func TestKernels(t *testing.T) {
 		}
 	}
 }
+
+func TestSqdistKernel(t *testing.T) {
+	x := dirichletRows(50, 37, 8)
+	for n := 0; n <= 37; n++ {
+		for i := 1; i < 50; i++ {
+			a, b := x[0][:n], x[i][:n]
+			if g, w := sqdist(a, b), sqdistGo(a, b); g != w {
+				t.Fatalf("n=%d: %v vs %v", n, g, w)
+			}
+		}
+	}
+}
+
+func TestCPUAverage(t *testing.T) {
+	if os.Getenv("UC_CPU") == "" {
+		t.Skip()
+	}
+	x := dirichletRows(5000, 20, benchSeed)
+	c0 := cpuTime()
+	w0 := time.Now()
+	d := EuclideanCondensed(nil, x, &Settings{Workers: 1})
+	fmt.Println("pdist cpu", cpuTime()-c0, "wall", time.Since(w0))
+	c0 = cpuTime()
+	w0 = time.Now()
+	Link(d, Average, &Settings{Workers: 1})
+	fmt.Println("link cpu", cpuTime()-c0, "wall", time.Since(w0))
+}

@@ -122,7 +122,7 @@ func TightGroups(x [][]float64, eps float64, minSize int, s *Settings) ([]Group,
 			sub[k] = x[i]
 		}
 		dist := EuclideanCondensed(nil, sub, s)
-		t, err := Link(dist, Complete)
+		t, err := Link(dist, Complete, s)
 		if err != nil {
 			return nil, err
 		}

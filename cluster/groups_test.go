@@ -53,7 +53,7 @@ func TestTightGroups(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		full, _ := Link(EuclideanCondensed(nil, x, nil), Complete)
+		full, _ := Link(EuclideanCondensed(nil, x, nil), Complete, nil)
 		ref := groupsAt(full, eps, 2)
 		var refRows [][]int
 		for _, g := range ref {

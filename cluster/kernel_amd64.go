@@ -51,3 +51,16 @@ func ward8(x *[8]float64, c []float64, d int, w []float64, out []float64, mask [
 	}
 	ward8Go(x, c, d, w, out, mask, ww, lim, limwx)
 }
+
+//go:noescape
+func sqdistAVX2(a, b *float64, n int) float64
+
+// sqdist returns ‖a−b‖² for len(a) == len(b), summed in four lanes (see
+// sqdistGo); the AVX2 path gives the same bits.
+func sqdist(a, b []float64) float64 {
+	if haveAVX2 && len(a) >= 8 {
+		b = b[:len(a)]
+		return sqdistAVX2(&a[0], &b[0], len(a))
+	}
+	return sqdistGo(a, b)
+}

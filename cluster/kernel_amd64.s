@@ -104,3 +104,49 @@ wdone:
 wret:
 	VZEROUPPER
 	RET
+
+// func sqdistAVX2(a, b *float64, n int) float64
+// Four lanes s0..s3 accumulate (a_k − b_k)² for k ≡ lane (mod 4); the
+// n%4 tail goes into s0; the result is (s0+s1)+(s2+s3), as sqdist.
+TEXT ·sqdistAVX2(SB), NOSPLIT, $0-32
+	MOVQ a+0(FP), SI
+	MOVQ b+8(FP), DI
+	MOVQ n+16(FP), CX
+	VXORPD Y0, Y0, Y0
+
+sloop:
+	CMPQ CX, $4
+	JLT  stail
+	VMOVUPD (SI), Y1
+	VMOVUPD (DI), Y2
+	VSUBPD  Y2, Y1, Y1
+	VMULPD  Y1, Y1, Y1
+	VADDPD  Y1, Y0, Y0
+	ADDQ    $32, SI
+	ADDQ    $32, DI
+	SUBQ    $4, CX
+	JMP     sloop
+
+stail:
+	TESTQ CX, CX
+	JZ    sdone
+	VMOVSD (SI), X1
+	VSUBSD (DI), X1, X1
+	VMULSD X1, X1, X1
+	VADDSD X1, X0, X3          // s0 + t² (upper lanes of X3 from X0)
+	VBLENDPD $1, Y3, Y0, Y0    // put the new s0 into lane 0
+	ADDQ   $8, SI
+	ADDQ   $8, DI
+	DECQ   CX
+	JMP    stail
+
+sdone:
+	VEXTRACTF128 $1, Y0, X1    // (s2, s3)
+	VPERMILPD $1, X0, X2       // s1
+	VADDSD X2, X0, X2          // s0+s1
+	VPERMILPD $1, X1, X3       // s3
+	VADDSD X3, X1, X3          // s2+s3
+	VADDSD X3, X2, X0
+	VZEROUPPER
+	MOVSD X0, ret+24(FP)
+	RET

@@ -206,7 +206,7 @@ func checkCondensed(dist []float64) (int, error) {
 // the previous chain element; the merge list of the MST and NN-chain
 // algorithms is stably sorted by height and relabelled), so results equal
 // scipy's Z matrix whenever the floating-point values agree, ties included.
-func Link(dist []float64, method Linkage) (*Dendrogram, error) {
+func Link(dist []float64, method Linkage, s *Settings) (*Dendrogram, error) {
 	method.check()
 	n, err := checkCondensed(dist)
 	if err != nil {
@@ -221,7 +221,7 @@ func Link(dist []float64, method Linkage) (*Dendrogram, error) {
 	case Centroid, Median:
 		return genericCondensed(dist, n, method), nil
 	default:
-		return nnChainCondensed(dist, n, method), nil
+		return nnChainCondensed(dist, n, method, s.workers()), nil
 	}
 }
 

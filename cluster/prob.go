@@ -115,7 +115,7 @@ func NewThemeTree(phi [][]float64, dist func(p, q []float64) float64, s *Setting
 		return nil, err
 	}
 	d := PairwiseCondensed(nil, phi, dist, s)
-	t, err := Link(d, Average)
+	t, err := Link(d, Average, s)
 	if err != nil {
 		return nil, err
 	}

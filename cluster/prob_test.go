@@ -97,15 +97,15 @@ func TestThemeTree(t *testing.T) {
 
 // TestBadInput: data problems are errors naming the position, never panics.
 func TestBadInput(t *testing.T) {
-	if _, err := Link([]float64{1, 2}, Single); err == nil {
+	if _, err := Link([]float64{1, 2}, Single, nil); err == nil {
 		t.Error("length 2 accepted")
 	}
 	var de *DistanceError
-	_, err := Link([]float64{1, math.NaN(), 3}, Average)
+	_, err := Link([]float64{1, math.NaN(), 3}, Average, nil)
 	if !errors.As(err, &de) || de.I != 0 || de.J != 2 || !errors.Is(err, ErrDistance) {
 		t.Errorf("NaN distance: %v", err)
 	}
-	_, err = Link([]float64{1, 2, -3}, Ward)
+	_, err = Link([]float64{1, 2, -3}, Ward, nil)
 	if !errors.As(err, &de) || de.I != 1 || de.J != 2 {
 		t.Errorf("negative distance: %v", err)
 	}
@@ -122,7 +122,7 @@ func TestBadInput(t *testing.T) {
 		name string
 		f    func()
 	}{
-		{"invalid linkage", func() { Link([]float64{1}, 0) }},
+		{"invalid linkage", func() { Link([]float64{1}, 0, nil) }},
 		{"ragged rows", func() { LinkVectors([][]float64{{1}, {1, 2}}, nil, Ward, nil) }},
 		{"weights length", func() { LinkVectors([][]float64{{1}, {2}}, []float64{1}, Ward, nil) }},
 		{"k < 1", func() { (&Dendrogram{N: 1}).CutCount(nil, 0) }},
@@ -138,7 +138,7 @@ func TestBadInput(t *testing.T) {
 			t.Errorf("n=%d: %v %v", n, d, err)
 		}
 	}
-	if d, err := Link(nil, Single); err != nil || d.N != 1 {
+	if d, err := Link(nil, Single, nil); err != nil || d.N != 1 {
 		t.Errorf("empty condensed matrix: %v %v, want one leaf", d, err)
 	}
 }

@@ -132,12 +132,19 @@ func partitionsAfterEachMerge(n int, z [][2]int) [][]int {
 // testdata/gen_scipy.py) for every method on random distances, integer
 // distances with many ties, and near-ties (grid points jittered by 1e-9).
 // The Z matrix must be identical: same pairs and sizes, heights to 1e-12.
+//
+// It runs with 1 and 3 workers and the parallel threshold lowered so that
+// the split scans are exercised on these small inputs.
 func TestLinkCondensedScipy(t *testing.T) {
+	defer func(v int) { minParallel = v }(minParallel)
+	minParallel = 4
 	for _, c := range loadScipy(t) {
-		got, err := Link(c.condensed(), c.linkage(t))
-		if err != nil {
-			t.Fatalf("%s/%s: %v", c.Name, c.Method, err)
+		for _, w := range []int{1, 3} {
+			got, err := Link(c.condensed(), c.linkage(t), &Settings{Workers: w})
+			if err != nil {
+				t.Fatalf("%s/%s: %v", c.Name, c.Method, err)
+			}
+			sameMerges(t, c.Name+"/"+c.Method, got, c.Z, 0)
 		}
-		sameMerges(t, c.Name+"/"+c.Method, got, c.Z, 1e-12)
 	}
 }

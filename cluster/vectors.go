@@ -97,7 +97,7 @@ func LinkVectors(x [][]float64, weights []float64, method Linkage, s *Settings) 
 	if weights != nil {
 		panic("cluster: weights need Ward, Centroid or Median linkage")
 	}
-	return Link(EuclideanCondensed(nil, x, s), method)
+	return Link(EuclideanCondensed(nil, x, s), method, s)
 }
 
 // EuclideanCondensed stores the Euclidean distances between the rows of x
@@ -184,8 +184,10 @@ func parallelRanges(m, w, minPer int, f func(k, lo, hi int)) int {
 	return w
 }
 
-// sqdist returns ‖a−b‖² for len(a) == len(b) summed in four lanes.
-func sqdist(a, b []float64) float64 {
+// sqdistGo returns ‖a−b‖² for len(a) == len(b) summed in four lanes
+// s0..s3 (coordinate k goes to lane k%4, the tail beyond a multiple of
+// four to s0) and then (s0+s1)+(s2+s3).
+func sqdistGo(a, b []float64) float64 {
 	var s0, s1, s2, s3 float64
 	k := 0
 	for ; k+4 <= len(a); k += 4 {

@@ -31,7 +31,7 @@ func TestWikipediaExamples(t *testing.T) {
 		{Weighted, []float64{17, 22, 28, 35}, "Wikipedia, WPGMA (×2: 8.5, 11, 14, 17.5)"},
 	}
 	for _, tt := range tests {
-		got, err := Link(wiki5, tt.method)
+		got, err := Link(wiki5, tt.method, nil)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -43,8 +43,8 @@ func TestWikipediaExamples(t *testing.T) {
 	}
 	// The UPGMA and WPGMA trees have the same topology here but different
 	// roots: the example shows the two methods differ.
-	a, _ := Link(wiki5, Average)
-	w, _ := Link(wiki5, Weighted)
+	a, _ := Link(wiki5, Average, nil)
+	w, _ := Link(wiki5, Weighted, nil)
 	if a.Merges[3].Height/2 != 16.5 || w.Merges[3].Height/2 != 17.5 {
 		t.Errorf("UPGMA/WPGMA roots %v/%v, want 16.5/17.5 (half distances)", a.Merges[3].Height/2, w.Merges[3].Height/2)
 	}
