@@ -30,19 +30,22 @@
 // UPGMA/WPGMA articles' half-height "branch lengths" are Height/2); Ward
 // heights are sqrt(2·ΔSSE) as in scipy.
 //
-// Ties are broken deterministically, step by step as scipy 1.10 does (scans
-// in increasing index with strict comparisons, so the lowest index wins;
-// the NN chain keeps the previous chain element on a tie; MST and NN-chain
-// merge lists are stably sorted by height and relabelled). On a condensed
-// matrix the result therefore equals scipy's Z exactly, ties included (the
-// tests check this on integer-valued distances). On vectors, Ward's
-// centroid distances differ from the Lance–Williams values in the last
-// bits, so among merges whose heights agree to ~1e-15 the order may differ
-// from scipy; with exact ties the partition after each merge can then
-// differ while the partition at every distinct height is the same where the
-// tree is unique. What the tests check: identical Z on condensed input,
-// identical pairs and sizes (heights to 1e-9) on vectors, including a grid
-// whose heights differ only by 1e-9.
+// Ties are broken deterministically, step by step as scipy 1.10 does: scans
+// run in increasing index with strict comparisons, so the lowest index
+// wins; the NN chain starts at the lowest active index and keeps the
+// previous chain element on a tie; the merged cluster takes the slot of the
+// larger index; the merge lists of the MST and NN-chain algorithms are
+// stably sorted by height and relabelled; the generic algorithm's heap
+// resolves equal keys as a plain binary heap does. On a condensed matrix
+// the result therefore equals scipy's Z exactly, ties included (tested on
+// integer-valued distances). LinkVectors applies the same rules to
+// distances computed from centroids, which differ from scipy's
+// Lance–Williams values in the last bits; merges whose heights agree to
+// about 1e-15 may then be taken in another order, and with exact ties the
+// tree can differ where scipy's choice itself hinges on rounding. What the
+// tests check on vectors: identical pairs and sizes, heights to 1e-9,
+// including a grid whose heights differ only by a 1e-9 jitter, and the
+// same partition at every level.
 //
 // # Reading a tree
 //

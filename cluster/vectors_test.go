@@ -117,3 +117,28 @@ func TestDeterministicWorkers(t *testing.T) {
 		}
 	}
 }
+
+// TestLinkVectorsTiesPartitions: on an integer grid (exact ties) the
+// vector algorithms give the same partition as scipy's linkage at every
+// distinct merge height (fixture grid-exact-12, Debian python3-scipy
+// 1.10.1). For the monotone methods every level is compared.
+func TestLinkVectorsTiesPartitions(t *testing.T) {
+	for _, c := range loadScipy(t) {
+		if c.Name != "grid-exact-12" {
+			continue
+		}
+		m := c.linkage(t)
+		got, err := LinkVectors(c.Vectors, nil, m, nil)
+		if err != nil {
+			t.Fatal(err)
+		}
+		ref := scipyTree(c)
+		for _, r := range c.Z {
+			h := r[2]
+			a, b := got.CutHeight(nil, h), ref.CutHeight(nil, h)
+			if !reflect.DeepEqual(a, b) {
+				t.Errorf("%v: partition at height %v: %v, scipy %v", m, h, a, b)
+			}
+		}
+	}
+}

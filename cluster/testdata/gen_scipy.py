@@ -93,6 +93,10 @@ def main():
     g += rng.random(g.shape) * 1e-9
     for m in METHODS:
         cases.append(case("grid-jitter-20", m, x=g))
+    # Exact ties on vectors: an integer grid without jitter.
+    g = np.array([[i, j] for i in range(4) for j in range(3)], dtype=float)
+    for m in METHODS:
+        cases.append(case("grid-exact-12", m, x=g))
     # Probability rows (with exact zeros) for the theme-distance helpers:
     # scipy.spatial.distance.jensenshannon (natural log) and the Hellinger
     # distance as the Euclidean distance of square roots over sqrt(2).
