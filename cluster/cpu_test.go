@@ -89,3 +89,18 @@ func TestCPUAverage(t *testing.T) {
 	Link(d, Average, &Settings{Workers: 1})
 	fmt.Println("link cpu", cpuTime()-c0, "wall", time.Since(w0))
 }
+
+func TestCPUSummary(t *testing.T) {
+	if os.Getenv("UC_CPU") == "" {
+		t.Skip()
+	}
+	x := dirichletRows(20000, 20, benchSeed)
+	flat, w, d, _ := flatten(x, nil)
+	c0 := cpuTime()
+	cent := seedPlusPlus(flat, w, len(x), d, 1000, 1, 1)
+	fmt.Println("seed cpu", cpuTime()-c0)
+	c0 = cpuTime()
+	assign := make([]int, len(x))
+	lloyd(flat, w, len(x), d, 1000, cent, assign, 10, 1)
+	fmt.Println("lloyd cpu", cpuTime()-c0)
+}

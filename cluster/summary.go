@@ -256,30 +256,65 @@ func seedPlusPlus(x, w []float64, n, d, k int, seed uint64, workers int) []float
 // lloyd alternates nearest-centre assignment (parallel over rows; ties to
 // the lowest centre) and weighted centroid updates (sequential in row
 // order) until no row moves or iters is reached. A centre that loses all
-// its rows keeps its position.
+// its rows keeps its position. Assignment skips rows whose centre cannot
+// have changed by Hamerly's bounds (Hamerly 2010, "Making k-means even
+// faster", SIAM SDM): an upper bound u on the distance to the assigned
+// centre and a lower bound l on the distance to any other; a row is
+// rescanned only when u > max(l, s/2), s being the distance from its
+// centre to the nearest other centre. Every decision depends on the row's
+// own numbers only, so the result does not depend on the workers.
 func lloyd(x, w []float64, n, d, k int, cent []float64, assign []int, iters, workers int) {
 	for i := range assign {
 		assign[i] = -1
 	}
 	sums := make([]float64, k*d)
 	cw := make([]float64, k)
+	up := make([]float64, n)
+	lo := make([]float64, n)
+	half := make([]float64, k)
+	old := make([]float64, k*d)
+	delta := make([]float64, k)
 	for it := 0; it < iters; it++ {
+		// Half the distance from each centre to its nearest other centre.
+		parallelRanges(k, workers, 16, func(_, a, b int) {
+			for j := a; j < b; j++ {
+				best := math.Inf(1)
+				for q := 0; q < k; q++ {
+					if q != j {
+						best = min(best, sqdist(cent[j*d:j*d+d], cent[q*d:q*d+d]))
+					}
+				}
+				half[j] = math.Sqrt(best) / 2
+			}
+		})
 		moved := make([]int, (n+chunk-1)/chunk)
-		parallelRanges(len(moved), workers, 1, func(_, lo, hi int) {
-			for c := lo; c < hi; c++ {
+		parallelRanges(len(moved), workers, 1, func(_, clo, chi int) {
+			for c := clo; c < chi; c++ {
 				for i := c * chunk; i < min(n, (c+1)*chunk); i++ {
 					xi := x[i*d : i*d+d]
-					best, bv := 0, math.Inf(1)
-					if a := assign[i]; a >= 0 {
-						best, bv = a, sqdist(xi, cent[a*d:a*d+d])
-					}
-					for j := 0; j < k; j++ {
-						if v := sqdist(xi, cent[j*d:j*d+d]); v < bv || (v == bv && j < best) {
-							best, bv = j, v
+					a := assign[i]
+					if a >= 0 {
+						m := max(half[a], lo[i])
+						if up[i] <= m {
+							continue
+						}
+						up[i] = math.Sqrt(sqdist(xi, cent[a*d:a*d+d]))
+						if up[i] <= m {
+							continue
 						}
 					}
-					if best != assign[i] {
-						assign[i] = best
+					b1, v1, v2 := -1, math.Inf(1), math.Inf(1)
+					for j := 0; j < k; j++ {
+						v := sqdist(xi, cent[j*d:j*d+d])
+						if v < v1 {
+							b1, v1, v2 = j, v, v1
+						} else if v < v2 {
+							v2 = v
+						}
+					}
+					up[i], lo[i] = math.Sqrt(v1), math.Sqrt(v2)
+					if b1 != a {
+						assign[i] = b1
 						moved[c]++
 					}
 				}
@@ -292,6 +327,7 @@ func lloyd(x, w []float64, n, d, k int, cent []float64, assign []int, iters, wor
 		if total == 0 {
 			return
 		}
+		copy(old, cent)
 		clear(sums)
 		clear(cw)
 		for i := 0; i < n; i++ {
@@ -307,6 +343,26 @@ func lloyd(x, w []float64, n, d, k int, cent []float64, assign []int, iters, wor
 				for c := 0; c < d; c++ {
 					cent[j*d+c] = sums[j*d+c] / cw[j]
 				}
+			}
+		}
+		// Move the bounds with the centres.
+		m1, m2, j1 := 0.0, 0.0, -1
+		for j := 0; j < k; j++ {
+			delta[j] = math.Sqrt(sqdist(cent[j*d:j*d+d], old[j*d:j*d+d]))
+			if delta[j] > m1 {
+				m1, m2, j1 = delta[j], m1, j
+			} else if delta[j] > m2 {
+				m2 = delta[j]
+			}
+		}
+		for i := 0; i < n; i++ {
+			a := assign[i]
+			// Slack far above rounding keeps the bounds safe.
+			up[i] = (up[i] + delta[a]) * (1 + 1e-12)
+			if a == j1 {
+				lo[i] = (lo[i] - m2) * (1 - 1e-12)
+			} else {
+				lo[i] = (lo[i] - m1) * (1 - 1e-12)
 			}
 		}
 	}
