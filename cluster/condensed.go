@@ -1,0 +1,291 @@
+package cluster
+
+import (
+	"math"
+	"slices"
+)
+
+// mstSingle is Müllner's MST algorithm (Prim): grow one tree from point 0,
+// keeping for every point outside it the smallest distance to the tree.
+// Ties go to the lowest index. O(n²) time, O(n) extra memory.
+func mstSingle(dist []float64, n int) *Dendrogram {
+	z := make([]Merge, n-1)
+	merged := make([]bool, n)
+	d := make([]float64, n)
+	for i := range d {
+		d[i] = math.Inf(1)
+	}
+	x, y := 0, 0
+	for k := 0; k < n-1; k++ {
+		cur := math.Inf(1)
+		merged[x] = true
+		for i := 0; i < n; i++ {
+			if merged[i] {
+				continue
+			}
+			if v := dist[cidx(n, x, i)]; d[i] > v {
+				d[i] = v
+			}
+			if d[i] < cur {
+				y = i
+				cur = d[i]
+			}
+		}
+		z[k] = Merge{A: x, B: y, Height: cur}
+		x = y
+	}
+	sortAndLabel(z, n)
+	return &Dendrogram{N: n, Merges: z}
+}
+
+// minParallel is the least number of active clusters per worker for the
+// NN chain on a matrix to split a scan (a variable so tests can lower it).
+var minParallel = 8192
+
+// nnChainCondensed is the nearest-neighbour-chain algorithm (Müllner 2011,
+// fig. 5) for the reducible methods on a working copy of dist. The chain
+// starts at the lowest active index; a nearest neighbour is the lowest
+// index at the smallest distance, except that the previous chain element
+// is kept on a tie (which guarantees termination). The merged cluster
+// takes the slot of the larger index. Scans and updates run over the
+// sorted list of active slots, split over workers; the minimum under the
+// total order (distance, not-previous, index) does not depend on the
+// split.
+func nnChainCondensed(dist []float64, n int, m Linkage, workers int) *Dendrogram {
+	d := make([]float64, len(dist))
+	copy(d, dist)
+	z := make([]Merge, n-1)
+	size := make([]float64, n)
+	act := make([]int, n)
+	for i := range size {
+		size[i] = 1
+		act[i] = i
+	}
+	chain := make([]int, 0, n)
+	best := make([]cand, max(1, workers))
+	for k := 0; k < n-1; k++ {
+		if len(chain) == 0 {
+			chain = append(chain, act[0])
+		}
+		var x, y int
+		var cur float64
+		for {
+			x = chain[len(chain)-1]
+			prev := -1
+			b0 := cand{v: math.Inf(1), key: -1}
+			if len(chain) > 1 {
+				prev = chain[len(chain)-2]
+				b0 = cand{v: d[cidx(n, x, prev)], prev: true, key: prev}
+			}
+			used := parallelRanges(len(act), workers, minParallel, func(w, lo, hi int) {
+				b := b0
+				for _, i := range act[lo:hi] {
+					if i == x {
+						continue
+					}
+					v := d[cidx(n, x, i)]
+					if v < b.v || (v == b.v && !b.prev && i < b.key) {
+						b = cand{v: v, prev: i == prev, key: i}
+					}
+				}
+				best[w] = b
+			})
+			r := best[0]
+			for w := 1; w < used; w++ {
+				if best[w].less(r) {
+					r = best[w]
+				}
+			}
+			y, cur = r.key, r.v
+			if prev >= 0 && y == prev {
+				break
+			}
+			chain = append(chain, y)
+		}
+		chain = chain[:len(chain)-2]
+		if x > y {
+			x, y = y, x
+		}
+		nx, ny := size[x], size[y]
+		z[k] = Merge{A: x, B: y, Height: cur}
+		size[x] = 0
+		size[y] = nx + ny
+		ax, _ := slices.BinarySearch(act, x)
+		act = slices.Delete(act, ax, ax+1)
+		parallelRanges(len(act), workers, minParallel, func(_, lo, hi int) {
+			for _, i := range act[lo:hi] {
+				if i == y {
+					continue
+				}
+				iy := cidx(n, i, y)
+				d[iy] = update(m, d[cidx(n, i, x)], d[iy], cur, nx, ny, size[i])
+			}
+		})
+	}
+	sortAndLabel(z, n)
+	return &Dendrogram{N: n, Merges: z}
+}
+
+// genericCondensed is Müllner's generic algorithm (2011, fig. 3) for
+// methods that may invert. For every active x it keeps a candidate nearest
+// neighbour among the larger indices and a lower bound of that distance in
+// a binary heap; candidates are recomputed only when they come to the top
+// stale. Heap ties and scans resolve as in scipy 1.10's fast_linkage, so
+// the merge list equals scipy's.
+func genericCondensed(dist []float64, n int, m Linkage) *Dendrogram {
+	d := make([]float64, len(dist))
+	copy(d, dist)
+	z := make([]Merge, n-1)
+	size := make([]float64, n)
+	id := make([]int, n)
+	for i := range size {
+		size[i] = 1
+		id[i] = i
+	}
+	nbr := make([]int, n-1)
+	mind := make([]float64, n-1)
+	findMin := func(x int) (int, float64) {
+		best, bd := -1, math.Inf(1)
+		for i := x + 1; i < n; i++ {
+			if size[i] == 0 {
+				continue
+			}
+			if v := d[cidx(n, x, i)]; v < bd {
+				best, bd = i, v
+			}
+		}
+		return best, bd
+	}
+	for x := 0; x < n-1; x++ {
+		nbr[x], mind[x] = findMin(x)
+	}
+	h := newIndexHeap(mind)
+	for k := 0; k < n-1; k++ {
+		var x, y int
+		var dxy float64
+		for i := 0; i < n-k; i++ {
+			x, dxy = h.min()
+			y = nbr[x]
+			if dxy == d[cidx(n, x, y)] {
+				break
+			}
+			y, dxy = findMin(x)
+			nbr[x], mind[x] = y, dxy
+			h.change(x, dxy)
+		}
+		h.removeMin()
+		a, b := id[x], id[y]
+		if a > b {
+			a, b = b, a
+		}
+		nx, ny := size[x], size[y]
+		z[k] = Merge{A: a, B: b, Height: dxy, Size: int(nx + ny)}
+		size[x] = 0
+		size[y] = nx + ny
+		id[y] = n + k
+		for w := 0; w < n; w++ {
+			nw := size[w]
+			if nw == 0 || w == y {
+				continue
+			}
+			wy := cidx(n, w, y)
+			d[wy] = update(m, d[cidx(n, w, x)], d[wy], dxy, nx, ny, nw)
+		}
+		for w := 0; w < x; w++ {
+			if size[w] > 0 && nbr[w] == x {
+				nbr[w] = y
+			}
+		}
+		for w := 0; w < y; w++ {
+			if size[w] == 0 {
+				continue
+			}
+			if v := d[cidx(n, w, y)]; v < mind[w] {
+				nbr[w], mind[w] = y, v
+				h.change(w, v)
+			}
+		}
+		if y < n-1 {
+			if w, v := findMin(y); w != -1 {
+				nbr[y], mind[y] = w, v
+				h.change(y, v)
+			}
+		}
+	}
+	return &Dendrogram{N: n, Merges: z}
+}
+
+// indexHeap is a binary min-heap of values addressed by key. Children
+// replace a parent only when strictly smaller, and the right child is
+// taken only when strictly smaller than the left.
+type indexHeap struct {
+	vals  []float64 // by heap position
+	key   []int     // key at heap position
+	pos   []int     // heap position of key
+	count int
+}
+
+func newIndexHeap(v []float64) *indexHeap {
+	h := &indexHeap{vals: append([]float64(nil), v...), key: make([]int, len(v)), pos: make([]int, len(v)), count: len(v)}
+	for i := range v {
+		h.key[i], h.pos[i] = i, i
+	}
+	for i := len(v)/2 - 1; i >= 0; i-- {
+		h.down(i)
+	}
+	return h
+}
+
+func (h *indexHeap) min() (int, float64) { return h.key[0], h.vals[0] }
+
+func (h *indexHeap) removeMin() {
+	h.swap(0, h.count-1)
+	h.count--
+	h.down(0)
+}
+
+func (h *indexHeap) change(key int, v float64) {
+	i := h.pos[key]
+	old := h.vals[i]
+	h.vals[i] = v
+	if v < old {
+		h.up(i)
+	} else {
+		h.down(i)
+	}
+}
+
+func (h *indexHeap) swap(i, j int) {
+	h.vals[i], h.vals[j] = h.vals[j], h.vals[i]
+	h.key[i], h.key[j] = h.key[j], h.key[i]
+	h.pos[h.key[i]] = i
+	h.pos[h.key[j]] = j
+}
+
+func (h *indexHeap) up(i int) {
+	for i > 0 {
+		p := (i - 1) / 2
+		if !(h.vals[p] > h.vals[i]) {
+			return
+		}
+		h.swap(i, p)
+		i = p
+	}
+}
+
+func (h *indexHeap) down(i int) {
+	for {
+		c := 2*i + 1
+		if c >= h.count {
+			return
+		}
+		if c+1 < h.count && h.vals[c+1] < h.vals[c] {
+			c++
+		}
+		if !(h.vals[i] > h.vals[c]) {
+			return
+		}
+		h.swap(i, c)
+		i = c
+	}
+}

@@ -1,0 +1,106 @@
+package cluster
+
+import (
+	"fmt"
+	"os"
+	"syscall"
+	"testing"
+	"time"
+)
+
+func cpuTime() time.Duration {
+	var r syscall.Rusage
+	syscall.Getrusage(syscall.RUSAGE_SELF, &r)
+	return time.Duration(r.Utime.Nano() + r.Stime.Nano())
+}
+
+func TestCPUWard(t *testing.T) {
+	if os.Getenv("UC_CPU") == "" {
+		t.Skip()
+	}
+	x := dirichletRows(5000, 20, benchSeed)
+	c0 := cpuTime()
+	w0 := time.Now()
+	LinkVectors(x, nil, Ward, &Settings{Workers: 1})
+	fmt.Println("cpu", cpuTime()-c0, "wall", time.Since(w0))
+}
+
+// TestKernels: the AVX2 kernels agree with the portable code bit for bit
+// (partial sums) and on every pruning decision.
+func TestKernels(t *testing.T) {
+	x := dirichletRows(700, 20, 5)
+	var c []float64
+	var w []float64
+	for i, r := range x {
+		c = append(c, r...)
+		w = append(w, float64(1+i%7))
+	}
+	q := (*[8]float64)(x[3][:8])
+	out1 := make([]float64, 700)
+	out2 := make([]float64, 700)
+	m1 := make([]uint64, 11)
+	m2 := make([]uint64, 11)
+	for _, lim := range []float64{0.001, 0.01, 0.05, 1} {
+		ward8(q, c, 20, w, out1, m1, 2*3, lim, lim*3)
+		ward8Go(q, c, 20, w, out2, m2, 2*3, lim, lim*3)
+		for k := range out1 {
+			if out1[k] != out2[k] {
+				t.Fatalf("partial %d: %v vs %v", k, out1[k], out2[k])
+			}
+		}
+		for k := range m1 {
+			if m1[k] != m2[k] {
+				t.Fatalf("lim %v mask %d: %x vs %x", lim, k, m1[k], m2[k])
+			}
+		}
+		partial8(q, c, 20, out1)
+		partial8Go(q, c, 20, out2)
+		for k := range out1 {
+			if out1[k] != out2[k] {
+				t.Fatalf("partial8 %d: %v vs %v", k, out1[k], out2[k])
+			}
+		}
+	}
+}
+
+func TestSqdistKernel(t *testing.T) {
+	x := dirichletRows(50, 37, 8)
+	for n := 0; n <= 37; n++ {
+		for i := 1; i < 50; i++ {
+			a, b := x[0][:n], x[i][:n]
+			if g, w := sqdist(a, b), sqdistGo(a, b); g != w {
+				t.Fatalf("n=%d: %v vs %v", n, g, w)
+			}
+		}
+	}
+}
+
+func TestCPUAverage(t *testing.T) {
+	if os.Getenv("UC_CPU") == "" {
+		t.Skip()
+	}
+	x := dirichletRows(5000, 20, benchSeed)
+	c0 := cpuTime()
+	w0 := time.Now()
+	d := EuclideanCondensed(nil, x, &Settings{Workers: 1})
+	fmt.Println("pdist cpu", cpuTime()-c0, "wall", time.Since(w0))
+	c0 = cpuTime()
+	w0 = time.Now()
+	Link(d, Average, &Settings{Workers: 1})
+	fmt.Println("link cpu", cpuTime()-c0, "wall", time.Since(w0))
+}
+
+func TestCPUSummary(t *testing.T) {
+	if os.Getenv("UC_CPU") == "" {
+		t.Skip()
+	}
+	x := dirichletRows(20000, 20, benchSeed)
+	flat, w, d, _ := flatten(x, nil)
+	c0 := cpuTime()
+	cent := seedPlusPlus(flat, w, len(x), d, 1000, 1, 1)
+	fmt.Println("seed cpu", cpuTime()-c0)
+	c0 = cpuTime()
+	assign := make([]int, len(x))
+	lloyd(flat, w, len(x), d, 1000, cent, assign, 10, 1)
+	fmt.Println("lloyd cpu", cpuTime()-c0)
+}

@@ -1,0 +1,179 @@
+package cluster
+
+import (
+	"fmt"
+	"math"
+	"slices"
+)
+
+// Group is a set of rows (ascending indices) found together.
+type Group struct {
+	Rows     []int
+	Diameter float64 // largest distance between two of its rows
+}
+
+// MaxComponent is the largest set of rows, linked by chains of distances
+// ≤ eps, that TightGroups accepts; beyond it the eps is too coarse for
+// "near-identical" and the condensed matrix of the set would be large.
+const MaxComponent = 20000
+
+// TightGroups returns the groups of at least minSize rows of x (for
+// example document-theme vectors, or TF-IDF rows) whose Euclidean
+// diameter is at most eps: exactly the clusters of complete linkage cut
+// at height eps, computed without an n² matrix. Useful to find templated,
+// near-identical narratives. Groups come largest first, ties by first row.
+//
+// Method: every pair at distance ≤ eps is found by sorting the rows on the
+// coordinate with the largest variance and sweeping a window of width eps
+// (a pair farther apart on one coordinate is farther apart in all); the
+// eps-graph's connected components are the single-linkage clusters at eps,
+// and complete linkage never merges across them below eps, so complete
+// linkage is run on each component alone (condensed matrix of the
+// component) and cut at eps. It returns an error if a component exceeds
+// MaxComponent rows. It panics if eps < 0 or minSize < 1.
+func TightGroups(x [][]float64, eps float64, minSize int, s *Settings) ([]Group, error) {
+	if eps < 0 || minSize < 1 {
+		panic("cluster: TightGroups needs eps ≥ 0 and minSize ≥ 1")
+	}
+	flat, _, d, err := flatten(x, nil)
+	if err != nil {
+		return nil, err
+	}
+	n := len(x)
+	if n == 0 {
+		return nil, nil
+	}
+	// Coordinate of largest variance.
+	axis, bestVar := 0, -1.0
+	for k := 0; k < d; k++ {
+		var m, m2 float64
+		for i := 0; i < n; i++ {
+			v := flat[i*d+k]
+			m += v
+			m2 += v * v
+		}
+		m /= float64(n)
+		if v := m2/float64(n) - m*m; v > bestVar {
+			axis, bestVar = k, v
+		}
+	}
+	idx := make([]int, n)
+	for i := range idx {
+		idx[i] = i
+	}
+	slices.SortStableFunc(idx, func(a, b int) int {
+		va, vb := flat[a*d+axis], flat[b*d+axis]
+		switch {
+		case va < vb:
+			return -1
+		case va > vb:
+			return 1
+		}
+		return 0
+	})
+	parent := make([]int, n)
+	for i := range parent {
+		parent[i] = i
+	}
+	find := func(x int) int {
+		for parent[x] != x {
+			parent[x] = parent[parent[x]]
+			x = parent[x]
+		}
+		return x
+	}
+	e2 := eps * eps
+	for a := 0; a < n; a++ {
+		i := idx[a]
+		xi := flat[i*d : i*d+d]
+		for b := a + 1; b < n; b++ {
+			j := idx[b]
+			if flat[j*d+axis]-xi[axis] > eps {
+				break
+			}
+			if sqdist(xi, flat[j*d:j*d+d]) <= e2*(1+1e-12) {
+				ri, rj := find(i), find(j)
+				if ri != rj {
+					parent[max(ri, rj)] = min(ri, rj)
+				}
+			}
+		}
+	}
+	comps := make(map[int][]int)
+	var roots []int
+	for i := 0; i < n; i++ {
+		r := find(i)
+		if _, ok := comps[r]; !ok {
+			roots = append(roots, r)
+		}
+		comps[r] = append(comps[r], i)
+	}
+	var out []Group
+	for _, r := range roots {
+		rows := comps[r]
+		if len(rows) < minSize {
+			continue
+		}
+		if len(rows) > MaxComponent {
+			return nil, fmt.Errorf("cluster: %d rows are chained within distance %v (more than %d); use a smaller eps", len(rows), eps, MaxComponent)
+		}
+		sub := make([][]float64, len(rows))
+		for k, i := range rows {
+			sub[k] = x[i]
+		}
+		dist := EuclideanCondensed(nil, sub, s)
+		t, err := Link(dist, Complete, s)
+		if err != nil {
+			return nil, err
+		}
+		for _, g := range groupsAt(t, eps, minSize) {
+			gr := Group{Rows: make([]int, len(g.Themes)), Diameter: g.Height}
+			for k, v := range g.Themes {
+				gr.Rows[k] = rows[v]
+			}
+			out = append(out, gr)
+		}
+	}
+	slices.SortStableFunc(out, func(a, b Group) int {
+		if len(a.Rows) != len(b.Rows) {
+			return len(b.Rows) - len(a.Rows)
+		}
+		return a.Rows[0] - b.Rows[0]
+	})
+	return out, nil
+}
+
+// HeatmapOrder returns an order of the rows of x for drawing a heatmap in
+// which similar rows sit together: Ward's tree on the rows (LinkVectors)
+// in optimal leaf order when len(x) ≤ OptimalOrderLimit, in plain
+// dendrogram order up to exactLimit rows, and above that the order of a
+// Summary (micro-clusters in the order of their Ward tree, rows within a
+// micro-cluster by index), seeded by seed.
+func HeatmapOrder(x [][]float64, seed uint64, s *Settings) ([]int, error) {
+	const exactLimit = 20000
+	n := len(x)
+	if n > exactLimit {
+		sum, err := Summarize(x, nil, &SummarySettings{Seed: seed, Workers: s.workersOrZero()})
+		if err != nil {
+			return nil, err
+		}
+		return sum.Order(), nil
+	}
+	t, err := LinkVectors(x, nil, Ward, s)
+	if err != nil {
+		return nil, err
+	}
+	if n <= OptimalOrderLimit {
+		return t.OptimalLeafOrder(nil, EuclideanCondensed(nil, x, s)), nil
+	}
+	return t.Leaves(nil), nil
+}
+
+func (s *Settings) workersOrZero() int {
+	if s == nil {
+		return 0
+	}
+	return s.Workers
+}
+
+var _ = math.Inf

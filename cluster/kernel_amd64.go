@@ -1,0 +1,66 @@
+//go:build amd64 && !purego
+
+package cluster
+
+import "golang.org/x/sys/cpu"
+
+var haveAVX2 = cpu.X86.HasAVX2
+
+// partial8AVX2 stores in out[k] the sum over j < 8 of (x[j] − c[k*d+j])²
+// for k < len(out), summed as sumHead8 sums (no fused multiply–add), so
+// the values are bit-identical to the portable code.
+//
+//go:noescape
+func partial8AVX2(x *[8]float64, c *float64, d int, out []float64)
+
+// partial8 is the batch form of sumHead8 over len(out) rows of c with
+// stride d, starting at c[0].
+func partial8(x *[8]float64, c []float64, d int, out []float64) {
+	if len(out) == 0 {
+		return
+	}
+	if (len(out)-1)*d+8 > len(c) {
+		panic("cluster: partial8 out of range")
+	}
+	if haveAVX2 {
+		partial8AVX2(x, &c[0], d, out)
+		return
+	}
+	partial8Go(x, c, d, out)
+}
+
+//go:noescape
+func ward8AVX2(x *[8]float64, c *float64, d int, w *float64, out []float64, mask *uint64, ww, lim, limwx float64)
+
+// ward8 fills out with the partial sums of len(out) rows of c (stride d)
+// and mask with the rows that survive Ward's pruning test
+//
+//	w[k]·(out[k]·ww − lim) ≤ limwx
+//
+// (bit k%64 of mask[k/64]); len(mask) must be ≥ (len(out)+63)/64.
+func ward8(x *[8]float64, c []float64, d int, w []float64, out []float64, mask []uint64, ww, lim, limwx float64) {
+	if len(out) == 0 {
+		return
+	}
+	if (len(out)-1)*d+8 > len(c) || len(w) < len(out) || len(mask) < (len(out)+63)/64 {
+		panic("cluster: ward8 out of range")
+	}
+	if haveAVX2 {
+		ward8AVX2(x, &c[0], d, &w[0], out, &mask[0], ww, lim, limwx)
+		return
+	}
+	ward8Go(x, c, d, w, out, mask, ww, lim, limwx)
+}
+
+//go:noescape
+func sqdistAVX2(a, b *float64, n int) float64
+
+// sqdist returns ‖a−b‖² for len(a) == len(b), summed in four lanes (see
+// sqdistGo); the AVX2 path gives the same bits.
+func sqdist(a, b []float64) float64 {
+	if haveAVX2 && len(a) >= 8 {
+		b = b[:len(a)]
+		return sqdistAVX2(&a[0], &b[0], len(a))
+	}
+	return sqdistGo(a, b)
+}

@@ -1,0 +1,152 @@
+//go:build amd64 && !purego
+
+#include "textflag.h"
+
+// func partial8AVX2(x *[8]float64, c *float64, d int, out []float64)
+TEXT ·partial8AVX2(SB), NOSPLIT, $0-48
+	MOVQ x+0(FP), AX
+	MOVQ c+8(FP), SI
+	MOVQ d+16(FP), DX
+	MOVQ out_base+24(FP), DI
+	MOVQ out_len+32(FP), CX
+	SHLQ $3, DX
+	VMOVUPD (AX), Y0
+	VMOVUPD 32(AX), Y1
+
+loop:
+	TESTQ CX, CX
+	JZ    done
+	VMOVUPD (SI), Y2
+	VMOVUPD 32(SI), Y3
+	VSUBPD  Y2, Y0, Y2
+	VSUBPD  Y3, Y1, Y3
+	VMULPD  Y2, Y2, Y2
+	VMULPD  Y3, Y3, Y3
+	VADDPD  Y3, Y2, Y2         // (t0²+t4², t1²+t5², t2²+t6², t3²+t7²)
+	VEXTRACTF128 $1, Y2, X3
+	VADDPD  X3, X2, X2         // ((t0²+t4²)+(t2²+t6²), (t1²+t5²)+(t3²+t7²))
+	VPERMILPD $1, X2, X3
+	VADDSD  X3, X2, X2
+	VMOVSD  X2, (DI)
+	ADDQ    DX, SI
+	ADDQ    $8, DI
+	DECQ    CX
+	JMP     loop
+
+done:
+	VZEROUPPER
+	RET
+
+// func ward8AVX2(x *[8]float64, c *float64, d int, w *float64, out []float64, mask *uint64, ww, lim, limwx float64)
+// For k < len(out): out[k] is the partial sum as above, and bit k%64 of
+// mask[k/64] is set when w[k]·(out[k]·ww − lim) ≤ limwx, i.e. when the
+// candidate survives the pruning test.
+TEXT ·ward8AVX2(SB), NOSPLIT, $0-88
+	MOVQ x+0(FP), AX
+	MOVQ c+8(FP), SI
+	MOVQ d+16(FP), DX
+	MOVQ w+24(FP), R8
+	MOVQ out_base+32(FP), DI
+	MOVQ out_len+40(FP), R12
+	MOVQ mask+56(FP), R9
+	VMOVSD ww+64(FP), X5
+	VMOVSD lim+72(FP), X6
+	VMOVSD limwx+80(FP), X7
+	SHLQ $3, DX
+	VMOVUPD (AX), Y0
+	VMOVUPD 32(AX), Y1
+	XORQ CX, CX                // bit index within the current word
+	XORQ R11, R11              // current mask word
+
+wloop:
+	TESTQ R12, R12
+	JZ    wdone
+	VMOVUPD (SI), Y2
+	VMOVUPD 32(SI), Y3
+	VSUBPD  Y2, Y0, Y2
+	VSUBPD  Y3, Y1, Y3
+	VMULPD  Y2, Y2, Y2
+	VMULPD  Y3, Y3, Y3
+	VADDPD  Y3, Y2, Y2
+	VEXTRACTF128 $1, Y2, X3
+	VADDPD  X3, X2, X2
+	VPERMILPD $1, X2, X3
+	VADDSD  X3, X2, X2
+	VMOVSD  X2, (DI)
+	VMULSD  X5, X2, X4         // s·ww
+	VSUBSD  X6, X4, X4         // s·ww − lim
+	VMULSD  (R8), X4, X4       // w·(s·ww − lim)
+	XORQ    BX, BX
+	VUCOMISD X7, X4
+	SETLS   BX                 // survive when X4 ≤ limwx
+	SHLQ    CX, BX
+	ORQ     BX, R11
+	ADDQ    DX, SI
+	ADDQ    $8, DI
+	ADDQ    $8, R8
+	INCQ    CX
+	CMPQ    CX, $64
+	JNE     wnext
+	MOVQ    R11, (R9)
+	ADDQ    $8, R9
+	XORQ    CX, CX
+	XORQ    R11, R11
+
+wnext:
+	DECQ    R12
+	JMP     wloop
+
+wdone:
+	TESTQ   CX, CX
+	JZ      wret
+	MOVQ    R11, (R9)
+
+wret:
+	VZEROUPPER
+	RET
+
+// func sqdistAVX2(a, b *float64, n int) float64
+// Four lanes s0..s3 accumulate (a_k − b_k)² for k ≡ lane (mod 4); the
+// n%4 tail goes into s0; the result is (s0+s1)+(s2+s3), as sqdist.
+TEXT ·sqdistAVX2(SB), NOSPLIT, $0-32
+	MOVQ a+0(FP), SI
+	MOVQ b+8(FP), DI
+	MOVQ n+16(FP), CX
+	VXORPD Y0, Y0, Y0
+
+sloop:
+	CMPQ CX, $4
+	JLT  stail
+	VMOVUPD (SI), Y1
+	VMOVUPD (DI), Y2
+	VSUBPD  Y2, Y1, Y1
+	VMULPD  Y1, Y1, Y1
+	VADDPD  Y1, Y0, Y0
+	ADDQ    $32, SI
+	ADDQ    $32, DI
+	SUBQ    $4, CX
+	JMP     sloop
+
+stail:
+	TESTQ CX, CX
+	JZ    sdone
+	VMOVSD (SI), X1
+	VSUBSD (DI), X1, X1
+	VMULSD X1, X1, X1
+	VADDSD X1, X0, X3          // s0 + t² (upper lanes of X3 from X0)
+	VBLENDPD $1, Y3, Y0, Y0    // put the new s0 into lane 0
+	ADDQ   $8, SI
+	ADDQ   $8, DI
+	DECQ   CX
+	JMP    stail
+
+sdone:
+	VEXTRACTF128 $1, Y0, X1    // (s2, s3)
+	VPERMILPD $1, X0, X2       // s1
+	VADDSD X2, X0, X2          // s0+s1
+	VPERMILPD $1, X1, X3       // s3
+	VADDSD X3, X1, X3          // s2+s3
+	VADDSD X3, X2, X0
+	VZEROUPPER
+	MOVSD X0, ret+24(FP)
+	RET
