@@ -11,6 +11,7 @@ import (
 	"runtime"
 	"strconv"
 	"strings"
+	"syscall"
 	"testing"
 	"time"
 
@@ -120,11 +121,13 @@ func BenchmarkSynthetic(b *testing.B) {
 	}
 	for i := 0; i < b.N; i++ {
 		start := time.Now()
+		cpu0 := cpuTime()
 		m, err := Fit(context.Background(), Corpus{Counts: train}, s)
 		if err != nil {
 			b.Fatal(err)
 		}
 		secs := time.Since(start).Seconds()
+		cpu := (cpuTime() - cpu0).Seconds()
 		_, dist := MatchHellinger(c.phi, rows(m))
 		h := 0.0
 		for _, d := range dist {
@@ -134,7 +137,7 @@ func BenchmarkSynthetic(b *testing.B) {
 		ll := completionLL(tg, func(k, w int) float64 { return m.phi[k*m.v+w] }, m.k, c.docs[c.meta.Train:])
 		nmi := NMI(c.labels[:c.meta.Train], m.Dominant())
 		line, _ := json.Marshal(map[string]any{"bench": "synthetic-lda", "system": "undercurrent",
-			"corpus": "D20000-V3000-K20", "seconds": round(secs, 3), "peak_mb": round(peakMB(), 1),
+			"corpus": "D20000-V3000-K20", "seconds": round(secs, 3), "cpu_seconds_fit": round(cpu, 3), "peak_mb": round(peakMB(), 1),
 			"hellinger": round(h/float64(len(dist)), 4), "ll_per_token": round(ll, 4), "nmi": round(nmi, 4),
 			"gomaxprocs": runtime.GOMAXPROCS(0), "alpha_mean": round(mean(m.alpha), 4), "beta": round(m.beta, 4)})
 		fmt.Println(string(line))
@@ -156,31 +159,42 @@ func BenchmarkSynthetic(b *testing.B) {
 }
 
 // BenchmarkSweep measures one Gibbs sweep of the benchmark corpus by each sampler (the
-// measurement behind choosing SparseLDA), sequentially (Partitions = 1).
+// measurement behind the sampler choice in Fit), sequentially (Partitions = 1), at the
+// corpus's K = 20 and at K = 100. It reports CPU nanoseconds per token (getrusage), which
+// a shared machine distorts less than wall time.
 func BenchmarkSweep(b *testing.B) {
 	c := readBenchCorpus(b)
 	train := countMatrix(c.docs[:c.meta.Train], c.meta.V)
 	words, ds, _ := tokens(train)
-	for _, sk := range []struct {
-		name string
-		k    samplerKind
-	}{{"sparse", sparseSampler}, {"dense", denseSampler}} {
-		b.Run(sk.name, func(b *testing.B) {
-			al := make([]float64, c.meta.K)
-			for i := range al {
-				al[i] = 0.1
-			}
-			ch := newChain(c.meta.K, c.meta.V, words, ds, al, 0.01, nil, nil, 1, 1, sk.k)
-			for i := 0; i < 30; i++ { // past the random start
-				ch.sweep()
-			}
-			b.ResetTimer()
-			for i := 0; i < b.N; i++ {
-				ch.sweep()
-			}
-			b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N*len(words)), "ns/token")
-		})
+	for _, K := range []int{20, 100} {
+		for _, sk := range []struct {
+			name string
+			k    samplerKind
+		}{{"sparse", sparseSampler}, {"dense", denseSampler}} {
+			b.Run(fmt.Sprintf("K%d-%s", K, sk.name), func(b *testing.B) {
+				al := make([]float64, K)
+				for i := range al {
+					al[i] = 0.1
+				}
+				ch := newChain(K, c.meta.V, words, ds, al, 0.01, nil, nil, 1, 1, sk.k)
+				for i := 0; i < 20; i++ { // past the random start
+					ch.sweep()
+				}
+				b.ResetTimer()
+				t0 := cpuTime()
+				for i := 0; i < b.N; i++ {
+					ch.sweep()
+				}
+				b.ReportMetric(float64((cpuTime()-t0).Nanoseconds())/float64(b.N*len(words)), "cpu-ns/token")
+			})
+		}
 	}
+}
+
+func cpuTime() time.Duration {
+	var ru syscall.Rusage
+	syscall.Getrusage(syscall.RUSAGE_SELF, &ru)
+	return time.Duration(ru.Utime.Nano() + ru.Stime.Nano())
 }
 
 func round(x float64, d int) float64 {

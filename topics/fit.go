@@ -13,7 +13,9 @@ import (
 )
 
 // Fit fits an LDA model (Blei, Ng & Jordan 2003) to c by collapsed Gibbs sampling
-// (Griffiths & Steyvers 2004) with the SparseLDA bucket sampler (Yao, Mimno & McCallum 2009).
+// (Griffiths & Steyvers 2004). For K ≥ 50 it uses the SparseLDA bucket sampler (Yao, Mimno &
+// McCallum 2009); below that the plain sampler over all K themes, which we measured to be
+// faster there (see sparseFromK). Both draw from the same exact conditional.
 //
 // Documents are split into Settings.Partitions fixed blocks that are swept in parallel
 // against a copy of the word-theme counts and merged after every sweep (approximate

@@ -18,10 +18,18 @@ import (
 // leave every bar at Hellinger 0.2–0.3 (about 10% of each theme's mass spread off its bar);
 // a plain textbook sampler written for checking (not kept) does the same with α = 0.5, so
 // this is slow mixing of the chain at a small α, not a sampler bug.
+//
+// Both samplers run: the plain one (Fit's choice at K = 10) on the full setup, SparseLDA
+// (forced) on the first 600 documents to keep the test short.
 func TestBars(t *testing.T) {
-	g := generate(7, bars(), 2000, 100, 1)
+	testBars(t, autoSampler, 2000)
+	testBars(t, sparseSampler, 600)
+}
+
+func testBars(t *testing.T, sk samplerKind, docs int) {
+	g := generate(7, bars(), docs, 100, 1)
 	start := time.Now()
-	m, err := Fit(context.Background(), Corpus{Counts: countMatrix(g.docs, 25)}, Settings{K: 10, Iterations: 300, Alpha: 1, FixedPriors: true, Seed: 1})
+	m, err := Fit(context.Background(), Corpus{Counts: countMatrix(g.docs, 25)}, Settings{K: 10, Iterations: 200, Alpha: 1, FixedPriors: true, Seed: 1, sampler: sk})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -35,7 +43,7 @@ func TestBars(t *testing.T) {
 			}
 		}
 		if d > 0.15 || mass < 0.95 {
-			t.Errorf("bar %d: Hellinger %.3f (bound 0.15), mass on bar %.3f (bound 0.95)", i, d, mass)
+			t.Errorf("sampler %d, bar %d: Hellinger %.3f (bound 0.15), mass on bar %.3f (bound 0.95)", sk, i, d, mass)
 		}
 	}
 	t.Logf("Hellinger per bar: %.3f", dist)

@@ -63,7 +63,7 @@ type Settings struct {
 	// with the sweeps done so far and the total number of sweeps.
 	Progress func(done, total int)
 
-	sampler   samplerKind // for measurement only; zero is the sparse sampler
+	sampler   samplerKind // for measurement only; zero chooses by K
 	optFrom   int         // for measurement only: first sweep that re-estimates priors
 	fixedBeta bool        // for measurement only
 }
@@ -71,9 +71,16 @@ type Settings struct {
 type samplerKind int
 
 const (
-	sparseSampler samplerKind = iota
+	autoSampler samplerKind = iota
+	sparseSampler
 	denseSampler
 )
+
+// sparseFromK is the number of themes from which the SparseLDA bucket sampler is used; below
+// it the plain sampler is faster. Measured with BenchmarkSweep on the benchmark corpus
+// (18,000 documents of ~60 tokens, V = 3,000), CPU ns per token: K = 20 sparse 94.5, dense
+// 63.1; K = 100 sparse 153, dense 204; the lines cross near K = 50.
+const sparseFromK = 50
 
 // resolved returns s with zero values replaced by defaults, or an error.
 func (s Settings) resolved() (Settings, error) {
@@ -106,6 +113,12 @@ func (s Settings) resolved() (Settings, error) {
 	}
 	if s.SeedStrength == 0 {
 		s.SeedStrength = 1
+	}
+	if s.sampler == autoSampler {
+		s.sampler = denseSampler
+		if s.K >= sparseFromK {
+			s.sampler = sparseSampler
+		}
 	}
 	switch {
 	case s.Iterations < 1:
