@@ -1,0 +1,174 @@
+package redact
+
+import (
+	"strings"
+	"unicode"
+	"unicode/utf8"
+)
+
+type tokKind uint8
+
+const (
+	tWord  tokKind = iota + 1 // letters, with inner apostrophes or hyphens
+	tNum                      // digits
+	tPunct                    // one other non-space character
+)
+
+type tok struct {
+	start, end int
+	kind       tokKind
+	nl         int // newlines between the previous token and this one
+}
+
+// doc is one narrative being scanned.
+type doc struct {
+	text      string
+	r         *Redactor
+	masks     [][]int
+	toks      []tok
+	wordIndex map[string][]int // maximal letter-or-digit runs → their starts
+	caps      bool             // the narrative is written mostly in capitals
+	allowIv   intervals
+}
+
+func (d *doc) tokenize() {
+	text := d.text
+	d.wordIndex = make(map[string][]int)
+	upper, letters := 0, 0
+	nl := 0
+	for i := 0; i < len(text); {
+		r, n := utf8.DecodeRuneInString(text[i:])
+		switch {
+		case r == '\n':
+			nl++
+			i += n
+		case unicode.IsSpace(r):
+			i += n
+		case unicode.IsLetter(r):
+			j := i
+			for j < len(text) {
+				r2, n2 := utf8.DecodeRuneInString(text[j:])
+				if unicode.IsLetter(r2) {
+					letters++
+					if unicode.IsUpper(r2) {
+						upper++
+					}
+					j += n2
+					continue
+				}
+				if r2 == '\'' || r2 == '’' || r2 == '-' {
+					r3, _ := utf8.DecodeRuneInString(text[j+n2:])
+					if unicode.IsLetter(r3) {
+						j += n2
+						continue
+					}
+				}
+				break
+			}
+			d.toks = append(d.toks, tok{i, j, tWord, nl})
+			nl = 0
+			i = j
+		case unicode.IsDigit(r):
+			j := i
+			for j < len(text) {
+				r2, n2 := utf8.DecodeRuneInString(text[j:])
+				if !unicode.IsDigit(r2) {
+					break
+				}
+				j += n2
+			}
+			d.toks = append(d.toks, tok{i, j, tNum, nl})
+			nl = 0
+			i = j
+		default:
+			d.toks = append(d.toks, tok{i, i + n, tPunct, nl})
+			nl = 0
+			i += n
+		}
+	}
+	// maximal letter-or-digit runs, for finding other occurrences of a replaced text.
+	for i := 0; i < len(text); {
+		r, n := utf8.DecodeRuneInString(text[i:])
+		if !isWordRune(r) {
+			i += n
+			continue
+		}
+		j := i + n
+		for j < len(text) {
+			r2, n2 := utf8.DecodeRuneInString(text[j:])
+			if !isWordRune(r2) {
+				break
+			}
+			j += n2
+		}
+		w := text[i:j]
+		d.wordIndex[w] = append(d.wordIndex[w], i)
+		i = j
+	}
+	d.caps = letters >= 12 && upper*10 >= letters*7
+	for _, a := range d.r.allow {
+		d.matchWords(a, func(s, e int) { d.allowIv.add(s, e) })
+	}
+}
+
+// word returns the text of token i.
+func (d *doc) word(i int) string { return d.text[d.toks[i].start:d.toks[i].end] }
+
+// isPunct reports whether token i is the punctuation s.
+func (d *doc) isPunct(i int, s string) bool {
+	return i >= 0 && i < len(d.toks) && d.toks[i].kind == tPunct && d.word(i) == s
+}
+
+// matchWords calls f for every run of word tokens equal, ignoring case, to ws.
+func (d *doc) matchWords(ws []string, f func(s, e int)) {
+	for i := range d.toks {
+		if d.toks[i].kind != tWord || !strings.EqualFold(d.word(i), ws[0]) {
+			continue
+		}
+		j, k := i, 0
+		for k < len(ws) {
+			if j >= len(d.toks) || d.toks[j].kind != tWord || !strings.EqualFold(d.word(j), ws[k]) {
+				break
+			}
+			k++
+			j++
+			// allow one "." after an abbreviation inside a phrase.
+			if k < len(ws) && d.isPunct(j, ".") {
+				j++
+			}
+		}
+		if k == len(ws) {
+			f(d.toks[i].start, d.toks[j-1].end)
+		}
+	}
+}
+
+// allowed reports whether [s,e) overlaps an allow-listed phrase.
+func (d *doc) allowed(s, e int) bool { return d.allowIv.overlaps(s, e) }
+
+// wordsOf splits s into its words (letters with inner apostrophes or hyphens).
+func wordsOf(s string) []string {
+	d := &doc{text: s, r: &Redactor{}}
+	d.tokenize()
+	var out []string
+	for i := range d.toks {
+		if d.toks[i].kind == tWord {
+			out = append(out, d.word(i))
+		}
+	}
+	return out
+}
+
+// tokenAt returns the index of the first token starting at or after byte offset s.
+func (d *doc) tokenAt(s int) int {
+	lo, hi := 0, len(d.toks)
+	for lo < hi {
+		m := (lo + hi) / 2
+		if d.toks[m].start < s {
+			lo = m + 1
+		} else {
+			hi = m
+		}
+	}
+	return lo
+}
