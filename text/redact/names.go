@@ -23,6 +23,7 @@ var (
 	orgWords         map[string]bool // words that make a capitalised run a business or place
 	titleWords       = map[string]bool{"mr": true, "mrs": true, "ms": true, "miss": true, "mx": true, "dr": true, "mister": true}
 	personVerbs      map[string]bool
+	personBefore     = map[string]bool{"with": true, "told": true, "asked": true, "and": true, "saw": true, "by": true, "told,": true, "called": true, "met": true, "per": true}
 	placePrepsBefore = map[string]bool{"in": true, "at": true, "near": true, "into": true, "inside": true, "via": true}
 )
 
@@ -206,6 +207,15 @@ var nameCues = [][]string{
 	{"employee"}, {"coworker"}, {"supervisor"}, {"manager"},
 }
 
+// cuesByFirst indexes nameCues by their first word.
+var cuesByFirst = func() map[string][][]string {
+	m := map[string][][]string{}
+	for _, c := range nameCues {
+		m[c[0]] = append(m[c[0]], c)
+	}
+	return m
+}()
+
 // matchCue returns the index after the cue phrase at token i, or -1.
 func (d *doc) matchCue(i int, cue []string) int {
 	j := i
@@ -240,7 +250,7 @@ func (d *doc) names(cs []cand) []cand {
 		if d.toks[i].kind != tWord {
 			continue
 		}
-		lw := strings.ToLower(d.word(i))
+		lw := d.lower[i]
 		// titles: "Mr. Quosby", "Dr Ann Lee"
 		if titleWords[lw] {
 			j := i + 1
@@ -253,10 +263,7 @@ func (d *doc) names(cs []cand) []cand {
 			}
 			continue
 		}
-		for _, cue := range nameCues {
-			if cue[0] != lw {
-				continue
-			}
+		for _, cue := range cuesByFirst[lw] {
 			j := d.matchCue(i, cue)
 			if j < 0 {
 				continue
@@ -382,17 +389,24 @@ func (d *doc) heuristicNames(cs []cand) []cand {
 		first := strings.ToLower(d.word(idx[0]))
 		ok := false
 		if len(idx) >= 2 {
-			ok = nonDict >= 1 || (givenNames[first] && listed >= 1)
+			// given-name position and surname position must both look like names.
+			fw, lw := d.word(idx[0]), d.word(idx[len(idx)-1])
+			firstOK := givenNames[first] || !isDictWord(fw)
+			lastOK := surnames[strings.ToLower(lw)] || !isDictWord(lw)
+			ok = nonDict >= 1 && firstOK && lastOK
+			if d.quoted(idx[0], idx[len(idx)-1]) {
+				ok = false
+			}
 		} else {
 			w := d.word(idx[0])
 			prev := ""
 			if idx[0] > 0 && d.toks[idx[0]-1].kind == tWord {
 				prev = strings.ToLower(d.word(idx[0] - 1))
 			}
-			ok = nonDict >= 1 && utf8.RuneCountInString(w) >= 3 && !placePrepsBefore[prev]
-			if ok && d.sentenceStart(idx[0]) {
-				ok = next < len(d.toks) && d.toks[next].kind == tWord && personVerbs[strings.ToLower(d.word(next))]
-			}
+			// a single word needs a person's verb after it or a person's context before it.
+			ok = nonDict >= 1 && utf8.RuneCountInString(w) >= 3 && !placePrepsBefore[prev] && !d.quoted(idx[0], idx[0])
+			verb := next < len(d.toks) && d.toks[next].kind == tWord && personVerbs[strings.ToLower(d.word(next))]
+			ok = ok && (verb || personBefore[prev])
 		}
 		if ok {
 			cs = d.addName(cs, idx[0], idx[len(idx)-1]+1, parts)
@@ -404,42 +418,107 @@ func (d *doc) heuristicNames(cs []cand) []cand {
 // listNames finds the caller's listed names: whole entries (each word exact, or one edit
 // away for words of five or more letters) and single capitalised words of an entry.
 func (d *doc) listNames(cs []cand) []cand {
-	for _, ws := range d.r.list {
-		lower := make([]string, len(ws))
-		for k, w := range ws {
-			lower[k] = strings.ToLower(w)
+	ix := d.r.index
+	if ix == nil {
+		return cs
+	}
+	var hits []listWord
+	for i := range d.toks {
+		if d.toks[i].kind != tWord {
+			continue
 		}
-		for i := range d.toks {
-			if d.toks[i].kind != tWord {
+		w := d.word(i)
+		// misspellings are looked for only in capitalised words that are not ordinary words.
+		fuzzy := (capitalised(w) || allUpper(w)) && !isDictWord(w)
+		hits = ix.lookup(d.lower[i], fuzzy, hits[:0])
+		if len(hits) == 0 {
+			continue
+		}
+		done := false
+		// whole entries starting here
+		for _, h := range hits {
+			ws := d.r.list[h.entry]
+			if h.word != 0 || len(ws) < 2 {
 				continue
 			}
-			// whole entry
-			j, k := i, 0
-			for k < len(ws) && j < len(d.toks) && d.toks[j].kind == tWord && wordMatch(d.word(j), lower[k]) {
+			j, k := i+1, 1
+			if d.isInitial(j) {
+				j += 2
+			}
+			for k < len(ws) && j < len(d.toks) && d.toks[j].kind == tWord && wordMatch(d.word(j), ws[k]) {
 				k++
 				j++
 				if k < len(ws) && d.isInitial(j) {
 					j += 2
 				}
 			}
-			if k == len(ws) && len(ws) > 1 {
-				cs = d.addName(cs, i, j, lower)
+			if k == len(ws) {
+				cs = d.addName(cs, i, j, append([]string(nil), ws...))
+				done = true
+				break
+			}
+		}
+		if done {
+			continue
+		}
+		// a single word of an entry, written with a capital (or in capitals); a one-word
+		// entry matches in any case.
+		for _, h := range hits {
+			ws := d.r.list[h.entry]
+			if len(ws) > 1 && !(capitalised(w) || allUpper(w)) {
 				continue
 			}
-			// single word of the entry, written with a capital (or anywhere in capitals).
-			w := d.word(i)
-			if !(capitalised(w) || allUpper(w)) && len(ws) > 1 {
-				continue
-			}
-			for k := range ws {
-				if len(lower[k]) >= 2 && !stopNames[lower[k]] && wordMatch(w, lower[k]) {
-					cs = d.addName(cs, i, i+1, []string{lower[k]})
-					break
-				}
+			if l := ws[h.word]; len(l) >= 2 && !stopNames[l] {
+				cs = d.addName(cs, i, i+1, []string{l})
+				break
 			}
 		}
 	}
 	return cs
+}
+
+// listWord is word k of list entry e.
+type listWord struct{ entry, word int }
+
+// listIndex finds list words equal to, or (for five or more letters) one edit from, a word.
+type listIndex struct {
+	exact map[string][]listWord
+	long  []string // distinct list words of five or more letters
+	where map[string][]listWord
+}
+
+func newListIndex(list [][]string) *listIndex {
+	ix := &listIndex{exact: map[string][]listWord{}, where: map[string][]listWord{}}
+	for e, ws := range list {
+		for k, w := range ws {
+			lw := ws[k]
+			ix.exact[lw] = append(ix.exact[lw], listWord{e, k})
+			if utf8.RuneCountInString(w) >= 5 {
+				if _, ok := ix.where[lw]; !ok {
+					ix.long = append(ix.long, lw)
+				}
+				ix.where[lw] = append(ix.where[lw], listWord{e, k})
+			}
+		}
+	}
+	return ix
+}
+
+// lookup appends to dst the list words matching the lower-case word lw.
+func (ix *listIndex) lookup(lw string, fuzzy bool, dst []listWord) []listWord {
+	dst = append(dst, ix.exact[lw]...)
+	if !fuzzy || len(lw) < 4 {
+		return dst
+	}
+	for _, l := range ix.long {
+		if l == lw || len(l)-len(lw) > 1 || len(lw)-len(l) > 1 {
+			continue
+		}
+		if editWithin1(lw, l) {
+			dst = append(dst, ix.where[l]...)
+		}
+	}
+	return dst
 }
 
 // wordMatch reports whether w equals the lower-case listed word l ignoring case, or, when
@@ -458,7 +537,49 @@ func wordMatch(w, l string) bool {
 // substitution, insertion or deletion of one rune or the swap of two neighbouring runes
 // (optimal string alignment distance, Damerau 1964).
 func editWithin1(a, b string) bool {
-	ra, rb := []rune(a), []rune(b)
+	if isASCII(a) && isASCII(b) {
+		return editWithin1Bytes([]byte(a), []byte(b))
+	}
+	return editWithin1Runes([]rune(a), []rune(b))
+}
+
+func isASCII(s string) bool {
+	for i := 0; i < len(s); i++ {
+		if s[i] >= 0x80 {
+			return false
+		}
+	}
+	return true
+}
+
+func editWithin1Bytes(ra, rb []byte) bool {
+	if len(ra) < len(rb) {
+		ra, rb = rb, ra
+	}
+	switch len(ra) - len(rb) {
+	case 0:
+		i := 0
+		for i < len(ra) && ra[i] == rb[i] {
+			i++
+		}
+		if i == len(ra) {
+			return true
+		}
+		if string(ra[i+1:]) == string(rb[i+1:]) {
+			return true // substitution
+		}
+		return i+1 < len(ra) && ra[i] == rb[i+1] && ra[i+1] == rb[i] && string(ra[i+2:]) == string(rb[i+2:])
+	case 1:
+		i := 0
+		for i < len(rb) && ra[i] == rb[i] {
+			i++
+		}
+		return string(ra[i+1:]) == string(rb[i:])
+	}
+	return false
+}
+
+func editWithin1Runes(ra, rb []rune) bool {
 	if len(ra) < len(rb) {
 		ra, rb = rb, ra
 	}
@@ -515,4 +636,12 @@ func (d *doc) nameWords(s, e int) []string {
 		}
 	}
 	return out
+}
+
+// quoted reports whether tokens i..j are wrapped in quotation marks.
+func (d *doc) quoted(i, j int) bool {
+	q := func(k int) bool {
+		return k >= 0 && k < len(d.toks) && d.toks[k].kind == tPunct && strings.ContainsAny(d.word(k), "\"“”'‘’")
+	}
+	return q(i-1) && q(j+1)
 }

@@ -32,7 +32,8 @@ type Options struct {
 // Redactor redacts narratives. It is safe for concurrent use.
 type Redactor struct {
 	opt   Options
-	list  [][]string // tokenised Names entries
+	list  [][]string // tokenised Names entries, lower case
+	index *listIndex
 	allow [][]string // tokenised Allow entries
 }
 
@@ -45,7 +46,13 @@ func New(opt Options) (*Redactor, error) {
 		if len(ws) == 0 {
 			return nil, fmt.Errorf("redact: Names[%d] %q has no letters", i, n)
 		}
+		for k := range ws {
+			ws[k] = strings.ToLower(ws[k])
+		}
 		r.list = append(r.list, ws)
+	}
+	if len(r.list) > 0 {
+		r.index = newListIndex(r.list)
 	}
 	for i, a := range opt.Allow {
 		ws := wordsOf(a)
@@ -388,6 +395,7 @@ func (d *doc) occurrences(needle string) []int {
 	if off < 0 {
 		return nil
 	}
+	d.index()
 	var out []int
 	for _, ws := range d.wordIndex[first] {
 		s := ws - off

@@ -34,18 +34,106 @@ func (d *doc) cueBefore(s, window int, re *regexp.Regexp) bool {
 	return re.MatchString(d.text[a:s])
 }
 
+// scan runs re over the parts of the text around trigger offsets and calls f with each
+// match's submatch offsets made absolute. Each trigger t is widened to
+// [t-before, t+after), then out to whitespace on both sides so that \b and the detectors'
+// own boundary checks see what they would in the whole text; overlapping windows merge.
+// Running the regexps only where a match can be keeps redaction fast on long narratives.
+func (d *doc) scan(re *regexp.Regexp, trig []int, before, after int, f func(m []int)) {
+	if len(trig) == 0 {
+		return
+	}
+	text := d.text
+	ws := make([][2]int, 0, len(trig))
+	for _, t := range trig {
+		a, b := t-before, t+after
+		if a < 0 {
+			a = 0
+		}
+		if b > len(text) {
+			b = len(text)
+		}
+		for a > 0 && !isSpaceByte(text[a-1]) {
+			a--
+		}
+		for b < len(text) && !isSpaceByte(text[b]) {
+			b++
+		}
+		if n := len(ws); n > 0 && a <= ws[n-1][1] {
+			if b > ws[n-1][1] {
+				ws[n-1][1] = b
+			}
+			continue
+		}
+		ws = append(ws, [2]int{a, b})
+	}
+	for _, w := range ws {
+		for _, m := range re.FindAllStringSubmatchIndex(text[w[0]:w[1]], -1) {
+			for i := range m {
+				if m[i] >= 0 {
+					m[i] += w[0]
+				}
+			}
+			f(m)
+		}
+	}
+}
+
+func isSpaceByte(b byte) bool {
+	return b == ' ' || b == '\n' || b == '\t' || b == '\r' || b == '\f' || b == '\v'
+}
+
+// triggers returns the starts of tokens for which keep is true, in order.
+func (d *doc) triggers(keep func(i int) bool) []int {
+	var out []int
+	for i := range d.toks {
+		if keep(i) {
+			out = append(out, d.toks[i].start)
+		}
+	}
+	return out
+}
+
+// wordIn returns a trigger test for word tokens whose lower-case form is in set.
+func (d *doc) wordIn(set map[string]bool) func(i int) bool {
+	return func(i int) bool {
+		return d.toks[i].kind == tWord && set[d.lower[i]]
+	}
+}
+
+// numLen returns a trigger test for digit tokens of the given lengths.
+func (d *doc) numLen(ls ...int) func(i int) bool {
+	return func(i int) bool {
+		if d.toks[i].kind != tNum {
+			return false
+		}
+		n := d.toks[i].end - d.toks[i].start
+		for _, l := range ls {
+			if n == l {
+				return true
+			}
+		}
+		return false
+	}
+}
+
 // E-mail: RFC 5322 section 3.4.1 addr-spec restricted to dot-atom local parts (atext of
 // section 3.2.3 minus the quote characters ' and `) and a domain of dotted labels (RFC 1035
 // letters, digits, inner hyphens) ending in a label of two or more letters.
 var emailRe = regexp.MustCompile(`[A-Za-z0-9!#$%&*+/=?^_{|}~-]+(?:\.[A-Za-z0-9!#$%&*+/=?^_{|}~-]+)*@(?:[A-Za-z0-9](?:[A-Za-z0-9-]{0,61}[A-Za-z0-9])?\.)+[A-Za-z]{2,63}`)
 
 func (d *doc) emails(cs []cand) []cand {
-	for _, m := range emailRe.FindAllStringIndex(d.text, -1) {
-		if d.wordAfter(m[1]) {
-			continue
+	var at []int
+	for i := 0; i < len(d.text); i++ {
+		if d.text[i] == '@' {
+			at = append(at, i)
 		}
-		cs = append(cs, cand{typ: Email, start: m[0], end: m[1]})
 	}
+	d.scan(emailRe, at, 0, 1, func(m []int) {
+		if !d.wordAfter(m[1]) {
+			cs = append(cs, cand{typ: Email, start: m[0], end: m[1]})
+		}
+	})
 	return cs
 }
 
@@ -60,34 +148,34 @@ var (
 )
 
 func (d *doc) phones(cs []cand) []cand {
-	for _, m := range phoneRe.FindAllStringSubmatchIndex(d.text, -1) {
+	trig := d.triggers(d.numLen(3, 10, 11))
+	d.scan(phoneRe, trig, 4, 32, func(m []int) {
 		s, e := m[0], m[1]
 		if d.wordBefore(s) || d.wordAfter(e) {
-			continue
+			return
 		}
 		// a run of ten digits with nothing between them needs a cue.
 		if m[2] < 0 && m[6] == m[7] && m[10] == m[11] && d.text[s] != '+' && !d.cueBefore(s, 24, phoneCueRe) {
-			continue
+			return
 		}
-		// separators must be consistent-looking: "555-555 0123" is fine, "5555-55-0123" cannot match.
-		if s > 0 && (d.text[s-1] == '-' || d.text[s-1] == '/') && s > 1 && isDigitByte(d.text[s-2]) {
-			continue // part of a longer dashed number
+		if s > 1 && (d.text[s-1] == '-' || d.text[s-1] == '/') && isDigitByte(d.text[s-2]) {
+			return // part of a longer dashed number
 		}
 		cs = append(cs, cand{typ: Phone, start: s, end: e})
-	}
-	for _, m := range phone7Re.FindAllStringIndex(d.text, -1) {
+	})
+	d.scan(phone7Re, d.triggers(d.numLen(3)), 0, 9, func(m []int) {
 		s, e := m[0], m[1]
 		if s > 0 && (d.text[s-1] == '-' || d.text[s-1] == '.' || d.text[s-1] == ')') {
-			continue
+			return
 		}
 		if e < len(d.text)-1 && (d.text[e] == '-' || d.text[e] == '.') && isDigitByte(d.text[e+1]) {
-			continue
+			return
 		}
 		if !d.cueBefore(s, 24, phoneCueRe) {
-			continue
+			return
 		}
 		cs = append(cs, cand{typ: Phone, start: s, end: e})
-	}
+	})
 	return cs
 }
 
@@ -111,26 +199,23 @@ func validSSN(area, group, serial string) bool {
 }
 
 func (d *doc) ssns(cs []cand) []cand {
-	for _, m := range ssnRe.FindAllStringSubmatchIndex(d.text, -1) {
+	d.scan(ssnRe, d.triggers(d.numLen(3, 9)), 0, 12, func(m []int) {
 		s, e := m[0], m[1]
 		sep1, sep2 := d.text[m[4]:m[5]], d.text[m[8]:m[9]]
-		if sep1 != sep2 {
-			continue
-		}
-		if !validSSN(d.text[m[2]:m[3]], d.text[m[6]:m[7]], d.text[m[10]:m[11]]) {
-			continue
+		if sep1 != sep2 || !validSSN(d.text[m[2]:m[3]], d.text[m[6]:m[7]], d.text[m[10]:m[11]]) {
+			return
 		}
 		if sep1 != "-" && !d.cueBefore(s, 24, ssnCueRe) {
-			continue
+			return
 		}
 		if s > 1 && (d.text[s-1] == '-' || d.text[s-1] == '.') && isDigitByte(d.text[s-2]) {
-			continue
+			return
 		}
 		if e < len(d.text)-1 && (d.text[e] == '-' || d.text[e] == '.') && isDigitByte(d.text[e+1]) {
-			continue
+			return
 		}
 		cs = append(cs, cand{typ: SSN, start: s, end: e})
-	}
+	})
 	return cs
 }
 
@@ -139,7 +224,7 @@ func (d *doc) ssns(cs []cand) []cand {
 // by its position weight, the products summed, and the sum taken mod 11; a remainder of 10
 // is written X.
 var (
-	vinRe    = regexp.MustCompile(`\b[A-HJ-NPR-Za-hj-npr-z0-9]{17}\b`)
+	vinRe    = regexp.MustCompile(`^[A-HJ-NPR-Za-hj-npr-z0-9]{17}$`)
 	vinCueRe = regexp.MustCompile(`(?i)\bvin\b[^.\n]*$`)
 )
 
@@ -154,7 +239,7 @@ func vinValue(c byte) int {
 	case c >= 'a' && c <= 'z':
 		c -= 'a' - 'A'
 	}
-	const table = "12345678-12345-7-9-23456789" // A..Z; I, O, Q not allowed
+	const table = "12345678-12345-7-923456789" // A..Z; I, O, Q not allowed
 	if c < 'A' || c > 'Z' || table[c-'A'] == '-' {
 		return -1
 	}
@@ -197,8 +282,12 @@ func ValidVIN(vin string) bool {
 }
 
 func (d *doc) vins(cs []cand) []cand {
-	for _, m := range vinRe.FindAllStringIndex(d.text, -1) {
+	for _, st := range d.runs17 {
+		m := []int{st, st + 17}
 		v := d.text[m[0]:m[1]]
+		if !vinRe.MatchString(v) {
+			continue
+		}
 		hasDigit, hasLetter := false, false
 		for i := 0; i < len(v); i++ {
 			if isDigitByte(v[i]) {
@@ -225,16 +314,19 @@ const (
 	dobGap   = `[\s:;,(=#-]*(?:(?:on|of|is|was|in|listed|given|as|reported|approx\.?|approximately)[\s:;,(=#-]+){0,3}`
 )
 
+var dobTrig = set("dob d date birth birthdate birthday born")
+
 var (
 	dobRe      = regexp.MustCompile(`(?i)` + dobCue + dobGap + `(` + datePat + `|[0-9]{4})\b`)
 	dobAfterRe = regexp.MustCompile(`(?i)\b(` + datePat + `)\s?\(?\s?(?:d\.?o\.?b\b\.?)`)
 )
 
 func (d *doc) dobs(cs []cand) []cand {
-	for _, m := range dobRe.FindAllStringSubmatchIndex(d.text, -1) {
+	trig := d.triggers(d.wordIn(dobTrig))
+	d.scan(dobRe, trig, 0, 64, func(m []int) {
 		s, e := m[2], m[3]
 		if d.wordAfter(e) {
-			continue
+			return
 		}
 		v := d.text[s:e]
 		if len(v) == 4 && !strings.ContainsAny(v, "/.- ") {
@@ -242,18 +334,23 @@ func (d *doc) dobs(cs []cand) []cand {
 			y, _ := strconv.Atoi(v)
 			cue := strings.ToLower(d.text[m[0]:s])
 			if y < 1900 || y > 2099 || !strings.HasPrefix(cue, "born") {
-				continue
+				return
 			}
 		}
 		cs = append(cs, cand{typ: DOB, start: s, end: e})
-	}
-	for _, m := range dobAfterRe.FindAllStringSubmatchIndex(d.text, -1) {
+	})
+	d.scan(dobAfterRe, trig, 40, 8, func(m []int) {
 		cs = append(cs, cand{typ: DOB, start: m[2], end: m[3]})
-	}
+	})
 	return cs
 }
 
 // Ages: "age 45", "aged 45", "23 y/o", "23 yo", "45 yoa", "45-year-old", "45 years of age".
+var (
+	ageTrig1 = set("age aged ages")
+	ageTrig2 = set("y yo yoa yr yrs year years year-old years-old yr-old")
+)
+
 var (
 	ageBeforeRe = regexp.MustCompile(`(?i)\b(?:age|aged|ages)\s?[:=]?\s?([0-9]{1,3})\b`)
 	ageAfterRe  = regexp.MustCompile(`(?i)\b([0-9]{1,3})\s?-?\s?(?:y/o|y\.o\.?|yoa|yo|yrs?\.?\s?old|years?[\s-]old|years?\s+of\s+age|yr[\s-]old)`)
@@ -270,21 +367,19 @@ func (d *doc) ages(cs []cand) []cand {
 		}
 		cs = append(cs, cand{typ: Age, start: m[0], end: m[1]})
 	}
-	for _, m := range ageBeforeRe.FindAllStringSubmatchIndex(d.text, -1) {
-		add(m)
-	}
-	for _, m := range ageAfterRe.FindAllStringSubmatchIndex(d.text, -1) {
-		add(m)
-	}
+	d.scan(ageBeforeRe, d.triggers(d.wordIn(ageTrig1)), 0, 12, add)
+	d.scan(ageAfterRe, d.triggers(d.wordIn(ageTrig2)), 8, 24, add)
 	return cs
 }
 
 // Plates: a cue, optional filler ("#", "no.", "number", a state code), then a plate of 2-8
 // letters and digits with at least one digit, in one or two groups.
-var plateRe = regexp.MustCompile(`(?i)\b(?:license\s+plate|licence\s+plate|plates?|tags?|registration|reg|lic|license|licence|lp)\b\.?(?:\s?(?:#|no\.?|num\.?|nbr\.?|number|:|-|reading|of|was|is|displaying|bearing|showing|state)\s?|\s+[A-Z]{2}\s+)*\s?([A-Z0-9]{1,4}(?:[ -][A-Z0-9]{1,5})?|[A-Z0-9]{5,8})\b`)
+var plateTrig = set("license licence plate plates tag tags registration reg lic lp")
+
+var plateRe = regexp.MustCompile(`(?i)\b(?:license\s+plate|licence\s+plate|plates?|tags?|registration|reg|lic|license|licence|lp)\b\.?(?:\s?(?:#|no\.?|num\.?|nbr\.?|number|:|-|reading|of|was|is|displaying|bearing|showing|state)\s?|\s+(?-i:[A-Z]{2})\s+)*\s?(?-i:([A-Z0-9]{1,4}(?:[ -][A-Z0-9]{1,5})?|[A-Z0-9]{5,8}))\b`)
 
 func (d *doc) plates(cs []cand) []cand {
-	for _, m := range plateRe.FindAllStringSubmatchIndex(d.text, -1) {
+	d.scan(plateRe, d.triggers(d.wordIn(plateTrig)), 0, 48, func(m []int) {
 		s, e := m[2], m[3]
 		v := d.text[s:e]
 		letters, digits := 0, 0
@@ -297,35 +392,37 @@ func (d *doc) plates(cs []cand) []cand {
 			}
 		}
 		if digits == 0 || letters+digits < 2 || letters+digits > 8 {
-			continue
+			return
 		}
 		if letters == 0 {
 			// all digits: at least three, and not a year.
 			if digits < 3 {
-				continue
+				return
 			}
 			if y, err := strconv.Atoi(v); err == nil && len(v) == 4 && y >= 1900 && y <= 2099 {
-				continue
+				return
 			}
 		}
 		// the second group of a spaced plate must hold a digit, else drop it.
 		if i := strings.IndexAny(v, " "); i >= 0 && !strings.ContainsAny(v[i:], "0123456789") {
 			e = s + i
 			if !strings.ContainsAny(d.text[s:e], "0123456789") {
-				continue
+				return
 			}
 		}
 		cs = append(cs, cand{typ: Plate, start: s, end: e})
-	}
+	})
 	return cs
 }
 
 // Case numbers: a cue word, optional "#", "no.", "number", then an identifier with at least
 // four digits ("24-001234", "2021-00012", "R21-3456").
+var caseTrig = set("case incident inc report rpt file complaint cad event ticket citation warrant docket booking reference ref control ccn dr ir cr rms")
+
 var caseRe = regexp.MustCompile(`(?i)\b(?:case|incident|inc|report|rpt|file|complaint|cad|event|ticket|citation|warrant|docket|booking|reference|ref|control|ccn|dr|ir|cr|rms)\b\.?((?:\s?(?:#|no\.?|num\.?|nbr\.?|number|:)\s?)*)\s?([A-Z]{0,4}-?[0-9]{2,}(?:[-/][0-9A-Z]+)*)\b`)
 
 func (d *doc) caseNos(cs []cand) []cand {
-	for _, m := range caseRe.FindAllStringSubmatchIndex(d.text, -1) {
+	d.scan(caseRe, d.triggers(d.wordIn(caseTrig)), 0, 48, func(m []int) {
 		marker := strings.TrimSpace(d.text[m[2]:m[3]])
 		s, e := m[4], m[5]
 		v := d.text[s:e]
@@ -336,19 +433,23 @@ func (d *doc) caseNos(cs []cand) []cand {
 			}
 		}
 		if digits < 4 {
-			continue
+			return
 		}
 		if marker == "" {
 			if y, err := strconv.Atoi(v); err == nil && len(v) == 4 && y >= 1900 && y <= 2099 {
-				continue // "incident 2017" is a year
+				return // "incident 2017" is a year
 			}
-			// bare cue words that are also titles need a marker.
-			cue := strings.ToLower(d.text[m[0] : m[0]+2])
-			if cue == "dr" || cue == "ir" || cue == "cr" {
-				continue
+			// without a marker the number needs a dash, a letter or five digits ("Case 1150"
+			// is a bulldozer); cue words that are also titles always need a marker.
+			cue := strings.ToLower(d.text[m[0]:m[4]])
+			if strings.HasPrefix(cue, "dr") || strings.HasPrefix(cue, "ir") || strings.HasPrefix(cue, "cr") {
+				return
+			}
+			if digits < 5 && !strings.ContainsAny(v, "-/ABCDEFGHIJKLMNOPQRSTUVWXYZabcdefghijklmnopqrstuvwxyz") {
+				return
 			}
 		}
 		cs = append(cs, cand{typ: CaseNo, start: s, end: e})
-	}
+	})
 	return cs
 }

@@ -74,6 +74,8 @@ var (
 	slashRe = regexp.MustCompile(`\b(?i:at|on|near|by|of|from|to|toward|towards)\s((?:[A-Z][a-z]+|[0-9]{1,3}(?:st|nd|rd|th))\s?/\s?(?:[A-Z][a-z]+|[0-9]{1,3}(?:st|nd|rd|th)))\b`)
 )
 
+var cornerTrig = set("corner intersection")
+
 func (d *doc) addresses(cs []cand) []cand {
 	trim := func(s, e int) int {
 		for e > s && (d.text[e-1] == ' ' || d.text[e-1] == '\t') {
@@ -81,16 +83,51 @@ func (d *doc) addresses(cs []cand) []cand {
 		}
 		return e
 	}
-	for _, m := range addressRe.FindAllStringIndex(d.text, -1) {
-		cs = append(cs, cand{typ: Address, start: m[0], end: trim(m[0], m[1])})
-	}
-	for _, m := range blockRe.FindAllStringIndex(d.text, -1) {
-		cs = append(cs, cand{typ: Address, start: m[0], end: trim(m[0], m[1])})
-	}
-	for _, re := range []*regexp.Regexp{crossRe, cornerRe, slashRe} {
-		for _, m := range re.FindAllStringSubmatchIndex(d.text, -1) {
-			cs = append(cs, cand{typ: Address, start: m[2], end: trim(m[2], m[3])})
+	// a house number is followed by a capitalised word, an ordinal or "block".
+	nums := d.triggers(func(i int) bool {
+		t := d.toks[i]
+		if t.kind != tNum || t.end-t.start > 6 || i+1 >= len(d.toks) {
+			return false
 		}
-	}
+		n := d.toks[i+1]
+		if n.kind == tWord && n.start == t.end && n.end-n.start == 1 && i+2 < len(d.toks) {
+			n = d.toks[i+2] // "123A Elm St"
+		}
+		if d.lower[i+1] == "block" {
+			return true
+		}
+		if n.kind != tNum && (n.kind != tWord || d.text[n.start] < 'A' || d.text[n.start] > 'Z') {
+			return false
+		}
+		// a suffix word must follow within six tokens.
+		for k := i + 2; k < len(d.toks) && k <= i+7; k++ {
+			if d.toks[k].kind == tWord && streetSuffixes[d.lower[k]] != "" {
+				return true
+			}
+		}
+		return false
+	})
+	add := func(m []int) { cs = append(cs, cand{typ: Address, start: m[0], end: trim(m[0], m[1])}) }
+	d.scan(addressRe, nums, 0, 128, add)
+	d.scan(blockRe, nums, 0, 96, add)
+	sub := func(m []int) { cs = append(cs, cand{typ: Address, start: m[2], end: trim(m[2], m[3])}) }
+	// an intersection has a suffix word followed by a joining word or sign.
+	cross := d.triggers(func(i int) bool {
+		if d.toks[i].kind != tWord || streetSuffixes[strings.ToLower(d.word(i))] == "" {
+			return false
+		}
+		j := i + 1
+		if d.isPunct(j, ".") {
+			j++
+		}
+		if j >= len(d.toks) {
+			return false
+		}
+		w := strings.ToLower(d.word(j))
+		return w == "and" || w == "&" || w == "at" || w == "/" || w == "@"
+	})
+	d.scan(crossRe, cross, 64, 80, sub)
+	d.scan(cornerRe, d.triggers(d.wordIn(cornerTrig)), 0, 128, sub)
+	d.scan(slashRe, d.triggers(func(i int) bool { return d.isPunct(i, "/") }), 40, 40, sub)
 	return cs
 }

@@ -26,14 +26,15 @@ type doc struct {
 	r         *Redactor
 	masks     [][]int
 	toks      []tok
-	wordIndex map[string][]int // maximal letter-or-digit runs → their starts
+	lower     []string         // lower-case text of each word token ("" for others)
+	wordIndex map[string][]int // maximal letter-or-digit runs → their starts; see index
+	runs17    []int            // starts of letter-or-digit runs of exactly 17 bytes (VIN-shaped)
 	caps      bool             // the narrative is written mostly in capitals
 	allowIv   intervals
 }
 
 func (d *doc) tokenize() {
 	text := d.text
-	d.wordIndex = make(map[string][]int)
 	upper, letters := 0, 0
 	nl := 0
 	for i := 0; i < len(text); {
@@ -86,24 +87,27 @@ func (d *doc) tokenize() {
 			i += n
 		}
 	}
-	// maximal letter-or-digit runs, for finding other occurrences of a replaced text.
-	for i := 0; i < len(text); {
-		r, n := utf8.DecodeRuneInString(text[i:])
-		if !isWordRune(r) {
-			i += n
+	// letter-or-digit runs of 17 bytes are VIN-shaped.
+	for i := 0; i < len(d.toks); {
+		j, n := i, 0
+		for j < len(d.toks) && d.toks[j].kind != tPunct && (j == i || d.toks[j].start == d.toks[j-1].end) {
+			n += d.toks[j].end - d.toks[j].start
+			j++
+		}
+		if j == i {
+			i++
 			continue
 		}
-		j := i + n
-		for j < len(text) {
-			r2, n2 := utf8.DecodeRuneInString(text[j:])
-			if !isWordRune(r2) {
-				break
-			}
-			j += n2
+		if n == 17 && d.toks[j-1].end-d.toks[i].start == 17 && isASCII(text[d.toks[i].start:d.toks[j-1].end]) {
+			d.runs17 = append(d.runs17, d.toks[i].start)
 		}
-		w := text[i:j]
-		d.wordIndex[w] = append(d.wordIndex[w], i)
 		i = j
+	}
+	d.lower = make([]string, len(d.toks))
+	for i, t := range d.toks {
+		if t.kind == tWord {
+			d.lower[i] = strings.ToLower(text[t.start:t.end])
+		}
 	}
 	d.caps = letters >= 12 && upper*10 >= letters*7
 	for _, a := range d.r.allow {
@@ -171,4 +175,31 @@ func (d *doc) tokenAt(s int) int {
 		}
 	}
 	return lo
+}
+
+// index builds wordIndex: every maximal run of letters and digits, by its text.
+func (d *doc) index() {
+	if d.wordIndex != nil {
+		return
+	}
+	d.wordIndex = make(map[string][]int)
+	text := d.text
+	for i := 0; i < len(text); {
+		r, n := utf8.DecodeRuneInString(text[i:])
+		if !isWordRune(r) {
+			i += n
+			continue
+		}
+		j := i + n
+		for j < len(text) {
+			r2, n2 := utf8.DecodeRuneInString(text[j:])
+			if !isWordRune(r2) {
+				break
+			}
+			j += n2
+		}
+		w := text[i:j]
+		d.wordIndex[w] = append(d.wordIndex[w], i)
+		i = j
+	}
 }
