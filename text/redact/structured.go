@@ -53,11 +53,19 @@ func (d *doc) scan(re *regexp.Regexp, trig []int, before, after int, f func(m []
 		if b > len(text) {
 			b = len(text)
 		}
-		for a > 0 && !isSpaceByte(text[a-1]) {
+		// widen to whitespace, but never back past the previous window nor more than 256
+		// bytes, and forward only past the previous window: linear in all.
+		floor := a - 256
+		if n := len(ws); n > 0 && ws[n-1][1] > floor {
+			floor = ws[n-1][1]
+		}
+		for a > 0 && a > floor && !isSpaceByte(text[a-1]) {
 			a--
 		}
-		for b < len(text) && !isSpaceByte(text[b]) {
-			b++
+		if n := len(ws); n == 0 || b > ws[n-1][1] {
+			for b < len(text) && !isSpaceByte(text[b]) {
+				b++
+			}
 		}
 		if n := len(ws); n > 0 && a <= ws[n-1][1] {
 			if b > ws[n-1][1] {

@@ -81,6 +81,16 @@ func (d *doc) addresses(cs []cand) []cand {
 		for e > s && (d.text[e-1] == ' ' || d.text[e-1] == '\t') {
 			e--
 		}
+		// a final "." belongs to the address only after an abbreviation ("St.").
+		if e > s && d.text[e-1] == '.' {
+			w := e - 1
+			for w > s && isAlnumByte(d.text[w-1]) {
+				w--
+			}
+			if ab := strings.ToLower(d.text[w : e-1]); len(ab) > 4 || streetSuffixes[ab] == "" {
+				e--
+			}
+		}
 		return e
 	}
 	// a house number is followed by a capitalised word, an ordinal or "block".
