@@ -21,6 +21,7 @@ var (
 	surnames         map[string]bool
 	stopNames        map[string]bool // capitalised words that never start or continue a name
 	orgWords         map[string]bool // words that make a capitalised run a business or place
+	orgOnly          map[string]bool // orgWords without the street suffixes
 	titleWords       = map[string]bool{"mr": true, "mrs": true, "ms": true, "miss": true, "mx": true, "dr": true, "mister": true}
 	personVerbs      map[string]bool
 	personBefore     = map[string]bool{"with": true, "told": true, "asked": true, "and": true, "saw": true, "by": true, "told,": true, "called": true, "met": true, "per": true}
@@ -83,6 +84,10 @@ func loadLists() {
 	authority commission community elementary middle high institute library museum theater
 	theatre stadium arena hall tower towers building bldg complex estates gardens heights
 	terrace village woods hills valley bay beach island harbor port point ridge springs falls`)
+	orgOnly = map[string]bool{}
+	for k := range orgWords {
+		orgOnly[k] = true
+	}
 	for k := range streetSuffixes {
 		orgWords[k] = true
 	}
@@ -240,6 +245,11 @@ func (d *doc) addName(cs []cand, si, ei int, parts []string) []cand {
 	if d.allowed(s, e) {
 		return cs
 	}
+	// "contacted Emergency Medical Services": a run ending in an organisation word whose
+	// first word is no given name is not a person.
+	if len(parts) >= 2 && orgOnly[parts[len(parts)-1]] && !givenNames[parts[0]] && !surnames[parts[len(parts)-1]] {
+		return cs
+	}
 	return append(cs, cand{typ: Name, start: s, end: e, parts: parts})
 }
 
@@ -393,6 +403,17 @@ func (d *doc) heuristicNames(cs []cand) []cand {
 			fw, lw := d.word(idx[0]), d.word(idx[len(idx)-1])
 			firstOK := givenNames[first] || !isDictWord(fw)
 			lastOK := surnames[strings.ToLower(lw)] || !isDictWord(lw)
+			// a person's context before or a person's verb after vouches for a surname that
+			// is also a dictionary word ("Staff called Tamo Bromley").
+			prev := ""
+			if idx[0] > 0 && d.toks[idx[0]-1].kind == tWord {
+				prev = d.lower[idx[0]-1]
+			}
+			last := idx[len(idx)-1]
+			verb := last+1 < len(d.toks) && d.toks[last+1].kind == tWord && personVerbs[d.lower[last+1]]
+			if firstOK && !lastOK && (personBefore[prev] || verb) && !orgWords[strings.ToLower(lw)] {
+				lastOK = true
+			}
 			ok = nonDict >= 1 && firstOK && lastOK
 			if d.quoted(idx[0], idx[len(idx)-1]) {
 				ok = false

@@ -58,18 +58,18 @@ func suffixPat() string {
 
 var (
 	// street name words: capitalised words or ordinals ("4th").
-	streetWord  = `(?:[0-9]{1,3}(?:st|nd|rd|th)|[A-Z][A-Za-z'.-]*)`
+	streetWord  = `(?:[0-9]{1,3}(?:st|nd|rd|th)|[A-Z][A-Za-z'-]*)`
 	directional = `(?:(?:[NSEW]|NE|NW|SE|SW|North|South|East|West|NORTH|SOUTH|EAST|WEST)\.?\s)`
 	unitPat     = `(?:,?\s(?i:apt|apartment|unit|suite|ste|rm|room|lot|bldg|#)\.?\s?#?\s?[A-Za-z0-9-]{1,6}\b)`
 	streetPat   = directional + `?(?:` + streetWord + `\s){1,3}` + suffixPat() + `\b\.?`
 	// house number + street + suffix, optional trailing directional and unit.
 	addressRe = regexp.MustCompile(`\b[0-9]{1,6}[A-Za-z]?(?:-[0-9]{1,5})?\s` + streetPat + `(?:\s(?:[NSEW]|NE|NW|SE|SW)\b)?` + unitPat + `?`)
 	// "the 100 block of Main St": the block number and street.
-	blockRe = regexp.MustCompile(`\b[0-9]{1,6}\s(?i:block)\s(?i:of)\s` + directional + `?(?:` + streetWord + `\s?){1,3}(?:` + suffixPat() + `\b\.?)?`)
+	blockRe = regexp.MustCompile(`\b[0-9]{1,6}\s(?i:block)\s(?i:of)\s` + directional + `?(?:` + streetWord + `\s?){1,3}(?:` + suffixPat() + `\b)?\.?`)
 	// "Elm St and 4th Ave".
 	crossRe = regexp.MustCompile(`(?:^|[^A-Za-z0-9])(` + streetPat + `\s?(?:and|&|at|/|@)\s?` + streetPat + `)`)
 	// "the corner of Elm and Oak", "intersection of Main St & 4th Ave".
-	cornerRe = regexp.MustCompile(`(?i:corner|intersection)\s(?i:of)\s((?:` + streetWord + `\s?){1,3}(?:` + suffixPat() + `\b\.?)?\s?(?:and|&|/)\s?(?:` + streetWord + `\s?){0,2}` + streetWord + `(?:\s` + suffixPat() + `\b\.?)?)`)
+	cornerRe = regexp.MustCompile(`(?i:corner|intersection)\s(?i:of)\s(` + streetWord + `(?:\s` + streetWord + `){0,2}(?:\s` + suffixPat() + `\b\.?)?\s?(?:and|&|/)\s?` + streetWord + `(?:\s` + streetWord + `){0,2}(?:\s` + suffixPat() + `\b\.?)?)`)
 	// "at Main/Oak".
 	slashRe = regexp.MustCompile(`\b(?i:at|on|near|by|of|from|to|toward|towards)\s((?:[A-Z][a-z]+|[0-9]{1,3}(?:st|nd|rd|th))\s?/\s?(?:[A-Z][a-z]+|[0-9]{1,3}(?:st|nd|rd|th)))\b`)
 )
