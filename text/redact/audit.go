@@ -53,6 +53,17 @@ func (c *Counts) String() string {
 	return b.String()
 }
 
+// IsPrivateName reports whether the file name of path (its last element) contains
+// "private", ignoring case: the test a caller applies before writing raw or review text to
+// path, and before publishing anything.
+func IsPrivateName(path string) bool {
+	base := path
+	if i := strings.LastIndexAny(base, `/\`); i >= 0 {
+		base = base[i+1:]
+	}
+	return strings.Contains(strings.ToLower(base), "private")
+}
+
 // ContextBytes is how much text each side of a redaction the review file shows.
 const ContextBytes = 40
 
@@ -61,9 +72,10 @@ const ContextBytes = 40
 // one.
 //
 // The review file holds the very information redaction removes. Give it a file name that
-// contains "private" (for example "incidents.private-review.csv"), keep it off anything
-// published or shared, and delete it when the check is done. NewReviewWriter does not
-// choose or check the name; callers that publish files must refuse to publish such a file.
+// contains "private" (for example "incidents.private-review.csv"; see IsPrivateName), keep
+// it off anything published or shared, and delete it when the check is done.
+// NewReviewWriter does not choose or check the name; callers that publish files must refuse
+// to publish such a file.
 //
 // Columns: record, type, start, end, placeholder, before, text, after. Start and end are
 // byte offsets into the original narrative. Like csv.Writer, errors are reported by Flush

@@ -210,6 +210,8 @@ var nameCues = [][]string{
 	{"daughter"}, {"wife"}, {"husband"}, {"girlfriend"}, {"boyfriend"}, {"brother"},
 	{"sister"}, {"neighbor"}, {"neighbour"}, {"friend"}, {"parent"}, {"guardian"},
 	{"employee"}, {"coworker"}, {"supervisor"}, {"manager"},
+	// police shorthand: V/ victim, S/ suspect, R/P reporting party, W/ is "with".
+	{"v", "/"}, {"s", "/"}, {"r", "/", "p"},
 }
 
 // cuesByFirst indexes nameCues by their first word.
@@ -228,8 +230,8 @@ func (d *doc) matchCue(i int, cue []string) int {
 		if j >= len(d.toks) {
 			return -1
 		}
-		if w == "." {
-			if !d.isPunct(j, ".") {
+		if w == "." || w == "/" {
+			if !d.isPunct(j, w) {
 				return -1
 			}
 		} else if d.toks[j].kind != tWord || !strings.EqualFold(d.word(j), w) {

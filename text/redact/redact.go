@@ -292,25 +292,51 @@ func (d *doc) finish(cs []cand, nextName int) []Span {
 	}
 	var extras []extra
 	seen := map[string]bool{}
+	type mention struct{ pos, num int }
+	words := map[string][]mention{} // name word → its mentions, in text order
 	for i, c := range cs {
-		needles := []string{d.text[c.start:c.end]}
+		nd := d.text[c.start:c.end]
+		key := strconv.Itoa(int(c.typ)) + "\x00" + strconv.Itoa(nums[i]) + "\x00" + nd
 		if c.typ == Name {
-			needles = append(needles, d.nameWords(c.start, c.end)...)
+			for _, w := range d.nameWords(c.start, c.end) {
+				words[w] = append(words[w], mention{c.start, nums[i]})
+			}
 		}
-		for _, nd := range needles {
-			key := strconv.Itoa(int(c.typ)) + "\x00" + strconv.Itoa(nums[i]) + "\x00" + nd
-			if seen[key] || len(nd) < 2 {
+		if seen[key] || len(nd) < 2 {
+			continue
+		}
+		seen[key] = true
+		for _, s := range d.occurrences(nd) {
+			e := s + len(nd)
+			if iv.overlaps(s, e) || d.overlapsMask(s, e) || (c.typ == Name && d.allowed(s, e)) {
 				continue
 			}
-			seen[key] = true
-			for _, s := range d.occurrences(nd) {
-				e := s + len(nd)
-				if iv.overlaps(s, e) || d.overlapsMask(s, e) || (c.typ == Name && d.allowed(s, e)) {
-					continue
-				}
-				iv.add(s, e)
-				extras = append(extras, extra{cand{typ: c.typ, start: s, end: e}, nums[i]})
+			iv.add(s, e)
+			extras = append(extras, extra{cand{typ: c.typ, start: s, end: e}, nums[i]})
+		}
+	}
+	// A name word on its own ("Smith") goes to the person last mentioned with it before
+	// that point, or to the first such person when it comes before them all.
+	keys := make([]string, 0, len(words))
+	for w := range words {
+		keys = append(keys, w)
+	}
+	sort.Strings(keys)
+	for _, w := range keys {
+		ms := words[w]
+		for _, s := range d.occurrences(w) {
+			e := s + len(w)
+			if iv.overlaps(s, e) || d.overlapsMask(s, e) || d.allowed(s, e) {
+				continue
 			}
+			num := ms[0].num
+			for _, m := range ms {
+				if m.pos < s {
+					num = m.num
+				}
+			}
+			iv.add(s, e)
+			extras = append(extras, extra{cand{typ: Name, start: s, end: e}, num})
 		}
 	}
 	spans := make([]Span, 0, len(cs)+len(extras))

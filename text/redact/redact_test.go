@@ -194,6 +194,8 @@ func TestNames(t *testing.T) {
 		{"SUSPECT JOHN SMITH FLED ON FOOT.", "SUSPECT [NAME-1] FLED ON FOOT."},
 		{"The Honda Civic was parked on the sidewalk.", "The Honda Civic was parked on the sidewalk."},
 		{"Mr. [NAME-3] and Mr. Quosby", "Mr. [NAME-3] and Mr. [NAME-4]"},
+		{"V/ QUOSBY, ANN STATED S/ DELLWICK FLED.", "V/ [NAME-1] STATED S/ [NAME-2] FLED."},
+		{"Victim Mary Smith and suspect John Smith argued; Smith left.", "Victim [NAME-1] and suspect [NAME-2] argued; [NAME-2] left."},
 	} {
 		got, _ := r.Redact(c.in)
 		if got != c.out {
@@ -270,6 +272,17 @@ func TestReviewWriter(t *testing.T) {
 	c.Add(spans)
 	if c.String() != "name=1 phone=1" || c.Total() != 2 {
 		t.Errorf("counts %s", c.String())
+	}
+}
+
+func TestIsPrivateName(t *testing.T) {
+	for p, want := range map[string]bool{
+		"out/incidents.private-review.csv": true, "PRIVATE.txt": true, "private/review.csv": false,
+		"review.csv": false, `C:\\x\\Private_raw.csv`: true,
+	} {
+		if IsPrivateName(p) != want {
+			t.Errorf("IsPrivateName(%q) != %v", p, want)
+		}
 	}
 }
 
