@@ -1,0 +1,86 @@
+package redact
+
+import (
+	"bytes"
+	"encoding/csv"
+	"os"
+	"strings"
+	"testing"
+)
+
+// BenchmarkRedact measures throughput on generated narratives (goal, issue 6: at least
+// 5 MB/s).
+func BenchmarkRedact(b *testing.B) {
+	docs, listed := generate(2, 500)
+	r, _ := New(Options{Names: listed})
+	var sb strings.Builder
+	for _, d := range docs {
+		sb.WriteString(d.text)
+		sb.WriteString("\n\n")
+	}
+	texts := make([]string, len(docs))
+	n := 0
+	for i, d := range docs {
+		texts[i] = d.text
+		n += len(d.text)
+	}
+	b.SetBytes(int64(n))
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		for _, t := range texts {
+			r.Redact(t)
+		}
+	}
+}
+
+// BenchmarkPathological runs inputs built to provoke slow paths (long runs without spaces,
+// repeated cues, many triggers); each must stay roughly linear.
+func BenchmarkPathological(b *testing.B) {
+	r, _ := New(Options{Names: []string{"Tobin Marsh"}})
+	for _, c := range []struct{ name, in string }{
+		{"digits", strings.Repeat("555 ", 20000)},
+		{"emails", strings.Repeat("a@b.cc ", 10000)},
+		{"names", strings.Repeat("Mr. Quosby Zed ", 5000)},
+		{"streets", strings.Repeat("12 Elm St and ", 5000)},
+		{"nospace", strings.Repeat("1a@", 20000)},
+		{"ssn", strings.Repeat("123-45-6789 ", 5000)},
+	} {
+		b.Run(c.name, func(b *testing.B) {
+			b.SetBytes(int64(len(c.in)))
+			for i := 0; i < b.N; i++ {
+				r.Redact(c.in)
+			}
+		})
+	}
+}
+
+// BenchmarkRedactOSHA measures throughput on the real OSHA abstracts (few items to
+// redact), when shared/corpora is present.
+func BenchmarkRedactOSHA(b *testing.B) {
+	p := sharedFile("corpora/osha-abstracts/osha.csv")
+	if p == "" {
+		b.Skip("osha.csv not found")
+	}
+	raw, err := os.ReadFile(p)
+	if err != nil {
+		b.Fatal(err)
+	}
+	rows, err := csv.NewReader(bytes.NewReader(raw)).ReadAll()
+	if err != nil {
+		b.Fatal(err)
+	}
+	var texts []string
+	n := 0
+	for _, row := range rows[1:] {
+		texts = append(texts, row[2])
+		n += len(row[2])
+	}
+	r, _ := New(Options{})
+	b.SetBytes(int64(n))
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		for _, t := range texts {
+			r.Redact(t)
+		}
+	}
+}

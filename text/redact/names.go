@@ -1,0 +1,670 @@
+package redact
+
+import (
+	_ "embed"
+	"strings"
+	"sync"
+	"unicode"
+	"unicode/utf8"
+)
+
+//go:embed words_en.txt
+var wordsEN string
+
+//go:embed names_en.txt
+var namesEN string
+
+var (
+	listsOnce        sync.Once
+	dict             map[string]bool // ordinary English words
+	givenNames       map[string]bool
+	surnames         map[string]bool
+	stopNames        map[string]bool // capitalised words that never start or continue a name
+	orgWords         map[string]bool // words that make a capitalised run a business or place
+	orgOnly          map[string]bool // orgWords without the street suffixes
+	titleWords       = map[string]bool{"mr": true, "mrs": true, "ms": true, "miss": true, "mx": true, "dr": true, "mister": true}
+	personVerbs      map[string]bool
+	personBefore     = map[string]bool{"with": true, "told": true, "asked": true, "and": true, "saw": true, "by": true, "told,": true, "called": true, "met": true, "per": true}
+	placePrepsBefore = map[string]bool{"in": true, "at": true, "near": true, "into": true, "inside": true, "via": true}
+)
+
+func set(words string) map[string]bool {
+	m := map[string]bool{}
+	for _, w := range strings.Fields(words) {
+		m[w] = true
+	}
+	return m
+}
+
+func loadLists() {
+	dict = map[string]bool{}
+	for _, line := range strings.Split(wordsEN, "\n") {
+		if line == "" || line[0] == '#' {
+			continue
+		}
+		dict[line] = true
+	}
+	givenNames, surnames = map[string]bool{}, map[string]bool{}
+	for _, line := range strings.Split(namesEN, "\n") {
+		f := strings.Fields(line)
+		if len(f) < 2 || f[0] == "#" {
+			continue
+		}
+		m := givenNames
+		if f[0] == "s" {
+			m = surnames
+		}
+		for _, w := range f[1:] {
+			m[w] = true
+		}
+	}
+	stopNames = set(`the a an he she they them his her hers it its this that these those i we you
+	me my our your their who whom whose what when where which while why how then than there here
+	and or but nor so yet if at on in to from with by of for as into onto upon after before
+	also not no yes had has have was were is are be been being did do does said stated advised
+	unknown unk male female man woman boy girl officer officers ofc police dept department
+	sheriff deputy sergeant sgt lieutenant lt detective det corporal cpl captain capt chief
+	victim victims suspect suspects driver drivers caller witness witnesses complainant subject
+	juvenile passenger owner resident employee employees worker workers rp party
+	vehicle veh car truck van suv black white hispanic asian
+	monday tuesday wednesday thursday friday saturday sunday january february march april may
+	june july august september october november december
+	name phone email ssn dob age plate vin address case no
+	north south east west street avenue road drive lane court
+	mr mrs ms miss mx dr mister sir madam st`)
+	orgWords = set(`inc llc co corp corporation company companies ltd limited lp llp pllc
+	department dept county city town township village state university college school academy
+	hospital clinic center centre church bank store stores market restaurant cafe bar grill pub
+	motel hotel inn apartments apts plaza mall park lake river creek mountain mt fire police
+	sheriff station district services service group associates industries industrial
+	construction manufacturing farms farm ranch electric plumbing roofing builders contractors
+	foods products systems international national federal united airport highway interstate
+	route memorial medical health healthcare pharmacy market supermarket foundation society club
+	association union committee council board court office agency bureau administration
+	authority commission community elementary middle high institute library museum theater
+	theatre stadium arena hall tower towers building bldg complex estates gardens heights
+	terrace village woods hills valley bay beach island harbor port point ridge springs falls`)
+	orgOnly = map[string]bool{}
+	for k := range orgWords {
+		orgOnly[k] = true
+	}
+	for k := range streetSuffixes {
+		orgWords[k] = true
+	}
+	personVerbs = set(`said says stated states told tells reported reports advised advises
+	explained admitted denied asked called yelled walked ran fled arrived left returned refused
+	was is had has went came got took gave saw heard`)
+}
+
+// isDictWord reports whether w (any case) is an ordinary English word.
+func isDictWord(w string) bool {
+	lw := strings.ToLower(w)
+	lw = strings.TrimSuffix(strings.TrimSuffix(lw, "'s"), "’s")
+	if dict[lw] {
+		return true
+	}
+	if strings.Contains(lw, "-") {
+		for _, p := range strings.Split(lw, "-") {
+			if !dict[p] {
+				return false
+			}
+		}
+		return true
+	}
+	return false
+}
+
+func isNameListed(w string) bool {
+	lw := strings.ToLower(w)
+	return givenNames[lw] || surnames[lw]
+}
+
+// capitalised: an upper-case first letter followed by at least one lower-case letter.
+func capitalised(w string) bool {
+	r, n := utf8.DecodeRuneInString(w)
+	if !unicode.IsUpper(r) {
+		return false
+	}
+	for _, c := range w[n:] {
+		if unicode.IsLower(c) {
+			return true
+		}
+	}
+	return false
+}
+
+func allUpper(w string) bool {
+	has := false
+	for _, c := range w {
+		if unicode.IsLower(c) {
+			return false
+		}
+		if unicode.IsUpper(c) {
+			has = true
+		}
+	}
+	return has
+}
+
+// isInitial reports whether token i is a single capital letter followed by ".".
+func (d *doc) isInitial(i int) bool {
+	if i >= len(d.toks) || d.toks[i].kind != tWord || d.toks[i].end-d.toks[i].start != 1 {
+		return false
+	}
+	c := d.text[d.toks[i].start]
+	return c >= 'A' && c <= 'Z' && d.isPunct(i+1, ".")
+}
+
+// nameToken reports whether token i can be part of a name after a cue.
+func (d *doc) nameToken(i int) bool {
+	if i >= len(d.toks) || d.toks[i].kind != tWord {
+		return false
+	}
+	w := d.word(i)
+	if len(w) < 2 || stopNames[strings.ToLower(w)] {
+		return false
+	}
+	if capitalised(w) {
+		return true
+	}
+	if allUpper(w) {
+		// In capitals a dictionary word ("FLED") ends the name unless it is a known name.
+		return !isDictWord(w) || isNameListed(w)
+	}
+	return false
+}
+
+// nameSeq reads a name starting at token i: up to three name words, with middle initials,
+// or "LAST, FIRST". It returns the index after the last token used and the name words.
+func (d *doc) nameSeq(i int) (end int, parts []string) {
+	j := i
+	for len(parts) < 3 && j < len(d.toks) {
+		if d.toks[j].nl > 1 && j > i {
+			break
+		}
+		if d.isInitial(j) && len(parts) > 0 && d.nameToken(j+2) {
+			j += 2
+			continue
+		}
+		if !d.nameToken(j) {
+			break
+		}
+		parts = append(parts, strings.ToLower(d.word(j)))
+		j++
+	}
+	if len(parts) == 1 && d.isPunct(j, ",") && d.nameToken(j+1) && givenNames[strings.ToLower(d.word(j+1))] {
+		parts = append(parts, strings.ToLower(d.word(j+1)))
+		j += 2
+	}
+	return j, parts
+}
+
+// cue phrases after which a name is expected.
+var nameCues = [][]string{
+	{"named"}, {"identified", "as"}, {"known", "as"}, {"aka"}, {"a", ".", "k", ".", "a", "."},
+	{"spoke", "with"}, {"spoke", "to"}, {"contacted"}, {"interviewed"}, {"arrested"},
+	{"met", "with"}, {"talked", "to"}, {"talked", "with"}, {"reporting", "party"},
+	{"victim"}, {"victims"}, {"suspect"}, {"suspects"}, {"driver"}, {"caller"}, {"witness"},
+	{"witnesses"}, {"complainant"}, {"subject"}, {"juvenile"}, {"rp"}, {"passenger"},
+	{"owner"}, {"resident"}, {"arrestee"}, {"patient"}, {"mother"}, {"father"}, {"son"},
+	{"daughter"}, {"wife"}, {"husband"}, {"girlfriend"}, {"boyfriend"}, {"brother"},
+	{"sister"}, {"neighbor"}, {"neighbour"}, {"friend"}, {"parent"}, {"guardian"},
+	{"employee"}, {"coworker"}, {"supervisor"}, {"manager"},
+	// police shorthand: V/ victim, S/ suspect, R/P reporting party, W/ is "with".
+	{"v", "/"}, {"s", "/"}, {"r", "/", "p"},
+}
+
+// cuesByFirst indexes nameCues by their first word.
+var cuesByFirst = func() map[string][][]string {
+	m := map[string][][]string{}
+	for _, c := range nameCues {
+		m[c[0]] = append(m[c[0]], c)
+	}
+	return m
+}()
+
+// matchCue returns the index after the cue phrase at token i, or -1.
+func (d *doc) matchCue(i int, cue []string) int {
+	j := i
+	for _, w := range cue {
+		if j >= len(d.toks) {
+			return -1
+		}
+		if w == "." || w == "/" {
+			if !d.isPunct(j, w) {
+				return -1
+			}
+		} else if d.toks[j].kind != tWord || !strings.EqualFold(d.word(j), w) {
+			return -1
+		}
+		j++
+	}
+	return j
+}
+
+func (d *doc) addName(cs []cand, si, ei int, parts []string) []cand {
+	s, e := d.toks[si].start, d.toks[ei-1].end
+	if d.allowed(s, e) {
+		return cs
+	}
+	// "contacted Emergency Medical Services": a run ending in an organisation word whose
+	// first word is no given name is not a person.
+	if len(parts) >= 2 && orgOnly[parts[len(parts)-1]] && !givenNames[parts[0]] && !surnames[parts[len(parts)-1]] {
+		return cs
+	}
+	return append(cs, cand{typ: Name, start: s, end: e, parts: parts})
+}
+
+func (d *doc) names(cs []cand) []cand {
+	listsOnce.Do(loadLists)
+	cs = d.listNames(cs)
+	for i := 0; i < len(d.toks); i++ {
+		if d.toks[i].kind != tWord {
+			continue
+		}
+		lw := d.lower[i]
+		// titles: "Mr. Quosby", "Dr Ann Lee"
+		if titleWords[lw] {
+			j := i + 1
+			if d.isPunct(j, ".") {
+				j++
+			}
+			if end, parts := d.nameSeq(j); len(parts) > 0 {
+				cs = d.addName(cs, j, end, parts)
+				i = end - 1
+			}
+			continue
+		}
+		for _, cue := range cuesByFirst[lw] {
+			j := d.matchCue(i, cue)
+			if j < 0 {
+				continue
+			}
+			// filler: punctuation and numbers ("Victim #1, Ann Lee", "suspect (S1) ...").
+			for k := 0; k < 4 && j < len(d.toks); k++ {
+				t := d.toks[j]
+				if t.kind == tNum || (t.kind == tPunct && strings.ContainsAny(d.word(j), ",:-#()")) {
+					j++
+					continue
+				}
+				break
+			}
+			if end, parts := d.nameSeq(j); len(parts) > 0 {
+				cs = d.addName(cs, j, end, parts)
+				i = end - 1
+			}
+			break
+		}
+	}
+	if !d.r.opt.NoHeuristicNames && !d.caps {
+		cs = d.heuristicNames(cs)
+	}
+	return cs
+}
+
+// sentenceStart reports whether token i begins a sentence.
+func (d *doc) sentenceStart(i int) bool {
+	j := i - 1
+	for j >= 0 && d.toks[j].kind == tPunct && strings.ContainsAny(d.word(j), "\"'“‘([") {
+		j--
+	}
+	if j < 0 || d.toks[j+1].nl > 0 {
+		return true
+	}
+	if d.toks[j].kind == tPunct && strings.ContainsAny(d.word(j), ".!?;:*•-") {
+		if d.word(j) == "." && j > 0 && d.toks[j-1].kind == tWord {
+			w := strings.ToLower(d.word(j - 1))
+			if titleWords[w] || len(w) == 1 {
+				return false
+			}
+		}
+		return true
+	}
+	return false
+}
+
+// heuristicNames finds capitalised words missing from the dictionary where a name stands:
+// runs of two to four capitalised words one of which is a known given name or not a
+// dictionary word, or a single such word inside a sentence.
+func (d *doc) heuristicNames(cs []cand) []cand {
+	for i := 0; i < len(d.toks); i++ {
+		if d.toks[i].kind != tWord || !capitalised(d.word(i)) {
+			continue
+		}
+		// collect the run.
+		var idx []int
+		j := i
+		for j < len(d.toks) {
+			if d.toks[j].kind == tWord && capitalised(d.word(j)) && (j == i || d.toks[j].nl == 0) {
+				idx = append(idx, j)
+				j++
+				continue
+			}
+			if len(idx) > 0 && d.isInitial(j) && d.toks[j+1].end < len(d.text) && j+2 < len(d.toks) && capitalised(d.word(j+2)) {
+				j += 2
+				continue
+			}
+			break
+		}
+		next := j
+		i = j - 1
+		if len(idx) > 4 {
+			continue
+		}
+		// an org or place word anywhere, or a number before, makes it not a person.
+		org := false
+		for _, k := range idx {
+			if orgWords[strings.ToLower(d.word(k))] {
+				org = true
+			}
+		}
+		if next < len(d.toks) && d.toks[next].kind == tWord && orgWords[strings.ToLower(d.word(next))] {
+			org = true
+		}
+		if org || (idx[0] > 0 && d.toks[idx[0]-1].kind == tNum) {
+			continue
+		}
+		// drop leading stop words and sentence-initial dictionary words.
+		for len(idx) > 0 {
+			w := d.word(idx[0])
+			lw := strings.ToLower(w)
+			if stopNames[lw] || titleWords[lw] || (d.sentenceStart(idx[0]) && isDictWord(w) && !givenNames[lw]) {
+				idx = idx[1:]
+				continue
+			}
+			break
+		}
+		if len(idx) == 0 {
+			continue
+		}
+		for len(idx) > 0 && stopNames[strings.ToLower(d.word(idx[len(idx)-1]))] {
+			idx = idx[:len(idx)-1]
+		}
+		if len(idx) == 0 {
+			continue
+		}
+		nonDict, listed := 0, 0
+		var parts []string
+		for _, k := range idx {
+			w := d.word(k)
+			if stopNames[strings.ToLower(w)] {
+				nonDict = -100 // a stop word inside the run: not a name
+			}
+			if !isDictWord(w) {
+				nonDict++
+			}
+			if isNameListed(w) {
+				listed++
+			}
+			parts = append(parts, strings.ToLower(w))
+		}
+		first := strings.ToLower(d.word(idx[0]))
+		ok := false
+		if len(idx) >= 2 {
+			// given-name position and surname position must both look like names.
+			fw, lw := d.word(idx[0]), d.word(idx[len(idx)-1])
+			firstOK := givenNames[first] || !isDictWord(fw)
+			lastOK := surnames[strings.ToLower(lw)] || !isDictWord(lw)
+			// a person's context before or a person's verb after vouches for a surname that
+			// is also a dictionary word ("Staff called Tamo Bromley").
+			prev := ""
+			if idx[0] > 0 && d.toks[idx[0]-1].kind == tWord {
+				prev = d.lower[idx[0]-1]
+			}
+			last := idx[len(idx)-1]
+			verb := last+1 < len(d.toks) && d.toks[last+1].kind == tWord && personVerbs[d.lower[last+1]]
+			if firstOK && !lastOK && (personBefore[prev] || verb) && !orgWords[strings.ToLower(lw)] {
+				lastOK = true
+			}
+			ok = nonDict >= 1 && firstOK && lastOK
+			if d.quoted(idx[0], idx[len(idx)-1]) {
+				ok = false
+			}
+		} else {
+			w := d.word(idx[0])
+			prev := ""
+			if idx[0] > 0 && d.toks[idx[0]-1].kind == tWord {
+				prev = strings.ToLower(d.word(idx[0] - 1))
+			}
+			// a single word needs a person's verb after it or a person's context before it.
+			ok = nonDict >= 1 && utf8.RuneCountInString(w) >= 3 && !placePrepsBefore[prev] && !d.quoted(idx[0], idx[0])
+			verb := next < len(d.toks) && d.toks[next].kind == tWord && personVerbs[strings.ToLower(d.word(next))]
+			ok = ok && (verb || personBefore[prev])
+		}
+		if ok {
+			cs = d.addName(cs, idx[0], idx[len(idx)-1]+1, parts)
+		}
+	}
+	return cs
+}
+
+// listNames finds the caller's listed names: whole entries (each word exact, or one edit
+// away for words of five or more letters) and single capitalised words of an entry.
+func (d *doc) listNames(cs []cand) []cand {
+	ix := d.r.index
+	if ix == nil {
+		return cs
+	}
+	var hits []listWord
+	for i := range d.toks {
+		if d.toks[i].kind != tWord {
+			continue
+		}
+		w := d.word(i)
+		// misspellings are looked for only in capitalised words that are not ordinary words.
+		fuzzy := (capitalised(w) || allUpper(w)) && !isDictWord(w)
+		hits = ix.lookup(d.lower[i], fuzzy, hits[:0])
+		if len(hits) == 0 {
+			continue
+		}
+		done := false
+		// whole entries starting here
+		for _, h := range hits {
+			ws := d.r.list[h.entry]
+			if h.word != 0 || len(ws) < 2 {
+				continue
+			}
+			j, k := i+1, 1
+			if d.isInitial(j) {
+				j += 2
+			}
+			for k < len(ws) && j < len(d.toks) && d.toks[j].kind == tWord && wordMatch(d.word(j), ws[k]) {
+				k++
+				j++
+				if k < len(ws) && d.isInitial(j) {
+					j += 2
+				}
+			}
+			if k == len(ws) {
+				cs = d.addName(cs, i, j, append([]string(nil), ws...))
+				done = true
+				break
+			}
+		}
+		if done {
+			continue
+		}
+		// a single word of an entry, written with a capital (or in capitals); a one-word
+		// entry matches in any case.
+		for _, h := range hits {
+			ws := d.r.list[h.entry]
+			if len(ws) > 1 && !(capitalised(w) || allUpper(w)) {
+				continue
+			}
+			if l := ws[h.word]; len(l) >= 2 && !stopNames[l] {
+				cs = d.addName(cs, i, i+1, []string{l})
+				break
+			}
+		}
+	}
+	return cs
+}
+
+// listWord is word k of list entry e.
+type listWord struct{ entry, word int }
+
+// listIndex finds list words equal to, or (for five or more letters) one edit from, a word.
+type listIndex struct {
+	exact map[string][]listWord
+	long  []string // distinct list words of five or more letters
+	where map[string][]listWord
+}
+
+func newListIndex(list [][]string) *listIndex {
+	ix := &listIndex{exact: map[string][]listWord{}, where: map[string][]listWord{}}
+	for e, ws := range list {
+		for k, w := range ws {
+			lw := ws[k]
+			ix.exact[lw] = append(ix.exact[lw], listWord{e, k})
+			if utf8.RuneCountInString(w) >= 5 {
+				if _, ok := ix.where[lw]; !ok {
+					ix.long = append(ix.long, lw)
+				}
+				ix.where[lw] = append(ix.where[lw], listWord{e, k})
+			}
+		}
+	}
+	return ix
+}
+
+// lookup appends to dst the list words matching the lower-case word lw.
+func (ix *listIndex) lookup(lw string, fuzzy bool, dst []listWord) []listWord {
+	dst = append(dst, ix.exact[lw]...)
+	if !fuzzy || len(lw) < 4 {
+		return dst
+	}
+	for _, l := range ix.long {
+		if l == lw || len(l)-len(lw) > 1 || len(lw)-len(l) > 1 {
+			continue
+		}
+		if editWithin1(lw, l) {
+			dst = append(dst, ix.where[l]...)
+		}
+	}
+	return dst
+}
+
+// wordMatch reports whether w equals the lower-case listed word l ignoring case, or, when
+// l has at least five letters, is within one edit of it.
+func wordMatch(w, l string) bool {
+	if strings.EqualFold(w, l) {
+		return true
+	}
+	if utf8.RuneCountInString(l) < 5 {
+		return false
+	}
+	return editWithin1(strings.ToLower(w), l)
+}
+
+// editWithin1 reports whether a and b are at most one edit apart, where an edit is the
+// substitution, insertion or deletion of one rune or the swap of two neighbouring runes
+// (optimal string alignment distance, Damerau 1964).
+func editWithin1(a, b string) bool {
+	if isASCII(a) && isASCII(b) {
+		return editWithin1Bytes([]byte(a), []byte(b))
+	}
+	return editWithin1Runes([]rune(a), []rune(b))
+}
+
+func isASCII(s string) bool {
+	for i := 0; i < len(s); i++ {
+		if s[i] >= 0x80 {
+			return false
+		}
+	}
+	return true
+}
+
+func editWithin1Bytes(ra, rb []byte) bool {
+	if len(ra) < len(rb) {
+		ra, rb = rb, ra
+	}
+	switch len(ra) - len(rb) {
+	case 0:
+		i := 0
+		for i < len(ra) && ra[i] == rb[i] {
+			i++
+		}
+		if i == len(ra) {
+			return true
+		}
+		if string(ra[i+1:]) == string(rb[i+1:]) {
+			return true // substitution
+		}
+		return i+1 < len(ra) && ra[i] == rb[i+1] && ra[i+1] == rb[i] && string(ra[i+2:]) == string(rb[i+2:])
+	case 1:
+		i := 0
+		for i < len(rb) && ra[i] == rb[i] {
+			i++
+		}
+		return string(ra[i+1:]) == string(rb[i:])
+	}
+	return false
+}
+
+func editWithin1Runes(ra, rb []rune) bool {
+	if len(ra) < len(rb) {
+		ra, rb = rb, ra
+	}
+	switch len(ra) - len(rb) {
+	case 0:
+		var diff []int
+		for i := range ra {
+			if ra[i] != rb[i] {
+				diff = append(diff, i)
+				if len(diff) > 2 {
+					return false
+				}
+			}
+		}
+		switch len(diff) {
+		case 0, 1:
+			return true
+		case 2:
+			i, j := diff[0], diff[1]
+			return j == i+1 && ra[i] == rb[j] && ra[j] == rb[i]
+		}
+		return false
+	case 1:
+		i := 0
+		for i < len(rb) && ra[i] == rb[i] {
+			i++
+		}
+		for j := i; j < len(rb); j++ {
+			if ra[j+1] != rb[j] {
+				return false
+			}
+		}
+		return true
+	}
+	return false
+}
+
+// nameWords returns the words of a name span worth finding on their own elsewhere: each
+// word of two or more letters that is not a title or stop word, as written and in capitals.
+func (d *doc) nameWords(s, e int) []string {
+	var out []string
+	for i := d.tokenAt(s); i < len(d.toks) && d.toks[i].end <= e; i++ {
+		if d.toks[i].kind != tWord {
+			continue
+		}
+		w := d.word(i)
+		lw := strings.ToLower(w)
+		if utf8.RuneCountInString(w) < 2 || stopNames[lw] || titleWords[lw] {
+			continue
+		}
+		out = append(out, w)
+		if u := strings.ToUpper(w); u != w && len(u) == len(w) {
+			out = append(out, u)
+		}
+	}
+	return out
+}
+
+// quoted reports whether tokens i..j are wrapped in quotation marks.
+func (d *doc) quoted(i, j int) bool {
+	q := func(k int) bool {
+		return k >= 0 && k < len(d.toks) && d.toks[k].kind == tPunct && strings.ContainsAny(d.word(k), "\"“”'‘’")
+	}
+	return q(i-1) && q(j+1)
+}

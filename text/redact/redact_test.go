@@ -1,0 +1,303 @@
+package redact
+
+import (
+	"bytes"
+	"encoding/csv"
+	"strings"
+	"testing"
+)
+
+func mustNew(t testing.TB, opt Options) *Redactor {
+	t.Helper()
+	r, err := New(opt)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return r
+}
+
+// found returns the texts redacted as type ty.
+func found(r *Redactor, text string, ty Type) []string {
+	_, spans := r.Redact(text)
+	var out []string
+	for _, s := range spans {
+		if s.Type == ty {
+			out = append(out, s.Text)
+		}
+	}
+	return out
+}
+
+type detCase struct {
+	in   string
+	want []string // texts that must be redacted as the type, in order; nil: none
+}
+
+func runDet(t *testing.T, ty Type, cases []detCase) {
+	t.Helper()
+	r := mustNew(t, Options{Types: Types(ty)})
+	for _, c := range cases {
+		got := found(r, c.in, ty)
+		if strings.Join(got, "|") != strings.Join(c.want, "|") {
+			t.Errorf("%v in %q: got %q, want %q", ty, c.in, got, c.want)
+		}
+	}
+}
+
+// NANP: NPA (area code) and NXX (exchange) first digit 2-9, line 4 digits; source: NANPA /
+// ATIS numbering guidelines (from memory). 555-0100..555-0199 are the numbers set aside
+// for fictional use (common practice).
+func TestPhoneNANP(t *testing.T) {
+	runDet(t, Phone, []detCase{
+		{"call (555) 555-0123 now", []string{"(555) 555-0123"}},
+		{"cell 555-555-0123.", []string{"555-555-0123"}},
+		{"at 555.555.0123", []string{"555.555.0123"}},
+		{"phone 5555550123", []string{"5555550123"}},
+		{"id 5555550123", nil}, // ten bare digits need a cue
+		{"+1 555 555 0123", []string{"+1 555 555 0123"}},
+		{"1-202-555-0142 ext. 12", []string{"1-202-555-0142 ext. 12"}},
+		{"555-555-0123 x12", []string{"555-555-0123 x12"}},
+		{"(155) 555-0123", nil}, // area code starting with 1: not NANP
+		{"055-555-0123", nil},   // area code starting with 0
+		{"555-155-0123", nil},   // exchange starting with 1
+		{"callback 555-0142", []string{"555-0142"}},
+		{"lot 555-0142", nil}, // seven digits need a cue
+		{"order 12555-555-0123", nil},
+	})
+}
+
+// RFC 5322 section 3.4.1 addr-spec, dot-atom subset.
+func TestEmail(t *testing.T) {
+	runDet(t, Email, []detCase{
+		{"mail ann.quosby@example.com.", []string{"ann.quosby@example.com"}},
+		{"<t_v+tag@mail.example.org>", []string{"t_v+tag@mail.example.org"}},
+		{"x@y", nil},
+		{"user@example.c", nil}, // top-level label of one letter
+		{"a@b.example.net", []string{"a@b.example.net"}},
+	})
+}
+
+// SSA never-issued ranges: area 000, 666, 900-999; group 00; serial 0000 (SSA, from memory).
+func TestSSN(t *testing.T) {
+	runDet(t, SSN, []detCase{
+		{"SSN 123-45-6789", []string{"123-45-6789"}},
+		{"no. 123-45-6789", []string{"123-45-6789"}}, // dashed: no cue needed
+		{"000-12-3456", nil},
+		{"666-12-3456", nil},
+		{"900-12-3456", nil},
+		{"999-12-3456", nil},
+		{"123-00-4567", nil},
+		{"123-45-0000", nil},
+		{"SSN: 123456789", []string{"123456789"}},
+		{"acct 123456789", nil}, // undashed needs a cue
+		{"social security 123 45 6789", []string{"123 45 6789"}},
+		{"123-45 6789", nil}, // mixed separators
+	})
+}
+
+// 49 CFR 565.15(c) check digit. Worked example: 1M8GDM9AXKP042788 (a commonly quoted
+// example VIN, from memory) has check digit X: sum of value*weight = 351, 351 mod 11 = 10.
+func TestVINCheckDigit(t *testing.T) {
+	for _, c := range []struct {
+		vin  string
+		want byte
+	}{
+		{"1M8GDM9AXKP042788", 'X'},
+		{"11111111111111111", '1'}, // all ones: sum of weights 89, 89 mod 11 = 1
+		{"1HGCM82633A004352", '3'}, // a commonly quoted valid VIN (from memory)
+	} {
+		got, ok := VINCheckDigit(c.vin)
+		if !ok || got != c.want {
+			t.Errorf("VINCheckDigit(%s) = %c, %v; want %c", c.vin, got, ok, c.want)
+		}
+	}
+	if _, ok := VINCheckDigit("1M8GDM9AXKP04278I"); ok {
+		t.Error("I accepted")
+	}
+	runDet(t, VIN, []detCase{
+		{"vehicle 1M8GDM9AXKP042788 towed", []string{"1M8GDM9AXKP042788"}},
+		{"vehicle 1M8GDM9A1KP042788 towed", nil},                  // wrong check digit, no cue
+		{"VIN: 1M8GDM9A1KP042788", []string{"1M8GDM9A1KP042788"}}, // cue
+		{"VIN 1M8GDM9AXKP04278O", nil},                            // O is not allowed
+		{"hash ABCDEFGHJKLMNPRST", nil},                           // letters only
+	})
+}
+
+func TestDOBAndAge(t *testing.T) {
+	runDet(t, DOB, []detCase{
+		{"DOB 01/02/1990", []string{"01/02/1990"}},
+		{"D.O.B.: 3-4-85", []string{"3-4-85"}},
+		{"date of birth March 4, 1985", []string{"March 4, 1985"}},
+		{"was born on 4 March 1985 in", []string{"4 March 1985"}},
+		{"born in 1985", []string{"1985"}},
+		{"on 01/02/1990 the car", nil}, // a date with no cue
+		{"1/2/1990 (DOB)", []string{"1/2/1990"}},
+	})
+	runDet(t, Age, []detCase{
+		{"a 23 y/o male", []string{"23 y/o"}},
+		{"age 45", []string{"age 45"}},
+		{"45 yoa", []string{"45 yoa"}},
+		{"a 45-year-old employee", []string{"45-year-old"}},
+		{"31 years old", []string{"31 years old"}},
+		{"page 45", nil},
+		{"age 450", nil},
+	})
+}
+
+func TestPlate(t *testing.T) {
+	runDet(t, Plate, []detCase{
+		{"plate 7ABC123", []string{"7ABC123"}},
+		{"CA plate 7ABC123", []string{"7ABC123"}},
+		{"tag ABC-1234 was", []string{"ABC-1234"}},
+		{"Lic# 4KJ8822", []string{"4KJ8822"}},
+		{"registration XYZ 1234", []string{"XYZ 1234"}},
+		{"on the tag out board", nil},
+		{"registration 2017", nil},
+		{"the wall plate. He fell 9 ft", nil},
+	})
+}
+
+// USPS Publication 28 Appendix C1 suffixes (from memory).
+func TestAddress(t *testing.T) {
+	runDet(t, Address, []detCase{
+		{"at 123 Elm St for", []string{"123 Elm St"}},
+		{"at 4500 N Birchwood Avenue Apt 4B.", []string{"4500 N Birchwood Avenue Apt 4B"}},
+		{"to 12 4th Ave", []string{"12 4th Ave"}},
+		{"the 100 block of Main St.", []string{"100 block of Main St."}},
+		{"near Elm St and 4th Ave", []string{"Elm St and 4th Ave"}},
+		{"at the corner of Elm and Oak.", []string{"Elm and Oak"}},
+		{"met at Main/Oak today", []string{"Main/Oak"}},
+		{"fell 20 feet onto the road", nil},
+		{"and/or", nil},
+	})
+}
+
+func TestCaseNo(t *testing.T) {
+	runDet(t, CaseNo, []detCase{
+		{"case #24-001234", []string{"24-001234"}},
+		{"incident no. 2021-00012", []string{"2021-00012"}},
+		{"report 21-3456", []string{"21-3456"}},
+		{"the incident 2017", nil},
+		{"a Case 1150 bulldozer", nil},
+	})
+}
+
+func TestNames(t *testing.T) {
+	r := mustNew(t, Options{Names: []string{"Tobin Marsh", "Quillane"}, Allow: []string{"Varnell Hardware"}})
+	for _, c := range []struct{ in, out string }{
+		{"Caller John Smith said Smith's dog bit him.", "Caller [NAME-1] said [NAME-1]'s dog bit him."},
+		{"Officers spoke with Ms. Tobin Marsh. Later Tobbin Marsh left; Marsh was calm.", "Officers spoke with Ms. [NAME-1]. Later [NAME-1] left; [NAME-1] was calm."},
+		{"quillane and QUILLANE and Quilane", "[NAME-1] and [NAME-1] and [NAME-1]"},
+		{"Victim Ann Orvby met Suspect Dell Krelton at Varnell Hardware.", "Victim [NAME-1] met Suspect [NAME-2] at Varnell Hardware."},
+		{"The suspect was identified as Ysa K. Tullwick.", "The suspect was identified as [NAME-1]."},
+		{"A bystander saw Corvin Ashvley near the gate.", "A bystander saw [NAME-1] near the gate."},
+		{"SUSPECT JOHN SMITH FLED ON FOOT.", "SUSPECT [NAME-1] FLED ON FOOT."},
+		{"The Honda Civic was parked on the sidewalk.", "The Honda Civic was parked on the sidewalk."},
+		{"Mr. [NAME-3] and Mr. Quosby", "Mr. [NAME-3] and Mr. [NAME-4]"},
+		{"V/ QUOSBY, ANN STATED S/ DELLWICK FLED.", "V/ [NAME-1] STATED S/ [NAME-2] FLED."},
+		{"Victim Mary Smith and suspect John Smith argued; Smith left.", "Victim [NAME-1] and suspect [NAME-2] argued; [NAME-2] left."},
+	} {
+		got, _ := r.Redact(c.in)
+		if got != c.out {
+			t.Errorf("Redact(%q)\n got %q\nwant %q", c.in, got, c.out)
+		}
+	}
+}
+
+func TestDeterministicAndIdempotent(t *testing.T) {
+	docs, listed := generate(7, 200)
+	r := mustNew(t, Options{Names: listed})
+	for _, d := range docs {
+		a, sa := r.Redact(d.text)
+		b, sb := r.Redact(d.text)
+		if a != b || len(sa) != len(sb) {
+			t.Fatalf("not deterministic on %q", d.text)
+		}
+		if c, sc := r.Redact(a); c != a || len(sc) != 0 {
+			t.Fatalf("not idempotent:\n%q\n%q", a, c)
+		}
+		for _, s := range sa {
+			if d.text[s.Start:s.End] != s.Text {
+				t.Fatalf("span %+v does not match input", s)
+			}
+		}
+	}
+}
+
+func TestEditWithin1(t *testing.T) {
+	for _, c := range []struct {
+		a, b string
+		want bool
+	}{
+		{"smith", "smith", true}, {"smith", "smyth", true}, {"smith", "smiht", true},
+		{"smith", "smiths", true}, {"smith", "mith", true}, {"smith", "smoths", false},
+		{"smith", "msith", true}, {"smith", "stimh", false}, {"zoë", "zoe", true},
+	} {
+		if got := editWithin1(c.a, c.b); got != c.want {
+			t.Errorf("editWithin1(%q,%q) = %v", c.a, c.b, got)
+		}
+	}
+}
+
+func TestReviewWriter(t *testing.T) {
+	r := mustNew(t, Options{})
+	text := "Caller Ann Quosby at (555) 555-0123."
+	_, spans := r.Redact(text)
+	var buf bytes.Buffer
+	w := NewReviewWriter(&buf)
+	if err := w.Write("row 2", text, spans); err != nil {
+		t.Fatal(err)
+	}
+	if err := w.Flush(); err != nil {
+		t.Fatal(err)
+	}
+	rows, err := csv.NewReader(&buf).ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := [][]string{
+		{"record", "type", "start", "end", "placeholder", "before", "text", "after"},
+		{"row 2", "name", "7", "17", "[NAME-1]", "Caller ", "Ann Quosby", " at (555) 555-0123."},
+		{"row 2", "phone", "21", "35", "[PHONE]", "Caller Ann Quosby at ", "(555) 555-0123", "."},
+	}
+	if len(rows) != len(want) {
+		t.Fatalf("got %q", rows)
+	}
+	for i := range want {
+		if strings.Join(rows[i], "|") != strings.Join(want[i], "|") {
+			t.Errorf("row %d: got %q want %q", i, rows[i], want[i])
+		}
+	}
+	var c Counts
+	c.Add(spans)
+	if c.String() != "name=1 phone=1" || c.Total() != 2 {
+		t.Errorf("counts %s", c.String())
+	}
+}
+
+func TestIsPrivateName(t *testing.T) {
+	for p, want := range map[string]bool{
+		"out/incidents.private-review.csv": true, "PRIVATE.txt": true, "private/review.csv": false,
+		"review.csv": false, `C:\\x\\Private_raw.csv`: true,
+	} {
+		if IsPrivateName(p) != want {
+			t.Errorf("IsPrivateName(%q) != %v", p, want)
+		}
+	}
+}
+
+func TestTypes(t *testing.T) {
+	for _, ty := range AllTypes() {
+		p, ok := ParseType(ty.String())
+		if !ok || p != ty {
+			t.Errorf("ParseType(%q) = %v, %v", ty.String(), p, ok)
+		}
+	}
+	var all TypeSet
+	if !all.Has(Name) || !Types(Phone).Has(Phone) || Types(Phone).Has(Name) {
+		t.Error("TypeSet")
+	}
+	if _, err := New(Options{Names: []string{"  "}}); err == nil {
+		t.Error("empty name accepted")
+	}
+}

@@ -1,0 +1,205 @@
+package redact
+
+import (
+	"strings"
+	"unicode"
+	"unicode/utf8"
+)
+
+type tokKind uint8
+
+const (
+	tWord  tokKind = iota + 1 // letters, with inner apostrophes or hyphens
+	tNum                      // digits
+	tPunct                    // one other non-space character
+)
+
+type tok struct {
+	start, end int
+	kind       tokKind
+	nl         int // newlines between the previous token and this one
+}
+
+// doc is one narrative being scanned.
+type doc struct {
+	text      string
+	r         *Redactor
+	masks     [][]int
+	toks      []tok
+	lower     []string         // lower-case text of each word token ("" for others)
+	wordIndex map[string][]int // maximal letter-or-digit runs → their starts; see index
+	runs17    []int            // starts of letter-or-digit runs of exactly 17 bytes (VIN-shaped)
+	caps      bool             // the narrative is written mostly in capitals
+	allowIv   intervals
+}
+
+func (d *doc) tokenize() {
+	text := d.text
+	upper, letters := 0, 0
+	nl := 0
+	for i := 0; i < len(text); {
+		r, n := utf8.DecodeRuneInString(text[i:])
+		switch {
+		case r == '\n':
+			nl++
+			i += n
+		case unicode.IsSpace(r):
+			i += n
+		case unicode.IsLetter(r):
+			j := i
+			for j < len(text) {
+				r2, n2 := utf8.DecodeRuneInString(text[j:])
+				if unicode.IsLetter(r2) {
+					letters++
+					if unicode.IsUpper(r2) {
+						upper++
+					}
+					j += n2
+					continue
+				}
+				if r2 == '\'' || r2 == '’' || r2 == '-' {
+					r3, _ := utf8.DecodeRuneInString(text[j+n2:])
+					if unicode.IsLetter(r3) {
+						j += n2
+						continue
+					}
+				}
+				break
+			}
+			d.toks = append(d.toks, tok{i, j, tWord, nl})
+			nl = 0
+			i = j
+		case unicode.IsDigit(r):
+			j := i
+			for j < len(text) {
+				r2, n2 := utf8.DecodeRuneInString(text[j:])
+				if !unicode.IsDigit(r2) {
+					break
+				}
+				j += n2
+			}
+			d.toks = append(d.toks, tok{i, j, tNum, nl})
+			nl = 0
+			i = j
+		default:
+			d.toks = append(d.toks, tok{i, i + n, tPunct, nl})
+			nl = 0
+			i += n
+		}
+	}
+	// letter-or-digit runs of 17 bytes are VIN-shaped.
+	for i := 0; i < len(d.toks); {
+		j, n := i, 0
+		for j < len(d.toks) && d.toks[j].kind != tPunct && (j == i || d.toks[j].start == d.toks[j-1].end) {
+			n += d.toks[j].end - d.toks[j].start
+			j++
+		}
+		if j == i {
+			i++
+			continue
+		}
+		if n == 17 && d.toks[j-1].end-d.toks[i].start == 17 && isASCII(text[d.toks[i].start:d.toks[j-1].end]) {
+			d.runs17 = append(d.runs17, d.toks[i].start)
+		}
+		i = j
+	}
+	d.lower = make([]string, len(d.toks))
+	for i, t := range d.toks {
+		if t.kind == tWord {
+			d.lower[i] = strings.ToLower(text[t.start:t.end])
+		}
+	}
+	d.caps = letters >= 12 && upper*10 >= letters*7
+	for _, a := range d.r.allow {
+		d.matchWords(a, func(s, e int) { d.allowIv.add(s, e) })
+	}
+}
+
+// word returns the text of token i.
+func (d *doc) word(i int) string { return d.text[d.toks[i].start:d.toks[i].end] }
+
+// isPunct reports whether token i is the punctuation s.
+func (d *doc) isPunct(i int, s string) bool {
+	return i >= 0 && i < len(d.toks) && d.toks[i].kind == tPunct && d.word(i) == s
+}
+
+// matchWords calls f for every run of word tokens equal, ignoring case, to ws.
+func (d *doc) matchWords(ws []string, f func(s, e int)) {
+	for i := range d.toks {
+		if d.toks[i].kind != tWord || !strings.EqualFold(d.word(i), ws[0]) {
+			continue
+		}
+		j, k := i, 0
+		for k < len(ws) {
+			if j >= len(d.toks) || d.toks[j].kind != tWord || !strings.EqualFold(d.word(j), ws[k]) {
+				break
+			}
+			k++
+			j++
+			// allow one "." after an abbreviation inside a phrase.
+			if k < len(ws) && d.isPunct(j, ".") {
+				j++
+			}
+		}
+		if k == len(ws) {
+			f(d.toks[i].start, d.toks[j-1].end)
+		}
+	}
+}
+
+// allowed reports whether [s,e) overlaps an allow-listed phrase.
+func (d *doc) allowed(s, e int) bool { return d.allowIv.overlaps(s, e) }
+
+// wordsOf splits s into its words (letters with inner apostrophes or hyphens).
+func wordsOf(s string) []string {
+	d := &doc{text: s, r: &Redactor{}}
+	d.tokenize()
+	var out []string
+	for i := range d.toks {
+		if d.toks[i].kind == tWord {
+			out = append(out, d.word(i))
+		}
+	}
+	return out
+}
+
+// tokenAt returns the index of the first token starting at or after byte offset s.
+func (d *doc) tokenAt(s int) int {
+	lo, hi := 0, len(d.toks)
+	for lo < hi {
+		m := (lo + hi) / 2
+		if d.toks[m].start < s {
+			lo = m + 1
+		} else {
+			hi = m
+		}
+	}
+	return lo
+}
+
+// index builds wordIndex: every maximal run of letters and digits, by its text.
+func (d *doc) index() {
+	if d.wordIndex != nil {
+		return
+	}
+	d.wordIndex = make(map[string][]int)
+	text := d.text
+	for i := 0; i < len(text); {
+		r, n := utf8.DecodeRuneInString(text[i:])
+		if !isWordRune(r) {
+			i += n
+			continue
+		}
+		j := i + n
+		for j < len(text) {
+			r2, n2 := utf8.DecodeRuneInString(text[j:])
+			if !isWordRune(r2) {
+				break
+			}
+			j += n2
+		}
+		w := text[i:j]
+		d.wordIndex[w] = append(d.wordIndex[w], i)
+		i = j
+	}
+}
