@@ -5,6 +5,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"strconv"
 	"testing"
 )
 
@@ -33,3 +34,5 @@ func panics(f func()) (p bool) {
 	f()
 	return false
 }
+
+func parseFloat(s string) (float64, error) { return strconv.ParseFloat(s, 64) }
