@@ -20,8 +20,8 @@ type Kind int
 const (
 	// Text columns are JSON strings.
 	Text Kind = iota
-	// Number columns are JSON numbers; a withheld value is the string "<10", an empty
-	// one null.
+	// Number columns are JSON numbers; a withheld value is the string "<10" or
+	// "withheld" (see Publish), an empty one null.
 	Number
 	// Bool columns are JSON true/false.
 	Bool
@@ -55,7 +55,11 @@ func (t *Table) Private() bool { return t.private }
 // whose name contains "private".
 var ErrPrivate = errors.New("trend: table has unsuppressed small counts; write it only to a file whose name contains \"private\"")
 
-// WriteCSV writes t as CSV with a header row. It returns ErrPrivate for a private table.
+// WriteCSV writes t as CSV (RFC 4180, with a header row of column names). A text value
+// that begins with =, +, -, @, tab or carriage return gets a leading apostrophe so that
+// spreadsheet programs show it instead of running it as a formula (group values and
+// labels come from the data; the guard is common practice, after OWASP's advice on CSV
+// injection). It returns ErrPrivate for a private table.
 func (t *Table) WriteCSV(w io.Writer) error {
 	if t.private {
 		return ErrPrivate
@@ -83,8 +87,15 @@ func (t *Table) writeCSV(w io.Writer) error {
 		head[i] = c.Name
 	}
 	cw.Write(head)
+	rec := make([]string, len(t.Columns))
 	for _, r := range t.Rows {
-		cw.Write(r)
+		for j, v := range r {
+			rec[j] = v
+			if t.Columns[j].Kind == Text && v != "" && strings.ContainsRune("=+-@\t\r", rune(v[0])) {
+				rec[j] = "'" + v
+			}
+		}
+		cw.Write(rec)
 	}
 	cw.Flush()
 	return cw.Error()

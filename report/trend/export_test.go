@@ -146,7 +146,7 @@ func TestExportWithholds(t *testing.T) {
 				continue
 			}
 			for _, r := range tb.Rows {
-				if v := r[c]; v != "" && v != "<10" {
+				if v := r[c]; v != "" && v != "<10" && v != Hidden {
 					if f, err := parseFloat(v); err != nil || f < 10 {
 						t.Errorf("%s %s = %q published", tb.Name, col.Name, v)
 					}
@@ -219,5 +219,30 @@ func TestExportPrivate(t *testing.T) {
 	}
 	if err := WriteFiles(filepath.Join(dir, "x.json"), pub); err == nil {
 		t.Error("CSV path ending in .json accepted")
+	}
+}
+
+func TestExportFormulaGuard(t *testing.T) {
+	docs := []Doc{}
+	for i := 0; i < 12; i++ {
+		docs = append(docs, Doc{Group: "=HYPERLINK(\"http://example.invalid\")", Theta: []float64{1, 0}},
+			Doc{Group: "-2+3", Theta: []float64{0, 1}})
+	}
+	g, err := Groups(docs, GroupSettings{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	var c, j bytes.Buffer
+	tb := g.Table([]string{"@one", "two"}, Publish{})
+	tb.WriteCSV(&c)
+	tb.WriteJSON(&j)
+	for _, want := range []string{"'-2+3,0,'@one,", `"'=HYPERLINK(""http://example.invalid"")",1,two,`} {
+		if !strings.Contains(c.String(), want) {
+			t.Errorf("CSV lacks %s:\n%s", want, c.String())
+		}
+	}
+	// JSON keeps the values as they are.
+	if !strings.Contains(j.String(), `"group": "-2+3"`) || !strings.Contains(j.String(), `"label": "@one"`) {
+		t.Errorf("JSON altered values:\n%s", j.String())
 	}
 }

@@ -7,7 +7,7 @@ import "strconv"
 //
 // Small counts can identify people. Every count below Threshold (including 0: a count
 // that is shown as 0 says that nobody is in that cell) is withheld and shown as "<10"
-// (primary suppression). So that a withheld count cannot be recovered by subtracting the
+// (primary suppression; see Withheld). So that a withheld count cannot be recovered by subtracting the
 // shown counts from a shown total, every sum relation of the table (the cells of a month
 // or group with its total, the cells of a theme with the theme's total, the totals with
 // the grand total) that has exactly one withheld member gets a second one: the smallest
@@ -15,7 +15,7 @@ import "strconv"
 // repeated until no relation has exactly one withheld member. Expected counts (sums of
 // θ) add up to the same totals, so they are treated the same way, sharing the totals.
 // Shares, intervals and residuals computed from a withheld count or total are withheld
-// too.
+// too. Withheld numbers that are not below the threshold are shown as Hidden.
 //
 // Limits: this stops recovery by one subtraction within one relation. It does not stop
 // a determined reader from solving several relations at once (a linear-programming
@@ -42,8 +42,24 @@ func (p Publish) threshold() int {
 	return p.Threshold
 }
 
-// Withheld returns the text shown for a withheld count: "<" and the threshold.
+// Withheld returns the text shown for a count below the threshold: "<" and the
+// threshold, "<10" by default.
 func (p Publish) Withheld() string { return "<" + strconv.Itoa(p.threshold()) }
+
+// Hidden is the text shown for a withheld number that is not itself below the
+// threshold: a count withheld so that another cannot be recovered (complementary
+// suppression), or a share, interval, residual or statistic computed from a withheld
+// count. Showing "<10" for those would be false.
+const Hidden = "withheld"
+
+// mark returns the text for withheld value v: Withheld if v is below the threshold,
+// Hidden otherwise.
+func (p Publish) mark(v float64) string {
+	if v < float64(p.threshold()) {
+		return p.Withheld()
+	}
+	return Hidden
+}
 
 // Suppress returns which values to withhold: those below threshold, and then, going
 // through relations in order again and again until nothing changes, in every relation

@@ -23,15 +23,15 @@ import (
 //	gap       true if the month has no narratives: numbers are empty, not zero
 //	flag      change flags of the month ("C1", "C1+C3" ...; see FlagTable), "" for none
 //
-// Counts below p's threshold, and those withheld with them, are shown as "<10"; shares
-// and intervals computed from a withheld count or total are "<10" too.
+// Counts below p's threshold are shown as "<10" (Publish.Withheld); counts withheld with
+// them so that they cannot be recovered, and shares and intervals computed from a
+// withheld count or total, are shown as "withheld" (Hidden).
 func SeriesTable(s *Series, flags []Flag, labels []string, p Publish) *Table {
 	t := newTable("series", p, Column{"month", Text}, Column{"theme", Number}, Column{"label", Text},
 		Column{"count", Number}, Column{"expected", Number}, Column{"total", Number}, Column{"share", Number},
 		Column{"low", Number}, Column{"high", Number}, Column{"coverage", Number}, Column{"partial", Bool},
 		Column{"gap", Bool}, Column{"flag", Text})
 	m := SuppressSeries(s, p)
-	w := p.Withheld()
 	type key struct {
 		m Month
 		k int
@@ -46,12 +46,12 @@ func SeriesTable(s *Series, flags []Flag, labels []string, p Publish) *Table {
 			row := []string{mi.Month.String(), strconv.Itoa(k), label(labels, k), "", "", "", "", "", "",
 				fmtFloat(mi.Coverage), fmtBool(mi.Partial), fmtBool(mi.Gap), strings.Join(fl[key{mi.Month, k}], "+")}
 			if !mi.Gap {
-				row[3] = withheld(m.Count[i][k], w, strconv.Itoa(c.Count))
-				row[4] = withheld(m.Expected[i][k], w, fmtFloat(c.Expected))
-				row[5] = withheld(m.RowTotal[i], w, strconv.Itoa(mi.Total))
-				row[6] = withheld(m.Share[i][k], w, fmtFloat(c.Share))
-				row[7] = withheld(m.Share[i][k], w, fmtFloat(c.Low))
-				row[8] = withheld(m.Share[i][k], w, fmtFloat(c.High))
+				row[3] = withheld(m.Count[i][k], p.mark(float64(c.Count)), strconv.Itoa(c.Count))
+				row[4] = withheld(m.Expected[i][k], p.mark(c.Expected), fmtFloat(c.Expected))
+				row[5] = withheld(m.RowTotal[i], p.mark(float64(mi.Total)), strconv.Itoa(mi.Total))
+				row[6] = withheld(m.Share[i][k], Hidden, fmtFloat(c.Share))
+				row[7] = withheld(m.Share[i][k], Hidden, fmtFloat(c.Low))
+				row[8] = withheld(m.Share[i][k], Hidden, fmtFloat(c.High))
 			}
 			t.Rows = append(t.Rows, row)
 		}
@@ -86,7 +86,7 @@ const withheldNote = "Details withheld: some of the counts behind this flag are 
 //	explanation     the flag in plain words
 //
 // When any share in the window of months behind a flag is withheld, share, baseline_mean,
-// baseline_sd and statistic are "<10" and the explanation says the details are withheld.
+// baseline_sd and statistic are "withheld" and the explanation says the details are withheld.
 func FlagTable(s *Series, flags []Flag, cs ChangeSettings, labels []string, p Publish) *Table {
 	t := newTable("flags", p, Column{"month", Text}, Column{"theme", Number}, Column{"label", Text},
 		Column{"method", Text}, Column{"share", Number}, Column{"baseline_first", Text}, Column{"baseline_last", Text},
@@ -94,7 +94,6 @@ func FlagTable(s *Series, flags []Flag, cs ChangeSettings, labels []string, p Pu
 		Column{"statistic", Number}, Column{"threshold", Number}, Column{"explanation", Text})
 	m := SuppressSeries(s, p)
 	b := cs.baseline()
-	w := p.Withheld()
 	for _, f := range flags {
 		from, to := f.First, f.Month
 		if f.Method == C3 {
@@ -111,9 +110,9 @@ func FlagTable(s *Series, flags []Flag, cs ChangeSettings, labels []string, p Pu
 			ex = withheldNote
 		}
 		t.Rows = append(t.Rows, []string{f.Month.String(), strconv.Itoa(f.Theme), label(labels, f.Theme),
-			f.Method.String(), withheld(hide, w, fmtFloat(f.Share)), f.First.String(), f.Last.String(),
-			withheld(hide, w, fmtFloat(f.Mean)), withheld(hide, w, fmtFloat(f.SD)), fmtBool(f.Floored),
-			withheld(hide, w, fmtFloat(f.Value)), strconv.FormatFloat(f.Threshold, 'g', -1, 64), ex})
+			f.Method.String(), withheld(hide, Hidden, fmtFloat(f.Share)), f.First.String(), f.Last.String(),
+			withheld(hide, Hidden, fmtFloat(f.Mean)), withheld(hide, Hidden, fmtFloat(f.SD)), fmtBool(f.Floored),
+			withheld(hide, Hidden, fmtFloat(f.Value)), strconv.FormatFloat(f.Threshold, 'g', -1, 64), ex})
 	}
 	return t
 }
@@ -168,7 +167,7 @@ func TrendTable(s *Series, labels []string, conf float64, p Publish) *Table {
 		row := make([]string, len(t.Columns))
 		row[0], row[1], row[2] = strconv.Itoa(k), label(labels, k), strconv.Itoa(months)
 		if m.ThemeCount[k] {
-			row[3] = p.Withheld()
+			row[3] = p.mark(float64(total))
 			row[19] = "Withheld: the theme's count is below the publication threshold or withheld with one."
 			t.Rows = append(t.Rows, row)
 			continue
@@ -218,27 +217,26 @@ func TrendTable(s *Series, labels []string, conf float64, p Publish) *Table {
 //	adj_residual    adjusted standardised residual (see ChiSquare)
 //	stands_out      true if |adj_residual| exceeds the test's critical value
 //
-// Withholding as in SeriesTable; residuals and stands_out of withheld cells are "<10"
-// and "", and chisq_expected is "<10" when a total behind it is withheld.
+// Withholding as in SeriesTable; residuals and stands_out of withheld cells are
+// "withheld" and "", and chisq_expected is "withheld" when a total behind it is withheld.
 func (g *GroupTable) Table(labels []string, p Publish) *Table {
 	t := newTable("groups", p, Column{"group", Text}, Column{"theme", Number}, Column{"label", Text},
 		Column{"count", Number}, Column{"expected", Number}, Column{"group_total", Number}, Column{"share", Number},
 		Column{"low", Number}, Column{"high", Number}, Column{"chisq_expected", Number},
 		Column{"adj_residual", Number}, Column{"stands_out", Bool})
 	m := SuppressGroups(g, p)
-	w := p.Withheld()
 	for i, name := range g.Groups {
 		for k := 0; k < g.Themes; k++ {
 			row := []string{name, strconv.Itoa(k), label(labels, k),
-				withheld(m.Count[i][k], w, strconv.Itoa(g.Counts[i][k])),
-				withheld(m.Expected[i][k], w, fmtFloat(g.Expected[i][k])),
-				withheld(m.RowTotal[i], w, strconv.Itoa(g.Totals[i])),
-				withheld(m.Share[i][k], w, fmtFloat(g.Share[i][k])),
-				withheld(m.Share[i][k], w, fmtFloat(g.Low[i][k])),
-				withheld(m.Share[i][k], w, fmtFloat(g.High[i][k])), "", "", ""}
+				withheld(m.Count[i][k], p.mark(float64(g.Counts[i][k])), strconv.Itoa(g.Counts[i][k])),
+				withheld(m.Expected[i][k], p.mark(g.Expected[i][k]), fmtFloat(g.Expected[i][k])),
+				withheld(m.RowTotal[i], p.mark(float64(g.Totals[i])), strconv.Itoa(g.Totals[i])),
+				withheld(m.Share[i][k], Hidden, fmtFloat(g.Share[i][k])),
+				withheld(m.Share[i][k], Hidden, fmtFloat(g.Low[i][k])),
+				withheld(m.Share[i][k], Hidden, fmtFloat(g.High[i][k])), "", "", ""}
 			if g.Test != nil {
-				row[9] = withheld(m.RowTotal[i] || m.ThemeCount[k] || m.Grand, w, fmtFloat(g.Test.Expected[i][k]))
-				row[10] = withheld(m.Share[i][k], w, fmtFloat(g.Test.Residual[i][k]))
+				row[9] = withheld(m.RowTotal[i] || m.ThemeCount[k] || m.Grand, Hidden, fmtFloat(g.Test.Expected[i][k]))
+				row[10] = withheld(m.Share[i][k], Hidden, fmtFloat(g.Test.Residual[i][k]))
 				if !m.Share[i][k] {
 					row[11] = fmtBool(g.Test.StandsOut[i][k])
 				}
