@@ -95,7 +95,7 @@ func Poisson(s *Series, theme int, conf float64) (*PoissonTrend, error) {
 		}
 		det := s00*s11 - s01*s01
 		if !(det > 0) {
-			return nil, fmt.Errorf("trend: Poisson regression: singular design (all months at one time?): %w", ErrNoTrend)
+			return nil, fmt.Errorf("trend: Poisson regression has no finite estimate (is all of the theme at one end of the period?): %w", ErrNoTrend)
 		}
 		prev := beta
 		beta = [2]float64{(s11*t0 - s01*t1) / det, (s00*t1 - s01*t0) / det}
@@ -113,7 +113,7 @@ func Poisson(s *Series, theme int, conf float64) (*PoissonTrend, error) {
 		}
 		dev = d
 		if it == 100 {
-			return nil, fmt.Errorf("trend: Poisson regression did not converge in 100 iterations")
+			return nil, fmt.Errorf("trend: Poisson regression did not converge in 100 iterations (all of the theme at one end of the period?): %w", ErrNoTrend)
 		}
 	}
 	// Standard errors from the weights at the final μ.

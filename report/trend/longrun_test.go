@@ -3,6 +3,7 @@ package trend
 import (
 	"errors"
 	"math"
+	"strings"
 	"testing"
 )
 
@@ -94,5 +95,22 @@ func TestLongRunTooLittle(t *testing.T) {
 	}
 	if _, err := MannKendallShare(seriesOf(t, "2021-01", []int{10, -1, 10}, []int{1, 0, 2}), 0); !errors.Is(err, ErrNoTrend) {
 		t.Errorf("two months with data: Mann–Kendall error %v", err)
+	}
+}
+
+func TestPoissonNoFiniteEstimate(t *testing.T) {
+	// All of the theme in the last month: the maximum-likelihood slope is infinite.
+	s := seriesOf(t, "2021-01", []int{20, 20, 20, 20}, []int{0, 0, 0, 5})
+	if _, err := Poisson(s, 0, 0); !errors.Is(err, ErrNoTrend) {
+		t.Errorf("error %v, want ErrNoTrend", err)
+	}
+	tb := TrendTable(s, nil, 0, Publish{Everything: true})
+	if ex := tb.Rows[0][len(tb.Columns)-1]; !strings.Contains(ex, "No Poisson trend") {
+		t.Errorf("explanation %q", ex)
+	}
+	// Equal shares: no Mann–Kendall trend, p = 1.
+	mk, err := MannKendallShare(seriesOf(t, "2021-01", []int{10, 20, 30}, []int{1, 2, 3}), 0)
+	if err != nil || mk.S != 0 || mk.P != 1 || !math.IsNaN(mk.Tau) {
+		t.Errorf("equal shares: %+v, %v", mk, err)
 	}
 }

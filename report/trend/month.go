@@ -49,6 +49,9 @@ func (m Month) String() string { return fmt.Sprintf("%04d-%02d", m.Year(), int(m
 // Start returns midnight UTC on the first day of m.
 func (m Month) Start() time.Time { return time.Date(m.Year(), m.Month(), 1, 0, 0, 0, 0, time.UTC) }
 
+// End returns midnight UTC on the last day of m.
+func (m Month) End() time.Time { return m.Start().AddDate(0, 1, -1) }
+
 // Days returns the number of days in m.
 func (m Month) Days() int { return m.Start().AddDate(0, 1, -1).Day() }
 

@@ -10,7 +10,9 @@ import (
 // loader supplies Date, Group and Words.
 type Doc struct {
 	// Date is the narrative's date (incident or report date, as the caller chooses).
-	// Only its calendar date in its own location is used.
+	// Only its calendar date in its own location is used. Data with months only
+	// ("YYYY-MM") can use ParseMonth(s).Start() with Settings.From and To set to the
+	// first month's Start and the last month's End, so no month is taken as partial.
 	Date time.Time
 	// Theta is the narrative's theme-share vector θ: one non-negative share per theme,
 	// summing to 1 (within 1e-6). Every Doc passed together must have the same length.

@@ -2,6 +2,7 @@ package trend
 
 import (
 	"math"
+	"strconv"
 	"strings"
 	"testing"
 	"time"
@@ -97,5 +98,42 @@ func TestMonthlyErrors(t *testing.T) {
 		if err == nil || !strings.Contains(err.Error(), tc.want) {
 			t.Errorf("%s: error %v, want %q", tc.name, err, tc.want)
 		}
+	}
+}
+
+func TestMonthlyMonthOnly(t *testing.T) {
+	// Data with months only, as documented on Doc.Date.
+	var docs []Doc
+	for _, s := range []string{"2023-01", "2023-03", "2023-03"} {
+		m, _ := ParseMonth(s)
+		docs = append(docs, Doc{Date: m.Start(), Theta: []float64{1}})
+	}
+	first, _ := ParseMonth("2023-01")
+	last, _ := ParseMonth("2023-03")
+	s, err := Monthly(docs, Settings{From: first.Start(), To: last.End()})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(s.Months) != 3 || s.Months[0].Partial || s.Months[2].Partial || !s.Months[1].Gap || s.Months[2].Total != 2 {
+		t.Errorf("months %+v", s.Months)
+	}
+}
+
+func BenchmarkMonthly(b *testing.B) {
+	for _, n := range []int{1000, 100000} {
+		docs := make([]Doc, n)
+		for i := range docs {
+			theta := make([]float64, 20)
+			theta[i%20] = 0.5
+			theta[(i+7)%20] += 0.5
+			docs[i] = Doc{Date: day("2020-01-01").AddDate(0, 0, i%1500), Theta: theta}
+		}
+		b.Run(strconv.Itoa(n), func(b *testing.B) {
+			for b.Loop() {
+				s, _ := Monthly(docs, Settings{})
+				Changes(s, ChangeSettings{})
+				SeriesTable(s, nil, nil, Publish{})
+			}
+		})
 	}
 }
