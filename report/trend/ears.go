@@ -38,9 +38,12 @@ const (
 	C1 Method = iota + 1
 	C2
 	C3
+	// Farrington flags a month whose count is above the upper limit of
+	// FarringtonLimits: a seasonal baseline from earlier years.
+	Farrington
 )
 
-// String returns "C1", "C2" or "C3".
+// String returns "C1", "C2", "C3" or "Farrington".
 func (m Method) String() string {
 	switch m {
 	case C1:
@@ -49,6 +52,8 @@ func (m Method) String() string {
 		return "C2"
 	case C3:
 		return "C3"
+	case Farrington:
+		return "Farrington"
 	}
 	return fmt.Sprintf("Method(%d)", int(m))
 }
@@ -60,8 +65,11 @@ type ChangeSettings struct {
 	// Threshold1, Threshold2 and Threshold3 are the flag thresholds of C1, C2 and C3;
 	// 0 means 3, 3 and 2.
 	Threshold1, Threshold2, Threshold3 float64
-	// Methods lists the statistics Changes computes; nil means C1, C2 and C3.
+	// Methods lists the statistics Changes computes; nil means C1, C2, C3 and
+	// Farrington.
 	Methods []Method
+	// Farrington configures the Farrington method.
+	Farrington FarringtonSettings
 	// MinCount is the smallest count of the theme in a month that Changes flags; 0 means
 	// 3 (our choice: a share made of one or two narratives is not flagged however far it
 	// is from the baseline). EARS itself still reports the statistic.
@@ -78,10 +86,13 @@ func (cs ChangeSettings) baseline() int {
 	return cs.Baseline
 }
 
-// Threshold returns the threshold used for m.
+// Threshold returns the threshold used for m (for Farrington, the z of the limit).
 func (cs ChangeSettings) Threshold(m Method) float64 {
 	t, def := 0.0, 0.0
 	switch m {
+	case Farrington:
+		_, _, z, _ := cs.Farrington.norm()
+		return z
 	case C1:
 		t, def = cs.Threshold1, 3
 	case C2:
@@ -202,14 +213,18 @@ func meanSD(x []float64) (mean, sd float64) {
 	return mean, math.Sqrt(ss / float64(len(x)-1))
 }
 
-// Flag is a month in which a theme's share was unusually high by one EARS statistic.
-// A flag marks a month worth a closer reading of its narratives; it does not say that
-// anything happened.
+// Flag is a month in which a theme's share was unusually high by one EARS statistic,
+// or its count above its Farrington limit. A flag marks a month worth a closer reading
+// of its narratives; it does not say that anything happened.
 type Flag struct {
 	Month     Month
 	Theme     int
 	Threshold float64
+	// Stat holds the EARS statistic; for Farrington only Method, Value (the score),
+	// Share and First and Last (the span of the baseline months) are set.
 	Stat
+	// Limit holds the Farrington limit when Method is Farrington.
+	Limit FarringtonStat
 	// Explanation says in plain words what was compared, e.g. "In 2023-07 this theme's
 	// share (18.0%) was above the upper limit expected from the previous 7 months with
 	// data (2022-12 to 2023-06: mean 9.0%, sd 2.5%; C1 = 3.60 > 3)."
@@ -221,7 +236,7 @@ type Flag struct {
 func Changes(s *Series, cs ChangeSettings) []Flag {
 	methods := cs.Methods
 	if methods == nil {
-		methods = []Method{C1, C2, C3}
+		methods = []Method{C1, C2, C3, Farrington}
 	}
 	minCount := cs.MinCount
 	if minCount == 0 {
@@ -231,6 +246,20 @@ func Changes(s *Series, cs ChangeSettings) []Flag {
 	for k := 0; k < s.Themes; k++ {
 		for _, m := range methods {
 			th := cs.Threshold(m)
+			if m == Farrington {
+				b, w, _, _ := cs.Farrington.norm()
+				for i, st := range FarringtonLimits(s, k, cs.Farrington) {
+					if st.OK && float64(st.Count) > st.Upper && st.Count >= minCount {
+						mi := s.Months[i]
+						f := Flag{Month: mi.Month, Theme: k, Threshold: th, Limit: st,
+							Stat: Stat{Method: Farrington, Value: st.Score, Share: s.Cells[i][k].Share,
+								Mean: math.NaN(), SD: math.NaN(), First: mi.Month - Month(12*b+w), Last: mi.Month - Month(12-w)}}
+						f.Explanation = farringtonExplain(mi.Month, st, b)
+						out = append(out, f)
+					}
+				}
+				continue
+			}
 			for i, st := range EARS(s, k, m, cs) {
 				if st.Value > th && s.Cells[i][k].Count >= minCount {
 					f := Flag{Month: s.Months[i].Month, Theme: k, Threshold: th, Stat: st}

@@ -94,7 +94,7 @@ func TestEARSFixture(t *testing.T) {
 
 func TestChanges(t *testing.T) {
 	s, _ := loadEARS(t)
-	flags := Changes(s, ChangeSettings{})
+	flags := Changes(s, ChangeSettings{Methods: []Method{C1, C2, C3}})
 	var got []string
 	for _, f := range flags {
 		if f.Theme != 0 {

@@ -81,23 +81,35 @@ const withheldNote = "Details withheld: some of the counts behind this flag are 
 //	baseline_mean   mean baseline share (C3: of the month's C2)
 //	baseline_sd     sd used, after the binomial floor
 //	sd_floored      true if the floor was used
-//	statistic       value of the statistic
-//	threshold       its threshold
+//	statistic       value of the statistic (Farrington: the exceedance score)
+//	threshold       its threshold (Farrington: the z of the limit)
+//	count           Farrington only: the month's count
+//	expected_count  Farrington only: the predicted count μ̂0
+//	upper_limit     Farrington only: the upper limit U
 //	explanation     the flag in plain words
 //
-// When any share in the window of months behind a flag is withheld, share, baseline_mean,
-// baseline_sd and statistic are "withheld" and the explanation says the details are withheld.
+// For Farrington flags, baseline_first and baseline_last span the seasonal baseline
+// months and baseline_mean and baseline_sd are empty. When any share in the window of
+// months behind an EARS flag, or the month's own share for a Farrington flag, is
+// withheld, the numbers are "withheld" and the explanation says the details are
+// withheld.
 func FlagTable(s *Series, flags []Flag, cs ChangeSettings, labels []string, p Publish) *Table {
 	t := newTable("flags", p, Column{"month", Text}, Column{"theme", Number}, Column{"label", Text},
 		Column{"method", Text}, Column{"share", Number}, Column{"baseline_first", Text}, Column{"baseline_last", Text},
 		Column{"baseline_mean", Number}, Column{"baseline_sd", Number}, Column{"sd_floored", Bool},
-		Column{"statistic", Number}, Column{"threshold", Number}, Column{"explanation", Text})
+		Column{"statistic", Number}, Column{"threshold", Number}, Column{"count", Number},
+		Column{"expected_count", Number}, Column{"upper_limit", Number}, Column{"explanation", Text})
 	m := SuppressSeries(s, p)
 	b := cs.baseline()
 	for _, f := range flags {
 		from, to := f.First, f.Month
-		if f.Method == C3 {
+		switch f.Method {
+		case C3:
 			from -= Month(b + 2)
+		case Farrington:
+			// The limit is a model fit over many months; only the month's own count and
+			// total can be read from it.
+			from = f.Month
 		}
 		hide := false
 		for i, mi := range s.Months {
@@ -109,10 +121,16 @@ func FlagTable(s *Series, flags []Flag, cs ChangeSettings, labels []string, p Pu
 		if hide {
 			ex = withheldNote
 		}
+		count, exp, upper := "", "", ""
+		if f.Method == Farrington {
+			count = withheld(hide, p.mark(float64(f.Limit.Count)), strconv.Itoa(f.Limit.Count))
+			exp = withheld(hide, Hidden, fmtFloat(f.Limit.Expected))
+			upper = withheld(hide, Hidden, fmtFloat(f.Limit.Upper))
+		}
 		t.Rows = append(t.Rows, []string{f.Month.String(), strconv.Itoa(f.Theme), label(labels, f.Theme),
 			f.Method.String(), withheld(hide, Hidden, fmtFloat(f.Share)), f.First.String(), f.Last.String(),
 			withheld(hide, Hidden, fmtFloat(f.Mean)), withheld(hide, Hidden, fmtFloat(f.SD)), fmtBool(f.Floored),
-			withheld(hide, Hidden, fmtFloat(f.Value)), strconv.FormatFloat(f.Threshold, 'g', -1, 64), ex})
+			withheld(hide, Hidden, fmtFloat(f.Value)), fmtFloat(f.Threshold), count, exp, upper, ex})
 	}
 	return t
 }

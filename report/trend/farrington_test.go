@@ -1,0 +1,101 @@
+package trend
+
+import (
+	"math"
+	"strings"
+	"testing"
+)
+
+func TestFarringtonFixture(t *testing.T) {
+	// Expected values: testdata/farrington.json, made by testdata/gen_farrington.py:
+	// the steps of the FarringtonLimits doc comment around Debian's python3-statsmodels
+	// GLM fits (Poisson, offset, var_weights), hat values and covariances.
+	var fx struct {
+		Cases []struct {
+			Name, Start    string
+			Totals, Counts []*int
+			Limits         []*struct {
+				Expected, Upper float64
+				Score           *float64
+				Phi             float64
+				Trend           bool
+				Baseline        int
+			}
+		}
+	}
+	readFixture(t, "farrington.json", &fx)
+	trendKept := 0
+	for _, c := range fx.Cases {
+		var totals, counts []int
+		for i := range c.Totals {
+			if c.Totals[i] == nil {
+				totals, counts = append(totals, -1), append(counts, 0)
+			} else {
+				totals, counts = append(totals, *c.Totals[i]), append(counts, *c.Counts[i])
+			}
+		}
+		s := seriesOf(t, c.Start, totals, counts)
+		got := FarringtonLimits(s, 0, FarringtonSettings{})
+		for i, w := range c.Limits {
+			g := got[i]
+			m := s.Months[i].Month
+			if w == nil {
+				if g.OK {
+					t.Errorf("%s %s: limit %+v, want none", c.Name, m, g)
+				}
+				continue
+			}
+			if !g.OK || g.Trend != w.Trend || g.Baseline != w.Baseline {
+				t.Errorf("%s %s: %+v, want trend %v baseline %d", c.Name, m, g, w.Trend, w.Baseline)
+				continue
+			}
+			if g.Trend {
+				trendKept++
+			}
+			if !close(g.Expected, w.Expected, 1e-9) || !close(g.Upper, w.Upper, 1e-9) || !close(g.Dispersion, w.Phi, 1e-9) ||
+				(w.Score != nil && !close(g.Score, *w.Score, 1e-9)) {
+				t.Errorf("%s %s: μ0 %v U %v score %v φ %v; statsmodels %v %v %v %v", c.Name, m, g.Expected, g.Upper, g.Score, g.Dispersion, w.Expected, w.Upper, w.Score, w.Phi)
+			}
+		}
+	}
+	if trendKept == 0 {
+		t.Error("the fixture never keeps the trend; the trend branch is untested")
+	}
+}
+
+func TestFarringtonFlags(t *testing.T) {
+	var fx struct {
+		Cases []struct {
+			Name, Start    string
+			Totals, Counts []*int
+		}
+	}
+	readFixture(t, "farrington.json", &fx)
+	c := fx.Cases[0]
+	var totals, counts []int
+	for i := range c.Totals {
+		if c.Totals[i] == nil {
+			totals, counts = append(totals, -1), append(counts, 0)
+		} else {
+			totals, counts = append(totals, *c.Totals[i]), append(counts, *c.Counts[i])
+		}
+	}
+	s := seriesOf(t, c.Start, totals, counts)
+	flags := Changes(s, ChangeSettings{Methods: []Method{Farrington}})
+	var months []string
+	for _, f := range flags {
+		if f.Theme == 0 {
+			months = append(months, f.Month.String())
+			if !strings.HasPrefix(f.Explanation, "In "+f.Month.String()+" this theme was dominant in ") || strings.Contains(f.Explanation, "finding") {
+				t.Errorf("explanation %q", f.Explanation)
+			}
+			if float64(f.Limit.Count) <= f.Limit.Upper || math.IsNaN(f.Value) {
+				t.Errorf("flag %+v", f)
+			}
+		}
+	}
+	// The invented burst is in month 50 (2023-03) and stays high in 2023-04.
+	if got := strings.Join(months, ","); !strings.Contains(got, "2023-03,2023-04") {
+		t.Errorf("Farrington flags %s", got)
+	}
+}
