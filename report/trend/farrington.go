@@ -69,20 +69,24 @@ type FarringtonStat struct {
 //
 //  1. Baseline: the months t − 12y + j for y = 1..b and j = −w..w that have data
 //     (b = 3 years, w = 1: up to 9 months from the same season in earlier years).
+//
 //  2. Fit the quasi-Poisson log-linear model log μ_j = α + β·x_j + log(total_j), x_j in
 //     years, by IRLS; φ = max(1, X²/(n − p)).
+//
 //  3. Down-weight past unusual months: Anscombe residuals
 //     r_j = (3/2)(y_j^{2/3} μ_j^{−1/6} − μ_j^{1/2}) / sqrt(φ(1 − h_jj)), h the hat
 //     values; weights ω_j = γ/r_j² where r_j > 1 and γ elsewhere, γ making Σω = n.
 //     Refit with prior weights ω; φ = max(1, Σ ω_j (y_j − μ_j)²/μ_j / (n − p)).
+//
 //  4. Keep the trend only if its Wald test (with φ) has p < 0.05 and the predicted
 //     rate does not exceed the highest baseline rate; otherwise redo 2–3 without it.
+//
 //  5. Predict μ̂0 = exp(α + β·x_t + log(total_t)), var(μ̂0) = μ̂0² x_tᵀ V x_t with
 //     V = φ(XᵀWX)⁻¹, and τ = φ + var(μ̂0)/μ̂0. With the 2/3-power transformation
 //     (which makes a Poisson-like count nearly symmetric):
 //
-//	U     = (μ̂0^{2/3} + z · sqrt(4/9 · μ̂0^{1/3} · τ))^{3/2}
-//	score = (y_t^{2/3} − μ̂0^{2/3}) / sqrt(4/9 · μ̂0^{1/3} · τ)
+//     U     = (μ̂0^{2/3} + z · sqrt(4/9 · μ̂0^{1/3} · τ))^{3/2}
+//     score = (y_t^{2/3} − μ̂0^{2/3}) / sqrt(4/9 · μ̂0^{1/3} · τ)
 //
 // A month is above its limit when y_t > U (score > z). The steps and the τ and U
 // formulas follow Farrington et al. (1996) as described in the documentation of the R
