@@ -82,18 +82,25 @@ type FarringtonStat struct {
 //     rate does not exceed the highest baseline rate; otherwise redo 2–3 without it.
 //
 //  5. Predict μ̂0 = exp(α + β·x_t + log(total_t)), var(μ̂0) = μ̂0² x_tᵀ V x_t with
-//     V = φ(XᵀWX)⁻¹, and τ = φ + var(μ̂0)/μ̂0. With the 2/3-power transformation
-//     (which makes a Poisson-like count nearly symmetric):
+//     V = φ(XᵀWX)⁻¹, and τ = φ + var(μ̂0)/μ̂0.
 //
-//     U     = (μ̂0^{2/3} + z · sqrt(4/9 · μ̂0^{1/3} · τ))^{3/2}
-//     score = (y_t^{2/3} − μ̂0^{2/3}) / sqrt(4/9 · μ̂0^{1/3} · τ)
+// The upper limit and the exceedance score use the 2/3-power transformation, which
+// makes a Poisson-like count nearly symmetric:
 //
-// A month is above its limit when y_t > U (score > z). The steps and the τ and U
-// formulas follow Farrington et al. (1996) as described in the documentation of the R
-// package surveillance (algo.farrington); the reweighting constant 1 and the trend rule
-// are from memory of the paper. Because the baseline comes from the same season in
-// earlier years, seasonal patterns are not flagged; the method needs b years of history
-// (here b·12 − w months before t at least) and gives no limit before that.
+//	U     = (μ̂0^{2/3} + z · sqrt(4/9 · μ̂0^{1/3} · τ))^{3/2}
+//	score = (y_t^{2/3} − μ̂0^{2/3}) / sqrt(4/9 · μ̂0^{1/3} · τ)
+//
+// A month is above its limit when y_t > U (score > z). The steps follow the list in the
+// documentation of the R package surveillance (algo.farrington); the τ, U and score
+// formulas were checked against a public R implementation (the sykdomspuls package's
+// Farrington functions); the reweighting cut-off 1 and the trend rule are from memory
+// of the paper. Adaptations: months instead of weeks, the month's number of narratives
+// as exposure (offset), and flags only from Changes' MinCount up. Because the baseline
+// comes from the same season in earlier years, a seasonal pattern is not flagged. The
+// method needs at least one earlier year and MinBaseline baseline months; months
+// without them get no limit (OK false). When the theme is absent from every baseline
+// month no model can be fitted: Expected and Upper are 0 and any count above 0 is above
+// the limit (Score +Inf).
 func FarringtonLimits(s *Series, theme int, fs FarringtonSettings) []FarringtonStat {
 	if theme < 0 || theme >= s.Themes {
 		panic("trend: theme out of range")
