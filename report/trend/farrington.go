@@ -324,6 +324,10 @@ func weightedPoisson(x, y, off, omega []float64, trend bool) (*wpFit, bool) {
 
 // farringtonExplain is the plain-words text of a month above its Farrington limit.
 func farringtonExplain(m Month, st FarringtonStat, b int) string {
+	if st.Expected == 0 {
+		return fmt.Sprintf("In %s this theme was dominant in %d narratives, and in none of the %d months from the same season in up to %d earlier years. This marks the month for a closer reading of its narratives; it does not show that anything changed in what happened.",
+			m, st.Count, st.Baseline, b)
+	}
 	trend := "without a time trend"
 	if st.Trend {
 		trend = "with a time trend"

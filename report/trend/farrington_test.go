@@ -144,3 +144,22 @@ func TestTrendTableCoarsening(t *testing.T) {
 		}
 	}
 }
+
+func TestFarringtonEmptyBaseline(t *testing.T) {
+	// A theme absent from all of the seasonal baseline: limit 0, the month is flagged.
+	totals := make([]int, 26)
+	counts := make([]int, 26)
+	for i := range totals {
+		totals[i] = 50
+	}
+	counts[25] = 6
+	s := seriesOf(t, "2021-01", totals, counts)
+	st := FarringtonLimits(s, 0, FarringtonSettings{})[25]
+	if !st.OK || st.Upper != 0 || !math.IsInf(st.Score, 1) || st.Baseline != 6 {
+		t.Fatalf("limit %+v", st)
+	}
+	flags := Changes(s, ChangeSettings{Methods: []Method{Farrington}})
+	if len(flags) != 1 || !strings.Contains(flags[0].Explanation, "in none of the 6 months") {
+		t.Errorf("flags %+v", flags)
+	}
+}
