@@ -12,8 +12,9 @@ type WordSettings struct {
 	// words seen in either side); 0 means 0.05. Then α_0 = V·Alpha for V words.
 	Alpha float64
 	// Background, if not nil, makes the prior informative: α_w = Alpha0 · b_w / Σ b,
-	// b_w the word's count in Background (for instance the whole collection). Every word
-	// of either side must have b_w > 0.
+	// b_w the word's count in Background (for instance the whole collection), Σ b over
+	// all of Background. Every word of either side must have b_w > 0. α_0 in LogOdds is
+	// then the sum of α_w over the compared vocabulary, at most Alpha0.
 	Background map[string]int
 	// Alpha0 is α_0 of the informative prior; it must be > 0 when Background is set.
 	Alpha0 float64
@@ -38,7 +39,8 @@ type WordScore struct {
 //	z_w  = δ_w / sqrt(σ²_w)
 //
 // with y_wa the count of word w in a, n_a = Σ_w y_wa, and α_0 = Σ_w α_w over the
-// vocabulary. With the uniform prior α_w = 0.05 for each of the 11 words of "the quick
+// vocabulary: the words seen on either side. The variance is the paper's approximation
+// without the (n − y) terms. With the uniform prior α_w = 0.05 for each of the 11 words of "the quick
 // brown fox jumps over the lazy pig" against "the lazy purple pig jumps over the lazier
 // donkey", α_0 = 0.55 and z = ±0.6894227886807968 for the words of one side only.
 // The scores are sorted by Z from high to low, ties by word. It returns an error for a
