@@ -50,7 +50,12 @@ func Groups(docs []Doc, gs GroupSettings) (*GroupTable, error) {
 	if conf == 0 {
 		conf = 0.95
 	}
-	zFor(conf)
+	if !(conf > 0 && conf < 1) {
+		return nil, fmt.Errorf("trend: confidence level %v is not between 0 and 1", gs.Confidence)
+	}
+	if a := gs.Alpha; a != 0 && !(a > 0 && a < 1) {
+		return nil, fmt.Errorf("trend: significance level %v is not between 0 and 1", a)
+	}
 	index := map[string]int{}
 	for _, d := range docs {
 		index[d.Group] = 0

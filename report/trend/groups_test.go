@@ -123,3 +123,15 @@ func TestGroupTestTableWithheld(t *testing.T) {
 		t.Errorf("private test row %v", row)
 	}
 }
+
+func TestGroupsBadSettings(t *testing.T) {
+	docs := []Doc{{Group: "a", Theta: []float64{1}}}
+	for _, gs := range []GroupSettings{{Confidence: 1.5}, {Alpha: -0.1}} {
+		if _, err := Groups(docs, gs); err == nil {
+			t.Errorf("%+v: no error", gs)
+		}
+	}
+	if _, err := Groups(nil, GroupSettings{}); err == nil {
+		t.Error("no docs: no error")
+	}
+}

@@ -47,7 +47,8 @@ type Settings struct {
 	// From means the date of the earliest Doc, a zero To the date of the latest. Docs
 	// outside [From, To] are an error.
 	From, To time.Time
-	// Confidence is the level of the Wilson intervals; 0 means 0.95.
+	// Confidence is the level of the Wilson intervals; 0 means 0.95. Monthly returns
+	// an error if it is not in (0, 1).
 	Confidence float64
 }
 
@@ -124,7 +125,9 @@ func Monthly(docs []Doc, s Settings) (*Series, error) {
 	if conf == 0 {
 		conf = 0.95
 	}
-	zFor(conf) // validate
+	if !(conf > 0 && conf < 1) {
+		return nil, fmt.Errorf("trend: confidence level %v is not between 0 and 1", s.Confidence)
+	}
 	n := int(last-first) + 1
 	out := &Series{Themes: themes, Confidence: conf, Months: make([]MonthInfo, n), Cells: make([][]Cell, n)}
 	for i := range out.Months {

@@ -92,6 +92,7 @@ func TestMonthlyErrors(t *testing.T) {
 		{"negative", []Doc{{Date: day("2023-01-01"), Theta: []float64{1.5, -0.5}}}, Settings{}, "theme 1 share"},
 		{"nan", []Doc{{Date: day("2023-01-01"), Theta: []float64{math.NaN(), 1}}}, Settings{}, "theme 0 share"},
 		{"outside", []Doc{{Date: day("2023-03-01"), Theta: ok}, {Date: day("2023-01-01"), Theta: ok}}, Settings{From: day("2023-02-01")}, "outside the covered range"},
+		{"confidence", []Doc{{Date: day("2023-01-05"), Theta: ok}}, Settings{Confidence: 95}, "confidence level 95"},
 		{"reversed", []Doc{{Date: day("2023-01-05"), Theta: ok}}, Settings{From: day("2023-01-05"), To: day("2023-01-01")}, "ends"},
 	} {
 		_, err := Monthly(tc.docs, tc.set)
