@@ -36,3 +36,6 @@ func panics(f func()) (p bool) {
 }
 
 func parseFloat(s string) (float64, error) { return strconv.ParseFloat(s, 64) }
+
+// relClose reports whether a and b agree within tol relative to |b| (for p-values).
+func relClose(a, b, tol float64) bool { return math.Abs(a-b) <= tol*math.Abs(b) }

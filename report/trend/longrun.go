@@ -168,7 +168,9 @@ func deviance(y, mu []float64) float64 {
 	return 2 * d
 }
 
-func twoSided(z float64) float64 { return 2 * distuv.UnitNormal.Survival(math.Abs(z)) }
+// twoSided returns the two-sided normal p-value of z, erfc(|z|/√2), accurate far into
+// the tail (1 − Φ would round to 0 beyond |z| ≈ 8).
+func twoSided(z float64) float64 { return math.Erfc(math.Abs(z) / math.Sqrt2) }
 
 // MannKendall is the Mann–Kendall test for a monotonic trend (Mann 1945; Kendall 1975,
 // Rank Correlation Methods) of a theme's monthly share over the months with data:
