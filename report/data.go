@@ -25,8 +25,8 @@ type Data struct {
 	// Themes in the order they are shown (usually by size, largest first).
 	Themes []Theme
 	// Hidden lists themes a reviewer hid with the labels file; filled by Apply.
-	Hidden []HiddenTheme
-	Tree   Tree
+	Hidden  []HiddenTheme
+	Tree    Tree
 	KChoice KChoice
 	Methods Methods
 	// Cautions are added after the built-in cautions (see BuiltinCautions), which are

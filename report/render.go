@@ -318,11 +318,15 @@ func sparkline(ms []MonthPoint) []string {
 	}
 	var out []string
 	var cur []string
+	var lastX, lastY float64
+	pt := func(x, y float64) string {
+		return strconv.FormatFloat(x, 'f', 1, 64) + "," + strconv.FormatFloat(y, 'f', 1, 64)
+	}
 	flush := func() {
+		if len(cur) == 1 { // a single point: draw a short tick
+			cur = []string{pt(lastX-1.5, lastY), pt(lastX+1.5, lastY)}
+		}
 		if len(cur) > 0 {
-			if len(cur) == 1 { // a single point: draw a short tick
-				cur = append(cur, cur[0])
-			}
 			out = append(out, strings.Join(cur, " "))
 		}
 		cur = nil
@@ -332,11 +336,14 @@ func sparkline(ms []MonthPoint) []string {
 			flush()
 			continue
 		}
-		x := 1 + 118*float64(i)/float64(len(ms)-1)
-		y := 27 - 26*m.Share/top
-		cur = append(cur, strconv.FormatFloat(x, 'f', 1, 64)+","+strconv.FormatFloat(y, 'f', 1, 64))
+		lastX = 1 + 118*float64(i)/float64(len(ms)-1)
+		lastY = 27 - 26*m.Share/top
+		cur = append(cur, pt(lastX, lastY))
 	}
 	flush()
+	if len(out) == 0 {
+		return nil
+	}
 	return out
 }
 
