@@ -108,7 +108,9 @@ type RowError struct {
 	Err error
 }
 
-func (e *RowError) Error() string { return fmt.Sprintf("export: row %d (id %q): %v", e.Row, e.ID, e.Err) }
+func (e *RowError) Error() string {
+	return fmt.Sprintf("export: row %d (id %q): %v", e.Row, e.ID, e.Err)
+}
 func (e *RowError) Unwrap() error { return e.Err }
 
 // safe defuses a text cell that a spreadsheet would read as a formula.
