@@ -131,7 +131,7 @@ func loadReport(tb testing.TB, ctx context.Context, d *Data, name string) (strin
 	if err := chromedp.Do(ctx, chromedp.Navigate("file://"+path)); err != nil {
 		tb.Fatalf("opening %s: %v", path, err)
 	}
-	wait, cancel := context.WithTimeout(ctx, 20*time.Second)
+	wait, cancel := context.WithTimeout(ctx, 45*time.Second)
 	defer cancel()
 	// Wait for the script to finish and for one more frame to be painted.
 	ms, err := chromedp.Run(wait, chromedp.Evaluate[float64](`new Promise(function (ok) {
@@ -169,7 +169,7 @@ func TestBrowser(t *testing.T) {
 	start := time.Now()
 	var ev pageEvents
 	ctx := newBrowser(t, &ev)
-	d := Sample(SampleSettings{Hostile: true, Seed: 7})
+	d := Sample(SampleSettings{Hostile: true, Seed: 7, Themes: 8})
 	path, drawTime := loadReport(t, ctx, d, "sample-report.html")
 	jsMillis, err := chromedp.Run(ctx, chromedp.Evaluate[float64]("window.__ucDrawMillis"))
 	if err != nil {
@@ -243,6 +243,13 @@ func TestBrowser(t *testing.T) {
 		t.Fatal(err)
 	}
 	writeArtifact(t, dir, "report-theme-section.png", shot)
+	for _, sec := range []string{"how-related"} {
+		shot, err = chromedp.Run(ctx, chromedp.Screenshot(chromedp.CSS("#"+sec)))
+		if err != nil {
+			t.Fatal(err)
+		}
+		writeArtifact(t, dir, "report-"+sec+".png", shot)
+	}
 
 	// The search box filters themes and examples.
 	visible := `({themes: Array.from(document.querySelectorAll('.uc-theme')).filter(function (e) { return e.offsetParent !== null; }).length,

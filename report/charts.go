@@ -188,7 +188,8 @@ func treeChart(tr *Tree) (chartSpec, []int) {
 	line.SetGlobalOptions(
 		charts.WithTooltipOpts(opts.Tooltip{Show: opts.Bool(true), Trigger: "item"}),
 		charts.WithGridOpts(opts.Grid{Left: "230", Right: "24", Top: "10", Bottom: "40"}),
-		charts.WithXAxisOpts(opts.XAxis{Type: "value", Name: "merge height (distance)", NameLocation: "middle", NameGap: 26, Min: 0}),
+		charts.WithXAxisOpts(opts.XAxis{Type: "value", Name: "merge height (distance)", NameLocation: "middle", NameGap: 26, Min: 0,
+			AxisLine: &opts.AxisLine{Show: opts.Bool(true), OnZero: opts.Bool(false)}}),
 		charts.WithYAxisOpts(opts.YAxis{Type: "value", Show: opts.Bool(false), Min: -0.5, Max: float64(n) - 0.5, Inverse: opts.Bool(true)}),
 	)
 	for j, m := range tr.Merges {
@@ -301,9 +302,9 @@ func kChart(kc *KChoice) chartSpec {
 	line.SetGlobalOptions(commonOpts(id)...)
 	line.SetGlobalOptions(
 		charts.WithLegendOpts(opts.Legend{Show: opts.Bool(true), Top: "0", Left: "center"}),
-		charts.WithGridOpts(opts.Grid{Left: "8", Right: "24", Top: "36", Bottom: "30", ContainLabel: opts.Bool(true)}),
+		charts.WithGridOpts(opts.Grid{Left: "30", Right: "24", Top: "36", Bottom: "30", ContainLabel: opts.Bool(true)}),
 		charts.WithXAxisOpts(opts.XAxis{Type: "category", Name: "number of themes (K)", NameLocation: "middle", NameGap: 26}),
-		charts.WithYAxisOpts(opts.YAxis{Type: "value", Name: "rescaled (best = 1)", Min: 0, Max: 1}),
+		charts.WithYAxisOpts(opts.YAxis{Type: "value", Name: "rescaled (best = 1)", NameLocation: "middle", NameGap: 36, Min: 0, Max: 1}),
 	)
 	ks := make([]string, len(kc.Rows))
 	rec := ""

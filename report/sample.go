@@ -10,7 +10,7 @@ import (
 
 // SampleSettings sizes the invented data made by Sample.
 type SampleSettings struct {
-	// Narratives is the number of kept narratives; zero means 4000.
+	// Narratives is the number of kept narratives; zero means 20000.
 	Narratives int
 	// Themes is the number of themes, at most 30; zero means 12.
 	Themes int
@@ -83,7 +83,7 @@ var (
 // demos. Nothing in it describes real people or places.
 func Sample(s SampleSettings) *Data {
 	if s.Narratives == 0 {
-		s.Narratives = 4000
+		s.Narratives = 20000
 	}
 	if s.Themes == 0 {
 		s.Themes = 12
@@ -410,8 +410,8 @@ func sampleKChoice(best int) KChoice {
 			K:           k,
 			HeldOutLL:   -7.9 + 0.5*(1-math.Exp(-float64(k)/10)),
 			NPMI:        math.Round((0.12-0.00015*x*x)*1000) / 1000,
-			UMass:       math.Round((-1.9-0.002*x*x)*1000) / 1000,
-			Stability:   math.Round((0.86-0.0004*x*x)*1000) / 1000,
+			UMass:       math.Round((-1.2-0.03*float64(k))*1000) / 1000,
+			Stability:   math.Round((0.86-0.0004*(x+5)*(x+5))*1000) / 1000,
 			Recommended: k == best,
 		})
 	}
