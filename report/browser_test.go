@@ -10,6 +10,8 @@ import (
 	"testing"
 	"time"
 
+	"github.com/chromedp/cdproto/cdp"
+	"github.com/chromedp/cdproto/emulation"
 	"github.com/chromedp/cdproto/log"
 	"github.com/chromedp/cdproto/network"
 	"github.com/chromedp/cdproto/runtime"
@@ -281,6 +283,46 @@ func TestBrowser(t *testing.T) {
 			t.Errorf("search %q: counter says %q", q, v.Count)
 		}
 		t.Logf("search %q: %d themes, %d examples shown", q, v.Themes, v.Examples)
+	}
+
+	// The overview table sorts: the second click on "share of text" sorts it downwards.
+	shares, err := chromedp.Run(ctx, chromedp.Evaluate[[]float64](`(function () {
+	  var b = document.querySelector('#uc-glance button[data-col="3"]'); b.click(); b.click();
+	  return Array.from(document.querySelectorAll('#uc-glance tbody tr')).map(function (r) { return parseFloat(r.cells[3].getAttribute('data-v')); });
+	})()`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(shares) != len(d.Themes) {
+		t.Errorf("%d rows after sorting, want %d", len(shares), len(d.Themes))
+	}
+	for i := 1; i < len(shares); i++ {
+		if shares[i] > shares[i-1] {
+			t.Errorf("not sorted downwards by share: %v", shares)
+			break
+		}
+	}
+
+	// The print stylesheet hides the search bar and starts each theme on a new page.
+	media := func(m string) chromedp.Action[chromedp.Void] {
+		return chromedp.Func(func(ctx context.Context, tg *chromedp.Target) error {
+			_, err := cdp.Call(ctx, tg, emulation.SetEmulatedMedia, emulation.SetEmulatedMediaParams{Media: m})
+			return err
+		})
+	}
+	if err := chromedp.Do(ctx, media("print")); err != nil {
+		t.Fatal(err)
+	}
+	pr, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](`[getComputedStyle(document.querySelector('.uc-searchbar')).display,
+	  getComputedStyle(document.querySelector('.uc-theme')).breakBefore]`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(pr) != 2 || pr[0] != "none" || pr[1] != "page" {
+		t.Errorf("print media: search bar display and theme break-before = %v, want [none page]", pr)
+	}
+	if err := chromedp.Do(ctx, media("")); err != nil {
+		t.Fatal(err)
 	}
 
 	console, requests := ev.snapshot()
