@@ -91,6 +91,7 @@ func trendChart(t *Theme) chartSpec {
 	line := charts.NewLine()
 	line.SetGlobalOptions(commonOpts(id)...)
 	line.SetGlobalOptions(
+		charts.WithTooltipOpts(opts.Tooltip{Show: opts.Bool(true), Trigger: "item"}),
 		charts.WithGridOpts(opts.Grid{Left: "8", Right: "16", Top: "30", Bottom: "8", ContainLabel: opts.Bool(true)}),
 		charts.WithYAxisOpts(opts.YAxis{Type: "value", Name: "% of month", Scale: opts.Bool(false)}),
 	)
@@ -121,14 +122,17 @@ func trendChart(t *Theme) chartSpec {
 		}
 	}
 	line.SetXAxis(months)
+	// The band: the lower end, with the interval's width stacked on it and filled. The
+	// tooltip is per point (trigger "item"), so only the share and the marks show in it;
+	// the table beside the chart has both ends of every interval.
 	noSym := charts.WithLineChartOpts(opts.LineChart{Stack: "band", ShowSymbol: opts.Bool(false), Symbol: "none"})
-	line.AddSeries("interval low (%)", low, noSym,
+	line.AddSeries("95% interval, lower end (%)", low, noSym,
 		charts.WithLineStyleOpts(opts.LineStyle{Opacity: opts.Float(0)}))
-	line.AddSeries("interval width (%)", width, noSym,
+	line.AddSeries("95% interval, width (%)", width, noSym,
 		charts.WithLineStyleOpts(opts.LineStyle{Opacity: opts.Float(0)}),
-		charts.WithAreaStyleOpts(opts.AreaStyle{Color: colBand, Opacity: opts.Float(0.35)}))
+		charts.WithAreaStyleOpts(opts.AreaStyle{Color: colBand, Opacity: opts.Float(0.4)}))
 	line.AddSeries("share (%)", share,
-		charts.WithLineChartOpts(opts.LineChart{Symbol: "circle", SymbolSize: 4}),
+		charts.WithLineChartOpts(opts.LineChart{Symbol: "circle", SymbolSize: 6}),
 		charts.WithLineStyleOpts(opts.LineStyle{Color: colLine, Width: 2}),
 		charts.WithItemStyleOpts(opts.ItemStyle{Color: colLine}))
 	line.AddSeries("flagged month", flags,
