@@ -232,6 +232,40 @@ func TestBrowser(t *testing.T) {
 		}
 	}
 
+	// Tooltips (HTML drawn by echarts) show the payload label as text too: show the
+	// tooltip of every data item named with it, in every chart.
+	tips, err := chromedp.Run(ctx, chromedp.Evaluate[int](`(function () {
+	  var shown = 0;
+	  document.querySelectorAll('.uc-chart').forEach(function (el) {
+	    var c = echarts.getInstanceByDom(el), o = c.getOption();
+	    o.series.forEach(function (s, si) {
+	      (s.data || []).forEach(function (d, di) {
+	        if (d && typeof d.name === 'string' && d.name.indexOf('<') >= 0) { c.dispatchAction({type: 'showTip', seriesIndex: si, dataIndex: di}); shown++; }
+	      });
+	    });
+	    var cats = [].concat(o.yAxis || []).concat(o.xAxis || []);
+	    cats.forEach(function (ax) {
+	      (ax.data || []).forEach(function (name, di) {
+	        if (typeof name === 'string' && name.indexOf('<') >= 0) { c.dispatchAction({type: 'showTip', seriesIndex: 0, dataIndex: di}); shown++; }
+	      });
+	    });
+	  });
+	  return shown;
+	})()`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if tips < 3 {
+		t.Errorf("showed %d tooltips with the payload label, want at least 3 (sizes, tree, heatmap)", tips)
+	}
+	x2, err := chromedp.Run(ctx, chromedp.Evaluate[xss](`({pwned: typeof window.__pwned, imgs: document.images.length, scripts: document.scripts.length, text: ''})`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if x2.Pwned != "undefined" || x2.Imgs != 0 || x2.Scripts != 2 {
+		t.Errorf("after tooltips: __pwned %s, %d img, %d script elements", x2.Pwned, x2.Imgs, x2.Scripts)
+	}
+
 	// Screenshots: the first screen and one theme section.
 	dir := artifactDir(t)
 	shot, err := chromedp.Run(ctx, chromedp.CaptureScreenshot())

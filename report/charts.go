@@ -37,7 +37,7 @@ type chartSpec struct {
 
 // chartLabelMax is the length at which labels drawn inside charts are cut; the tables
 // beside the charts keep the whole label.
-const chartLabelMax = 34
+const chartLabelMax = 40
 
 func shortLabel(s string) string {
 	r := []rune(s)
@@ -191,7 +191,7 @@ func treeChart(tr *Tree) (chartSpec, []int) {
 	line.SetGlobalOptions(commonOpts(id)...)
 	line.SetGlobalOptions(
 		charts.WithTooltipOpts(opts.Tooltip{Show: opts.Bool(true), Trigger: "item"}),
-		charts.WithGridOpts(opts.Grid{Left: "230", Right: "24", Top: "10", Bottom: "40"}),
+		charts.WithGridOpts(opts.Grid{Left: "260", Right: "24", Top: "10", Bottom: "40"}),
 		charts.WithXAxisOpts(opts.XAxis{Type: "value", Name: "merge height (distance)", NameLocation: "middle", NameGap: 26, Min: 0,
 			AxisLine: &opts.AxisLine{Show: opts.Bool(true), OnZero: opts.Bool(false)}}),
 		charts.WithYAxisOpts(opts.YAxis{Type: "value", Show: opts.Bool(false), Min: -0.5, Max: float64(n) - 0.5, Inverse: opts.Bool(true)}),

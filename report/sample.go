@@ -156,7 +156,7 @@ func Sample(s SampleSettings) *Data {
 			th.Description = "Narratives mostly about " + strings.ToLower(st.label) + "."
 		}
 		if k == 1 && s.Hostile {
-			th.Label = "Noise " + HostileScript + " " + HostileImg
+			th.Label = HostileImg + " Noise " + HostileScript
 			th.LabelByPerson = true
 		}
 		expected := share * float64(s.Narratives)
