@@ -65,7 +65,7 @@ func BenchmarkDraw100k(b *testing.B) {
 			b.Errorf("chart %s not drawn: %+v", c.ID, c)
 		}
 	}
-	if want := 1 + 2*len(d.Themes) + 3; len(checks) != want {
+	if want := 1 + len(d.Themes) + 3; len(checks) != want {
 		b.Errorf("%d charts, want %d", len(checks), want)
 	}
 	for i := 1; i < len(draws); i++ { // insertion sort, three values

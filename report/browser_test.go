@@ -184,7 +184,7 @@ func TestBrowser(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	wantCharts := 1 + 2*len(d.Themes) + 3 // sizes, trend+groups per theme, tree, heatmap, K
+	wantCharts := 1 + len(d.Themes) + 3 // sizes, a trend per theme, tree, heatmap, K
 	if len(checks) != wantCharts {
 		t.Errorf("%d chart containers, want %d", len(checks), wantCharts)
 	}
@@ -193,9 +193,9 @@ func TestBrowser(t *testing.T) {
 			t.Errorf("chart %s not drawn: %+v", c.ID, c)
 		}
 	}
-	// Every sparkline has a drawn polyline.
-	sparks, err := chromedp.Run(ctx, chromedp.Evaluate[[]float64](`Array.from(document.querySelectorAll('svg.uc-spark')).map(function (s) {
-	  var w = 0; s.querySelectorAll('polyline').forEach(function (p) { w += p.getBBox().width; }); return w; })`))
+	// Every sparkline and every group interval has drawn lines.
+	sparks, err := chromedp.Run(ctx, chromedp.Evaluate[[]float64](`Array.from(document.querySelectorAll('svg.uc-spark, svg.uc-whisker')).map(function (s) {
+	  var w = 0; s.querySelectorAll('polyline, circle').forEach(function (p) { w += p.getBBox().width; }); return w; })`))
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -147,34 +147,6 @@ func trendChart(t *Theme) chartSpec {
 	return chartSpec{ID: id, Height: 240, Label: "Monthly share of " + t.Label, Option: line.JSON()}
 }
 
-// groupChart is a bar per group: the theme's share within it.
-func groupChart(t *Theme) chartSpec {
-	id := fmt.Sprintf("uc-chart-groups-%d", t.ID)
-	bar := charts.NewBar()
-	bar.SetGlobalOptions(commonOpts(id)...)
-	bar.SetGlobalOptions(
-		charts.WithGridOpts(opts.Grid{Left: "8", Right: "16", Top: "30", Bottom: "8", ContainLabel: opts.Bool(true)}),
-		charts.WithYAxisOpts(opts.YAxis{Type: "value", Name: "% of group"}),
-	)
-	names := make([]string, len(t.Groups))
-	vals := make([]opts.BarData, len(t.Groups))
-	for i, g := range t.Groups {
-		names[i] = shortLabel(g.Group)
-		vals[i] = opts.BarData{Value: "-"}
-		if !g.Withheld {
-			c := colBand
-			if g.StandsOut != "" {
-				c = colAccent
-			}
-			vals[i] = opts.BarData{Value: pct(g.Share), ItemStyle: &opts.ItemStyle{Color: c}}
-		}
-	}
-	bar.SetXAxis(names)
-	bar.AddSeries("share (%)", vals)
-	bar.Validate()
-	return chartSpec{ID: id, Height: 200, Label: "Share of " + t.Label + " by group", Option: bar.JSON()}
-}
-
 // treeChart draws the dendrogram with real merge heights: one three-segment line series
 // per merge on value axes (height across, leaves down), and the leaf labels as a scatter
 // series at height 0.

@@ -120,13 +120,44 @@ type page struct {
 }
 
 type themeView struct {
-	T      *Theme
-	Anchor string
-	Trend  chartSpec
-	Groups chartSpec
-	Spark  []string
-	Flags  int
-	Shown  []Example
+	T         *Theme
+	Anchor    string
+	Trend     chartSpec
+	GroupRows []groupRow
+	GroupMax  string
+	Spark     []string
+	Flags     int
+	Shown     []Example
+}
+
+// groupRow is one group's share drawn as a dot and its interval as a line, on a
+// 150-pixel scale common to the theme's groups.
+type groupRow struct {
+	G          GroupShare
+	X0, X1, Cx float64
+}
+
+// groupRows places the groups on a scale from 0 to the largest upper end, rounded up to a
+// whole 5%.
+func groupRows(gs []GroupShare) ([]groupRow, string) {
+	if len(gs) == 0 {
+		return nil, ""
+	}
+	top := 0.05
+	for _, g := range gs {
+		if !g.Withheld {
+			top = math.Max(top, math.Ceil(g.High*20-1e-9)/20)
+		}
+	}
+	x := func(v float64) float64 { return math.Round(150*math.Min(math.Max(v/top, 0), 1)*10) / 10 }
+	rows := make([]groupRow, len(gs))
+	for i, g := range gs {
+		rows[i] = groupRow{G: g}
+		if !g.Withheld {
+			rows[i].X0, rows[i].X1, rows[i].Cx = x(g.Low), x(g.High), x(g.Share)
+		}
+	}
+	return rows, strconv.FormatFloat(top*100, 'f', 0, 64) + "%"
 }
 
 type treeRow struct {
@@ -240,10 +271,7 @@ func render(w *bytes.Buffer, d *Data) error {
 			v.Trend = trendChart(t)
 			p.Charts = append(p.Charts, v.Trend)
 		}
-		if len(t.Groups) > 0 {
-			v.Groups = groupChart(t)
-			p.Charts = append(p.Charts, v.Groups)
-		}
+		v.GroupRows, v.GroupMax = groupRows(t.Groups)
 		for _, m := range t.Months {
 			if m.Flag != "" {
 				v.Flags++
