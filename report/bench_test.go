@@ -1,0 +1,93 @@
+package report
+
+import (
+	"bytes"
+	"testing"
+	"time"
+
+	"github.com/chromedp/chromedp"
+)
+
+// Goals of issue 8: the report for 100k narratives (about 25 themes, 36 months, 5
+// examples each) is at most 10 MB and is drawn in at most 3 s in headless chromium.
+const (
+	largeMaxBytes = 10 << 20
+	largeMaxDraw  = 3 * time.Second
+)
+
+func largeData() *Data {
+	return Sample(SampleSettings{Narratives: 100_000, Themes: 25, Months: 36, Examples: 5, Seed: 1})
+}
+
+// BenchmarkRender100k times rendering the large report in Go and reports its size.
+func BenchmarkRender100k(b *testing.B) {
+	d := largeData()
+	var buf bytes.Buffer
+	for b.Loop() {
+		buf.Reset()
+		if err := Render(&buf, d); err != nil {
+			b.Fatal(err)
+		}
+	}
+	b.ReportMetric(float64(buf.Len()), "bytes/report")
+	if buf.Len() > largeMaxBytes {
+		b.Errorf("report is %d bytes, goal at most %d", buf.Len(), largeMaxBytes)
+	}
+}
+
+// BenchmarkDraw100k opens the large report in headless chromium and reports the time
+// from navigation start until every chart is drawn and painted (the median of three
+// loads), the time from the first chart call to the last, and the first contentful paint
+// of the last load (text shows before the charts are drawn).
+func BenchmarkDraw100k(b *testing.B) {
+	d := largeData()
+	var ev pageEvents
+	ctx := newBrowser(b, &ev)
+	var draws []time.Duration
+	var js, fcp float64
+	for b.Loop() {
+		draws = draws[:0]
+		for range 3 {
+			_, dt := loadReport(b, ctx, d, "large-report.html")
+			draws = append(draws, dt)
+		}
+		var err error
+		js, err = chromedp.Run(ctx, chromedp.Evaluate[float64]("window.__ucDrawMillis"))
+		if err != nil {
+			b.Fatal(err)
+		}
+		fcp, err = chromedp.Run(ctx, chromedp.Evaluate[float64](`(performance.getEntriesByName('first-contentful-paint')[0] || {startTime: -1}).startTime`))
+		if err != nil {
+			b.Fatal(err)
+		}
+	}
+	checks, err := chromedp.Run(ctx, chromedp.Evaluate[[]chartCheck](chartsScript))
+	if err != nil {
+		b.Fatal(err)
+	}
+	for _, c := range checks {
+		if c.Canvases == 0 || c.Width == 0 || c.Painted < 50 {
+			b.Errorf("chart %s not drawn: %+v", c.ID, c)
+		}
+	}
+	if want := 1 + len(d.Themes) + 3; len(checks) != want {
+		b.Errorf("%d charts, want %d", len(checks), want)
+	}
+	for i := 1; i < len(draws); i++ { // insertion sort, three values
+		for j := i; j > 0 && draws[j] < draws[j-1]; j-- {
+			draws[j], draws[j-1] = draws[j-1], draws[j]
+		}
+	}
+	med := draws[len(draws)/2]
+	b.ReportMetric(float64(med.Milliseconds()), "ms/draw")
+	b.ReportMetric(js, "ms/charts-js")
+	b.ReportMetric(fcp, "ms/first-paint")
+	b.Logf("draw times %v (median %v), chart calls %.0f ms, %d charts", draws, med, js, len(checks))
+	if med > largeMaxDraw {
+		b.Errorf("drawn in %v, goal at most %v", med, largeMaxDraw)
+	}
+	console, _ := ev.snapshot()
+	for _, c := range console {
+		b.Errorf("browser console: %s", c)
+	}
+}

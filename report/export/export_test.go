@@ -1,0 +1,124 @@
+package export
+
+import (
+	"bytes"
+	"encoding/csv"
+	"errors"
+	"math"
+	"strings"
+	"testing"
+
+	"undercurrent/report"
+)
+
+// Expected files are written by hand from the column documentation. Quoting follows
+// RFC 4180 (as encoding/csv writes it): fields with a comma, quote or line break are
+// quoted and quotes doubled.
+func TestWriteWide(t *testing.T) {
+	rows := []WideRow{
+		{ID: "LK-1", Date: "2024-03-01", Groups: []string{"Harbour"}, Theta: []float64{0.1, 0.6, 0.2, 0.1}},
+		{ID: "=cmd|' /C calc'!A0", Date: "", Groups: []string{"Old Town, east"}, Theta: []float64{0.25, 0.25, 0.25, 0.25}},
+		{ID: "LK-3", Date: "2024-03-02", Groups: []string{"-5"}, Theta: []float64{0, 0, 0, 1}},
+	}
+	var buf bytes.Buffer
+	if err := WriteWide(&buf, []string{"district"}, []string{"parking", "noise \"loud\"", "@alarm", "theft"}, rows); err != nil {
+		t.Fatal(err)
+	}
+	want := "id,date,district,theme,label,share,second_theme,second_share,third_theme,third_share\n" +
+		"LK-1,2024-03-01,Harbour,1,\"noise \"\"loud\"\"\",0.6000,2,0.2000,0,0.1000\n" +
+		"'=cmd|' /C calc'!A0,,\"Old Town, east\",0,parking,0.2500,1,0.2500,2,0.2500\n" +
+		"LK-3,2024-03-02,'-5,3,theft,1.0000,0,0.0000,1,0.0000\n"
+	if buf.String() != want {
+		t.Errorf("got\n%s\nwant\n%s", buf.String(), want)
+	}
+	if _, err := csv.NewReader(&buf).ReadAll(); err != nil {
+		t.Errorf("output does not read back: %v", err)
+	}
+
+	err := WriteWide(&buf, nil, []string{"a", "b"}, []WideRow{{ID: "x", Theta: []float64{math.NaN(), 1}}})
+	var re *RowError
+	if !errors.As(err, &re) || re.Row != 0 || re.ID != "x" {
+		t.Errorf("NaN share: got %v", err)
+	}
+}
+
+func TestTop3(t *testing.T) {
+	for _, tc := range []struct {
+		in   []float64
+		want []int
+	}{
+		{[]float64{0.5}, []int{0}},
+		{[]float64{0.2, 0.8}, []int{1, 0}},
+		{[]float64{0.1, 0.3, 0.2, 0.4}, []int{3, 1, 2}},
+		{[]float64{0.3, 0.3, 0.3, 0.1}, []int{0, 1, 2}},
+		{[]float64{0.1, 0.2, 0.2, 0.2, 0.3}, []int{4, 1, 2}},
+	} {
+		got := top3(tc.in)
+		if len(got) != len(tc.want) {
+			t.Errorf("top3(%v) = %v, want %v", tc.in, got, tc.want)
+			continue
+		}
+		for i := range got {
+			if got[i] != tc.want[i] {
+				t.Errorf("top3(%v) = %v, want %v", tc.in, got, tc.want)
+				break
+			}
+		}
+	}
+}
+
+func TestWriteLong(t *testing.T) {
+	rows := LongRows(nil, "LK-1", []float64{0.05, 0.7, 0.25}, 0.1)
+	rows = LongRows(rows, "+LK-2", []float64{1, 0, 0}, 0.1)
+	var buf bytes.Buffer
+	if err := WriteLong(&buf, rows); err != nil {
+		t.Fatal(err)
+	}
+	want := "id,theme,share\nLK-1,1,0.7000\nLK-1,2,0.2500\n'+LK-2,0,1.0000\n"
+	if buf.String() != want {
+		t.Errorf("got\n%s\nwant\n%s", buf.String(), want)
+	}
+	if err := WriteLong(&buf, []LongRow{{ID: "a", Theme: 0, Share: 1.5}}); err == nil {
+		t.Error("share 1.5 accepted")
+	}
+}
+
+func TestWriteThemes(t *testing.T) {
+	d := report.Sample(report.SampleSettings{Seed: 1, Themes: 4})
+	c, err := report.ParseLabels("l.txt", strings.NewReader("theme 0: label = Parking, mostly\nmerge 3 into 0\nhide 2\n"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := report.Apply(d, c, nil); err != nil {
+		t.Fatal(err)
+	}
+	var buf bytes.Buffer
+	if err := WriteThemes(&buf, ThemeRows(d)); err != nil {
+		t.Fatal(err)
+	}
+	recs, err := csv.NewReader(&buf).ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(recs) != 5 || strings.Join(recs[0], ",") != "theme,label,label_by,top_words,narratives,expected,share,status" {
+		t.Fatalf("got %q", recs)
+	}
+	status := map[string]string{}
+	for _, r := range recs[1:] {
+		status[r[0]] = r[7]
+		if r[0] == "0" && (r[1] != "Parking, mostly" || r[2] != "person") {
+			t.Errorf("theme 0 row %q", r)
+		}
+	}
+	if status["0"] != "shown" || status["1"] != "shown" || status["2"] != "hidden" || status["3"] != "merged into 0" {
+		t.Errorf("status = %v", status)
+	}
+}
+
+func TestColumnsMarkdown(t *testing.T) {
+	got := ColumnsMarkdown(LongColumns)
+	want := "| column | meaning |\n|---|---|\n| `id` | narrative identifier (redacted by default) |\n| `theme` | theme number (0-based) |\n| `share` | the theme's share of the narrative, 0 to 1 |\n"
+	if got != want {
+		t.Errorf("got\n%s", got)
+	}
+}

@@ -1,0 +1,116 @@
+package report
+
+import (
+	"bytes"
+	"errors"
+	"math"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+// artifactDir is where tests leave files for a person to look at: $UNDERCURRENT_ARTIFACTS,
+// or a temporary directory.
+func artifactDir(t testing.TB) string {
+	if d := os.Getenv("UNDERCURRENT_ARTIFACTS"); d != "" {
+		if err := os.MkdirAll(d, 0o755); err != nil {
+			t.Fatal(err)
+		}
+		return d
+	}
+	return t.TempDir()
+}
+
+func TestRenderSample(t *testing.T) {
+	d := Sample(SampleSettings{Hostile: true, Seed: 7})
+	var a, b bytes.Buffer
+	if err := Render(&a, d); err != nil {
+		t.Fatal(err)
+	}
+	if err := Render(&b, Sample(SampleSettings{Hostile: true, Seed: 7})); err != nil {
+		t.Fatal(err)
+	}
+	if !bytes.Equal(a.Bytes(), b.Bytes()) {
+		t.Fatal("two renders of the same data differ")
+	}
+	page := strings.Replace(a.String(), echartsJS, "", 1)
+	for _, bad := range []string{HostileScript, HostileImg, "<img src=x", "src=\"http", "src=http", "https://cdn", "@import", "url("} {
+		if strings.Contains(page, bad) {
+			t.Errorf("page contains %q", bad)
+		}
+	}
+	path := filepath.Join(artifactDir(t), "sample-report.html")
+	if err := WriteFile(path, d); err != nil {
+		t.Fatal(err)
+	}
+	t.Logf("sample report: %s (%d bytes)", path, a.Len())
+}
+
+func TestValidate(t *testing.T) {
+	for _, tc := range []struct {
+		name string
+		edit func(d *Data)
+		want string
+	}{
+		{"duplicate theme", func(d *Data) { d.Themes[1].ID = d.Themes[0].ID }, "theme 0 appears twice"},
+		{"merge of a future cluster", func(d *Data) { d.Tree.Merges[0].Left = len(d.Tree.Leaves) + 3 }, "does not exist yet"},
+		{"cluster merged twice", func(d *Data) { d.Tree.Merges[1] = d.Tree.Merges[0]; d.Tree.Merges[1].Height = d.Tree.Merges[2].Height }, "merged twice"},
+		{"height falls", func(d *Data) { d.Tree.Merges[2].Height = -1 }, "below the previous merge"},
+		{"NaN share", func(d *Data) { d.Themes[0].Months[3].Share = math.NaN() }, "not finite"},
+	} {
+		d := Sample(SampleSettings{Themes: 5, Seed: 2})
+		tc.edit(d)
+		err := Validate(d)
+		if err == nil || !strings.Contains(err.Error(), tc.want) || !errors.Is(err, ErrInvalid) {
+			t.Errorf("%s: got %v, want an ErrInvalid containing %q", tc.name, err, tc.want)
+		}
+	}
+	if err := Validate(Sample(SampleSettings{Seed: 2})); err != nil {
+		t.Errorf("sample: %v", err)
+	}
+}
+
+// A failed render leaves the previous report in place and no temporary file behind.
+func TestWriteFileFailure(t *testing.T) {
+	dir := t.TempDir()
+	path := filepath.Join(dir, "report.html")
+	if err := os.WriteFile(path, []byte("previous"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	d := Sample(SampleSettings{Themes: 3})
+	d.Themes[1].ID = d.Themes[0].ID
+	if err := WriteFile(path, d); err == nil {
+		t.Fatal("no error for invalid data")
+	}
+	if b, _ := os.ReadFile(path); string(b) != "previous" {
+		t.Errorf("report overwritten: %q", b)
+	}
+	if ents, _ := os.ReadDir(dir); len(ents) != 1 {
+		t.Errorf("directory holds %d entries, want 1", len(ents))
+	}
+}
+
+// Everything from the data is escaped: a label and a narrative that hold markup appear
+// as text in every context of the page (element text, attribute, chart options).
+func TestEscaping(t *testing.T) {
+	d := Sample(SampleSettings{Themes: 3, Hostile: true})
+	d.Themes[0].Label = `"></a><svg onload=alert(1)> __f__function(){}__f__ </script><!--`
+	d.Tree.Leaves[d.Themes[0].ID].Label = d.Themes[0].Label
+	var buf bytes.Buffer
+	if err := Render(&buf, d); err != nil {
+		t.Fatal(err)
+	}
+	page := strings.Replace(buf.String(), echartsJS, "", 1)
+	for _, bad := range []string{"<svg onload", "</script><!--", "<script>window.__pwned", "<img src=x"} {
+		if strings.Contains(page, bad) {
+			t.Errorf("page contains %q unescaped", bad)
+		}
+	}
+	if n := strings.Count(strings.ToLower(page), "<script"); n != 2 {
+		t.Errorf("%d script elements, want 2", n)
+	}
+	if !strings.Contains(page, "&lt;svg onload=alert(1)&gt;") || !strings.Contains(page, `\u003csvg onload=alert(1)\u003e`) {
+		t.Error("label not found escaped as HTML text and as JS string")
+	}
+}
