@@ -1,0 +1,57 @@
+package main
+
+import (
+	"bytes"
+	"context"
+	"strings"
+	"testing"
+)
+
+// runArgs runs the command line in-process with buffers, as restic's tests do.
+func runArgs(t *testing.T, args ...string) (code int, stdout, stderr string) {
+	t.Helper()
+	var out, errb bytes.Buffer
+	e := &env{stdin: strings.NewReader(""), stdout: &out, stderr: &errb, quiet: true}
+	code = run(context.Background(), e, args)
+	return code, out.String(), errb.String()
+}
+
+// The exit-status table is the project's own, documented in every command's help (after the
+// go command's convention of 2 for usage errors).
+func TestExitCodes(t *testing.T) {
+	tests := []struct {
+		args []string
+		code int
+		out  string
+	}{
+		{nil, exitUsage, ""},
+		{[]string{"--version"}, exitOK, "undercurrent " + version},
+		{[]string{"help"}, exitOK, "Commands:"},
+		{[]string{"no-such-command"}, exitUsage, ""},
+		{[]string{"help", "no-such-command"}, exitUsage, ""},
+	}
+	for _, tt := range tests {
+		code, out, _ := runArgs(t, tt.args...)
+		if code != tt.code {
+			t.Errorf("%v: exit %d, want %d", tt.args, code, tt.code)
+		}
+		if !strings.Contains(out, tt.out) {
+			t.Errorf("%v: stdout %q lacks %q", tt.args, out, tt.out)
+		}
+	}
+}
+
+// Every subcommand has help with an example and the exit-status table.
+func TestEveryCommandHasHelp(t *testing.T) {
+	for _, c := range commands {
+		code, out, _ := runArgs(t, c.name, "-h")
+		if code != exitOK {
+			t.Errorf("%s -h: exit %d", c.name, code)
+		}
+		for _, want := range []string{"usage: undercurrent " + c.name, "Example", "Exit status"} {
+			if !strings.Contains(out, want) {
+				t.Errorf("%s -h: help lacks %q", c.name, want)
+			}
+		}
+	}
+}
