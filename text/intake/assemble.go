@@ -55,9 +55,6 @@ func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
 			}
 			rows = append(rows, rowRef{file: file, fi: fi, line: r.line, f: f})
 		}
-		for _, rj := range t.rejects {
-			s.Rejects = append(s.Rejects, rj)
-		}
 	}
 	// Pre-rejects carry their file index through the order of tabs; remember it.
 	fileIndex := map[string]int{}
@@ -75,6 +72,25 @@ func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
 		return nil, err
 	}
 	s.Notes = append(s.Notes, notes...)
+	// Rows rejected while parsing get their id from the id column when they have one.
+	for _, t := range tabs {
+		var perm []int
+		if idCol >= 0 {
+			perm, _ = align(tabs[0], t)
+		}
+		for i, rj := range t.rejects {
+			if f, ok := t.rejFields[i]; ok && idCol >= 0 {
+				c := idCol
+				if perm != nil {
+					c = perm[idCol]
+				}
+				if c < len(f) {
+					rj.ID = clip(strings.ToValidUTF8(strings.TrimSpace(f[c]), "\uFFFD"), 64)
+				}
+			}
+			s.Rejects = append(s.Rejects, rj)
+		}
+	}
 	role := map[int]bool{idCol: true, dateCol: true}
 	if idCol >= 0 {
 		s.IDName = header[idCol]

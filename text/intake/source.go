@@ -5,6 +5,7 @@ import (
 	"bufio"
 	"bytes"
 	"context"
+	"encoding/json"
 	"fmt"
 	"io"
 	"path/filepath"
@@ -17,8 +18,11 @@ type table struct {
 	header  []string
 	rows    []rawRow
 	rejects []Reject // rows rejected while parsing (ragged, bad quoting, bad json)
-	notes   []string
-	xlsx    bool
+	// rejFields holds the fields of rejected rows by index in rejects, so that their id
+	// can be taken from the id column once it is known.
+	rejFields map[int][]string
+	notes     []string
+	xlsx      bool
 }
 
 type rawRow struct {
@@ -67,7 +71,11 @@ func readSource(ctx context.Context, name string, r io.ReaderAt, size int64, opt
 	ext := strings.ToLower(filepath.Ext(name))
 	first := firstNonSpace(peek)
 	if ext != ".csv" && ext != ".tsv" && (first == '[' || first == '{') {
-		t, err = readJSON(ctx, name, br, first == '[', dec, opt)
+		// '[': an array of objects. '{': JSON Lines when the first line is a whole
+		// object, else one object wrapping an array of records.
+		line, _, _ := bytes.Cut(bytes.TrimLeft(peek, " \t\r\n"), []byte("\n"))
+		array := first == '[' || !json.Valid(bytes.TrimSpace(line))
+		t, err = readJSON(ctx, name, br, array, dec, opt)
 	} else {
 		t, err = readCSV(ctx, name, br, peek, ext, dec, opt)
 	}
