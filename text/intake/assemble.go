@@ -91,7 +91,27 @@ func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
 			s.Rejects = append(s.Rejects, rj)
 		}
 	}
-	role := map[int]bool{idCol: true, dateCol: true}
+	timeCol := -1
+	if opt.Time != "" {
+		if dateCol < 0 {
+			return nil, &PosError{File: first, Err: fmt.Errorf("%w: a time column (%q) needs a date column", ErrNoColumn, opt.Time)}
+		}
+		if timeCol, err = findColumn(first, "time", opt.Time, header); err != nil {
+			return nil, err
+		}
+		s.TimeName = header[timeCol]
+	}
+	// dateOf is the date text of a row: the date column, and the time column after it.
+	dateOf := func(f []string) string {
+		v := strings.TrimSpace(f[dateCol])
+		if timeCol >= 0 && v != "" {
+			if tv := strings.TrimSpace(f[timeCol]); tv != "" {
+				v += " " + tv
+			}
+		}
+		return v
+	}
+	role := map[int]bool{idCol: true, dateCol: true, timeCol: true}
 	if idCol >= 0 {
 		s.IDName = header[idCol]
 	}
@@ -117,7 +137,7 @@ func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
 	if dateCol >= 0 {
 		vals := make([]string, len(rows))
 		for i, r := range rows {
-			vals[i] = r.f[dateCol]
+			vals[i] = dateOf(r.f)
 		}
 		var note string
 		reading, note, err = decideReading(header[dateCol], vals, opt, xlsx, opt.Now)
@@ -176,7 +196,7 @@ func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
 			rec.Text = strings.Join(parts, "\n\n")
 		}
 		if dateCol >= 0 {
-			v := strings.TrimSpace(r.f[dateCol])
+			v := dateOf(r.f)
 			switch {
 			case v == "" && opt.RequireDate:
 				rej(ReasonMissingDate, fmt.Sprintf("%q is empty", s.DateName))
