@@ -169,7 +169,7 @@ func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
 		}
 		if rec.ID == "" {
 			rec.ID = r.file + ":" + strconv.Itoa(r.line)
-			if idCol >= 0 {
+			if idCol >= 0 && !allBlank(r.f) {
 				synth++
 			}
 		}

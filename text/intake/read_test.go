@@ -217,6 +217,13 @@ func TestTrailingDelimiter(t *testing.T) {
 	}
 }
 
+func TestCROnlyLines(t *testing.T) {
+	s, err := readOne(t, "mac.csv", "id,narrative\r1,one\r2,two\r", Options{})
+	if err != nil || len(s.Records) != 2 || s.Records[1].Line != 3 {
+		t.Errorf("%v %+v", err, s)
+	}
+}
+
 func TestNamedColumnMissing(t *testing.T) {
 	_, err := readOne(t, "n.csv", "Report ID,Narrative,District\n1,a,b\n", Options{Text: []string{"narative"}})
 	if !errors.Is(err, ErrNoColumn) || !strings.Contains(err.Error(), `did you mean "Narrative"`) || !strings.Contains(err.Error(), `"District"`) {

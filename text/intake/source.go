@@ -67,6 +67,13 @@ func readSource(ctx context.Context, name string, r io.ReaderAt, size int64, opt
 	if len(peek) < 64<<10 && len(bytes.TrimSpace(peek)) == 0 {
 		return nil, &PosError{File: name, Err: ErrEmpty}
 	}
+	var notes []string
+	if len(peek) > 0 && bytes.IndexByte(peek, '\n') < 0 && bytes.IndexByte(peek, '\r') >= 0 {
+		// Lines end in a bare CR (classic Mac OS): read each CR as a line end.
+		br = bufio.NewReaderSize(crReader{br}, 64<<10)
+		peek, _ = br.Peek(64 << 10)
+		notes = append(notes, name+": lines end in a carriage return alone; read as line ends")
+	}
 	var t *table
 	ext := strings.ToLower(filepath.Ext(name))
 	first := firstNonSpace(peek)
@@ -85,8 +92,9 @@ func readSource(ctx context.Context, name string, r io.ReaderAt, size int64, opt
 	t.info.Encoding = dec.encoding
 	t.info.InvalidLines = dec.invalidLines
 	if dec.note != "" {
-		t.notes = append([]string{dec.note}, t.notes...)
+		notes = append([]string{dec.note}, notes...)
 	}
+	t.notes = append(notes, t.notes...)
 	return t, nil
 }
 
@@ -123,4 +131,17 @@ func uniqueHeader(name string, h []string) ([]string, []string) {
 		out[i] = c
 	}
 	return out, notes
+}
+
+// crReader turns every '\r' into '\n'.
+type crReader struct{ r io.Reader }
+
+func (c crReader) Read(p []byte) (int, error) {
+	n, err := c.r.Read(p)
+	for i, b := range p[:n] {
+		if b == '\r' {
+			p[i] = '\n'
+		}
+	}
+	return n, err
 }
