@@ -55,9 +55,6 @@ func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
 			}
 			rows = append(rows, rowRef{file: file, fi: fi, line: r.line, f: f})
 		}
-		for _, rj := range t.rejects {
-			s.Rejects = append(s.Rejects, rj)
-		}
 	}
 	// Pre-rejects carry their file index through the order of tabs; remember it.
 	fileIndex := map[string]int{}
@@ -75,7 +72,46 @@ func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
 		return nil, err
 	}
 	s.Notes = append(s.Notes, notes...)
-	role := map[int]bool{idCol: true, dateCol: true}
+	// Rows rejected while parsing get their id from the id column when they have one.
+	for _, t := range tabs {
+		var perm []int
+		if idCol >= 0 {
+			perm, _ = align(tabs[0], t)
+		}
+		for i, rj := range t.rejects {
+			if f, ok := t.rejFields[i]; ok && idCol >= 0 {
+				c := idCol
+				if perm != nil {
+					c = perm[idCol]
+				}
+				if c < len(f) {
+					rj.ID = clip(strings.ToValidUTF8(strings.TrimSpace(f[c]), "\uFFFD"), 64)
+				}
+			}
+			s.Rejects = append(s.Rejects, rj)
+		}
+	}
+	timeCol := -1
+	if opt.Time != "" {
+		if dateCol < 0 {
+			return nil, &PosError{File: first, Err: fmt.Errorf("%w: a time column (%q) needs a date column", ErrNoColumn, opt.Time)}
+		}
+		if timeCol, err = findColumn(first, "time", opt.Time, header); err != nil {
+			return nil, err
+		}
+		s.TimeName = header[timeCol]
+	}
+	// dateOf is the date text of a row: the date column, and the time column after it.
+	dateOf := func(f []string) string {
+		v := strings.TrimSpace(f[dateCol])
+		if timeCol >= 0 && v != "" {
+			if tv := strings.TrimSpace(f[timeCol]); tv != "" {
+				v += " " + tv
+			}
+		}
+		return v
+	}
+	role := map[int]bool{idCol: true, dateCol: true, timeCol: true}
 	if idCol >= 0 {
 		s.IDName = header[idCol]
 	}
@@ -101,7 +137,7 @@ func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
 	if dateCol >= 0 {
 		vals := make([]string, len(rows))
 		for i, r := range rows {
-			vals[i] = r.f[dateCol]
+			vals[i] = dateOf(r.f)
 		}
 		var note string
 		reading, note, err = decideReading(header[dateCol], vals, opt, xlsx, opt.Now)
@@ -133,7 +169,7 @@ func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
 		}
 		if rec.ID == "" {
 			rec.ID = r.file + ":" + strconv.Itoa(r.line)
-			if idCol >= 0 {
+			if idCol >= 0 && !allBlank(r.f) {
 				synth++
 			}
 		}
@@ -160,7 +196,7 @@ func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
 			rec.Text = strings.Join(parts, "\n\n")
 		}
 		if dateCol >= 0 {
-			v := strings.TrimSpace(r.f[dateCol])
+			v := dateOf(r.f)
 			switch {
 			case v == "" && opt.RequireDate:
 				rej(ReasonMissingDate, fmt.Sprintf("%q is empty", s.DateName))

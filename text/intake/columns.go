@@ -231,6 +231,11 @@ func chooseColumns(file string, header []string, rows []rowRef, xlsx bool, opt *
 			return
 		}
 	}
+	if opt.Time != "" {
+		if _, err = named("time", opt.Time); err != nil {
+			return
+		}
+	}
 	for _, n := range opt.Text {
 		var i int
 		if i, err = named("narrative", n); err != nil {

@@ -116,3 +116,7 @@ func TestCorpusSafenet(t *testing.T) {
 		t.Errorf("columns id %q date %q text %q, delimiter %q", s.IDName, s.DateName, s.TextNames, s.Files[5].Delimiter)
 	}
 }
+
+func readPaths(paths []string) (*Set, error) {
+	return Read(context.Background(), paths, nil, Options{Now: corpusNow})
+}

@@ -153,8 +153,11 @@ func readCSV(ctx context.Context, name string, br *bufio.Reader, peek []byte, ex
 		line, _ := cr.FieldPos(0)
 		if dec.sanitize {
 			if bad := invalidField(rec); bad >= 0 && opt.RejectBadEncoding {
-				t.rejects = append(t.rejects, Reject{File: name, Line: line, ID: clip(strings.ToValidUTF8(rec[0], "\uFFFD"), 64),
-					Reason: ReasonBadEncoding, Detail: fmt.Sprintf("field %d holds bytes that are not valid UTF-8", bad+1)})
+				if t.rejFields == nil {
+					t.rejFields = map[int][]string{}
+				}
+				t.rejFields[len(t.rejects)] = rec
+				t.rejects = append(t.rejects, Reject{File: name, Line: line, Reason: ReasonBadEncoding, Detail: fmt.Sprintf("field %d holds bytes that are not valid UTF-8", bad+1)})
 				continue
 			}
 			for j := range rec {
@@ -172,11 +175,11 @@ func readCSV(ctx context.Context, name string, br *bufio.Reader, peek []byte, ex
 				blank++
 				continue
 			}
-			id := ""
-			if len(rec) > 0 {
-				id = rec[0]
+			if t.rejFields == nil {
+				t.rejFields = map[int][]string{}
 			}
-			t.rejects = append(t.rejects, Reject{File: name, Line: line, ID: clip(id, 64), Reason: ReasonRaggedRow,
+			t.rejFields[len(t.rejects)] = rec
+			t.rejects = append(t.rejects, Reject{File: name, Line: line, Reason: ReasonRaggedRow,
 				Detail: fmt.Sprintf("%d fields, header has %d", len(rec), len(t.header))})
 			continue
 		}

@@ -33,6 +33,20 @@ func (o DateOrder) String() string {
 	return "auto"
 }
 
+// ParseDateOrder reads a DateOrder from its String form or a short alias: "" or
+// "auto"; "month-first", "mdy" or "us"; "day-first", "dmy".
+func ParseDateOrder(s string) (DateOrder, error) {
+	switch strings.ToLower(strings.TrimSpace(s)) {
+	case "", "auto":
+		return OrderAuto, nil
+	case "month-first", "mdy", "us":
+		return MonthFirst, nil
+	case "day-first", "dmy":
+		return DayFirst, nil
+	}
+	return OrderAuto, fmt.Errorf("unknown date order %q (use auto, month-first or day-first)", s)
+}
+
 var (
 	errNotDate  = errors.New("not a date")
 	errBadValue = errors.New("field out of range")

@@ -14,15 +14,19 @@
 //   - "PK\x03\x04" with an xl/ entry inside is an XLSX workbook (github.com/xuri/excelize/v2),
 //     read from Options.Sheet or the first sheet, raw cell values, row 1 the header;
 //   - other zip archives and OLE2 (.xls) files are errors;
-//   - text starting with '[' is a JSON array of objects, with '{' JSON Lines (unless the
-//     extension is .csv or .tsv); keys become columns in first-seen order; strings stay,
-//     null is "", numbers and booleans keep their JSON text, nested values become
-//     compact JSON text;
+//   - text starting with '[' is a JSON array of objects; with '{', JSON Lines when the
+//     first line is a whole object, else one object whose first array-valued key holds
+//     the records (unless the extension is .csv or .tsv: then it is delimited text).
+//     Keys become columns in first-seen order; strings stay, null is "", numbers and
+//     booleans keep their JSON text, nested values become compact JSON text; an
+//     element or line that is not an object is rejected ("bad json");
 //   - anything else is delimited text. The delimiter is sniffed among ',' tab ';' '|',
 //     plus ", " (comma and space, as in the safenet exports; encoding/csv's
 //     TrimLeadingSpace then drops leading blanks of fields). Quoting is RFC 4180 through
 //     encoding/csv with LazyQuotes off unless Options.LazyQuotes. Fields of any size
-//     (tested with 50 MB) are read. A row with another field count than the header's is
+//     (tested with 50 MB) are read. Lines holding only blanks are skipped and counted in
+//     a note (encoding/csv skips empty lines alike); empty fields after the header's
+//     last column are dropped. A row with another field count than the header's is
 //     rejected ("ragged row"), a row with bad quoting is rejected ("bad quoting") with
 //     the parser's line:column, and a quoted field that never closes is an error (it
 //     swallowed the rest of the file).
@@ -43,8 +47,12 @@
 // mark). Without one, a file that is valid UTF-8 is UTF-8. Otherwise the lines vote:
 // when more lines hold invalid UTF-8 than hold valid multi-byte UTF-8 the file is read
 // as Windows-1252 (golang.org/x/text/encoding/charmap); else it is UTF-8 and the
-// invalid bytes become U+FFFD. FileInfo reports the encoding taken and the number of
-// lines that do not fit it; a note explains mixed files.
+// invalid bytes become U+FFFD (or, with Options.RejectBadEncoding, their rows are
+// rejected as "bad encoding"). FileInfo reports the encoding taken and the number of
+// lines that do not fit it; a note explains mixed files. Standard input is copied to a
+// temporary file first, so that it can be read twice like a file: once to decide the
+// encoding, once to parse. Rows are then held in memory once (Set.Records shares their
+// strings); an XLSX workbook is held whole by excelize.
 //
 // # Columns
 //
@@ -67,7 +75,8 @@
 //     the largest share of rows with a date. Bare numbers count only under a date-like
 //     header.
 //
-// Every other column is passed through in Record.Extra (names in Set.ExtraNames).
+// Every other column is passed through in Record.Extra (names in Set.ExtraNames), its
+// values as read; Record.Text and Record.Groups are trimmed of surrounding blanks.
 //
 // # Dates
 //
@@ -84,7 +93,8 @@
 //	times              after a date, by 'T', space, comma or " at ": 15:45, 15:45:10,
 //	                   3:45 PM, 3 pm, 1545 (24-hour, four digits)
 //
-// Two-digit years are 20YY unless that is after Options.Now's year, then 19YY. Values
+// Zones are Z, UTC, GMT or a numeric offset (+02:00, +0200, +02); named zones such as
+// EST are not read (they are ambiguous). Two-digit years are 20YY unless that is after Options.Now's year, then 19YY. Values
 // without a zone are in UTC. The numeric order is a column decision: day-first when some
 // value has a first field > 12 and none a second field > 12, month-first when the
 // reverse, month-first (US exports) when no value decides, and by majority when values
@@ -101,7 +111,7 @@
 // # Rejects and duplicates
 //
 // Checks run in this order and the first that fails gives the reason: ragged row, bad
-// quoting, bad json (while parsing), blank row, empty narrative, missing date,
+// quoting, bad json, bad encoding (while parsing), blank row, empty narrative, missing date,
 // unparseable date, implausible date. Among the rows left, rows sharing an id keep the
 // first (Options.KeepLast: the last, for exports that carry several versions of a
 // report); the others are rejected as "duplicate id", or "duplicate id, different text"

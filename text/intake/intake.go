@@ -19,6 +19,10 @@ type Options struct {
 	// ID, Date name the id and date columns; "" chooses automatically. ID "-" means no
 	// id column (ids become "file:line"); Date "-" means no date column.
 	ID, Date string
+	// Time names a column holding the time of day of the date column's dates (exports
+	// that split them); its value is read after the date, "2020-01-05" + " " + "1545".
+	// "" means none.
+	Time string
 	// Text names the narrative columns, joined with a blank line ("\n\n") in this order;
 	// nil chooses one automatically.
 	Text []string
@@ -91,6 +95,7 @@ type Set struct {
 	Files      []FileInfo
 	IDName     string   // "" when ids are synthesized
 	DateName   string   // "" when there is no date column
+	TimeName   string   // Options.Time's column, or ""
 	DateRead   string   // how dates were read, e.g. "month-first", "excel serial", a layout
 	TextNames  []string // narrative columns, in join order
 	GroupNames []string

@@ -71,32 +71,73 @@ func readJSON(ctx context.Context, name string, br *bufio.Reader, array bool, de
 		lc := &lineCounter{r: br}
 		d := json.NewDecoder(lc)
 		d.UseNumber()
-		if _, err := d.Token(); err != nil {
+		tok, err := d.Token()
+		if err != nil {
 			return nil, jsonErr(name, lc, d, err)
 		}
-		for i := 0; d.More(); i++ {
-			if i&1023 == 0 {
-				if err := ctx.Err(); err != nil {
-					return nil, err
+		elements := func() error {
+			for i := 0; d.More(); i++ {
+				if i&1023 == 0 {
+					if err := ctx.Err(); err != nil {
+						return err
+					}
+				}
+				var raw json.RawMessage
+				if err := d.Decode(&raw); err != nil {
+					return jsonErr(name, lc, d, err)
+				}
+				line := lc.lineAt(d.InputOffset() - int64(len(raw)))
+				obj, err := object(raw)
+				if err != nil {
+					t.rejects = append(t.rejects, Reject{File: name, Line: line, Reason: ReasonBadJSON, Detail: err.Error()})
+					continue
+				}
+				add(line, obj)
+			}
+			if _, err := d.Token(); err != nil { // the closing ]
+				return jsonErr(name, lc, d, err)
+			}
+			return nil
+		}
+		if tok == json.Delim('[') {
+			if err := elements(); err != nil {
+				return nil, err
+			}
+		} else {
+			// One object wrapping the records: {"meta": {...}, "records": [{...}, ...]}.
+			// The first key whose value is an array is read as the records.
+			key := ""
+			for d.More() {
+				kt, err := d.Token()
+				if err != nil {
+					return nil, jsonErr(name, lc, d, err)
+				}
+				k, _ := kt.(string)
+				if key == "" && nextValueByte(d) == '[' {
+					if _, err := d.Token(); err != nil {
+						return nil, jsonErr(name, lc, d, err)
+					}
+					key = k
+					if err := elements(); err != nil {
+						return nil, err
+					}
+					continue
+				}
+				var skip json.RawMessage
+				if err := d.Decode(&skip); err != nil {
+					return nil, jsonErr(name, lc, d, err)
 				}
 			}
-			var raw json.RawMessage
-			if err := d.Decode(&raw); err != nil {
+			if _, err := d.Token(); err != nil {
 				return nil, jsonErr(name, lc, d, err)
 			}
-			line := lc.lineAt(d.InputOffset() - int64(len(raw)))
-			obj, err := object(raw)
-			if err != nil {
-				t.rejects = append(t.rejects, Reject{File: name, Line: line, Reason: ReasonBadJSON, Detail: err.Error()})
-				continue
+			if key == "" {
+				return nil, &PosError{File: name, Line: 1, Err: errors.New("a JSON object that is neither one object per line nor holds an array of records")}
 			}
-			add(line, obj)
-		}
-		if _, err := d.Token(); err != nil {
-			return nil, jsonErr(name, lc, d, err)
+			t.notes = append(t.notes, fmt.Sprintf("%s: records read from the array under the key %q", name, key))
 		}
 		if _, err := d.Token(); err != io.EOF {
-			return nil, &PosError{File: name, Line: lc.lineAt(d.InputOffset()), Err: errors.New("data after the closing ] of the JSON array")}
+			return nil, &PosError{File: name, Line: lc.lineAt(d.InputOffset()), Err: errors.New("data after the end of the JSON value")}
 		}
 	} else {
 		line := 0
@@ -228,4 +269,19 @@ func scalar(v json.RawMessage) string {
 		}
 	}
 	return string(v)
+}
+
+// nextValueByte returns the first byte of the value the decoder reads next (after the
+// ':' of a key), or 0 when it is not yet buffered.
+func nextValueByte(d *json.Decoder) byte {
+	var buf [256]byte
+	n, _ := d.Buffered().Read(buf[:])
+	for _, c := range buf[:n] {
+		switch c {
+		case ' ', '\t', '\r', '\n', ':':
+			continue
+		}
+		return c
+	}
+	return 0
 }

@@ -210,6 +210,18 @@ func TestTrailingDelimiter(t *testing.T) {
 	if err != nil || len(s.Records) != 2 || s.Rejects[0].Reason != ReasonRaggedRow || s.Rejects[0].Line != 4 {
 		t.Errorf("%v %s %+v", err, s.Summary(), s.Rejects)
 	}
+	// A ragged row's id comes from the id column, wherever it is.
+	s, _ = readOne(t, "t.csv", "narrative,id\none,1\ntwo,2,x\n", Options{})
+	if s.Rejects[0].ID != "2" {
+		t.Errorf("ragged row id %q", s.Rejects[0].ID)
+	}
+}
+
+func TestCROnlyLines(t *testing.T) {
+	s, err := readOne(t, "mac.csv", "id,narrative\r1,one\r2,two\r", Options{})
+	if err != nil || len(s.Records) != 2 || s.Records[1].Line != 3 {
+		t.Errorf("%v %+v", err, s)
+	}
 }
 
 func TestNamedColumnMissing(t *testing.T) {
@@ -379,6 +391,11 @@ func TestJSON(t *testing.T) {
 	s, err = readOne(t, "a.jsonl", jl, Options{})
 	if err != nil || len(s.Records) != 2 || s.Rejects[0].Line != 4 || s.Rejects[0].Reason != ReasonBadJSON {
 		t.Errorf("jsonl: %v %s %+v", err, s.Summary(), s.Rejects)
+	}
+	wrapped := "{\n \"meta\": {\"n\": [1]},\n \"records\": [\n  {\"id\": \"a\", \"text\": \"one\"},\n  {\"id\": \"b\", \"text\": \"two\"}\n ]\n}\n"
+	s, err = readOne(t, "w.json", wrapped, Options{})
+	if err != nil || len(s.Records) != 2 || s.Records[1].Line != 5 || s.Records[1].Text != "two" {
+		t.Errorf("wrapped: %v %+v", err, s)
 	}
 	_, err = readOne(t, "b.json", `[{"id":1,"text":"x"}, {"id":`, Options{})
 	if err == nil {

@@ -5,6 +5,7 @@ import (
 	"bufio"
 	"bytes"
 	"context"
+	"encoding/json"
 	"fmt"
 	"io"
 	"path/filepath"
@@ -17,8 +18,11 @@ type table struct {
 	header  []string
 	rows    []rawRow
 	rejects []Reject // rows rejected while parsing (ragged, bad quoting, bad json)
-	notes   []string
-	xlsx    bool
+	// rejFields holds the fields of rejected rows by index in rejects, so that their id
+	// can be taken from the id column once it is known.
+	rejFields map[int][]string
+	notes     []string
+	xlsx      bool
 }
 
 type rawRow struct {
@@ -63,11 +67,22 @@ func readSource(ctx context.Context, name string, r io.ReaderAt, size int64, opt
 	if len(peek) < 64<<10 && len(bytes.TrimSpace(peek)) == 0 {
 		return nil, &PosError{File: name, Err: ErrEmpty}
 	}
+	var notes []string
+	if len(peek) > 0 && bytes.IndexByte(peek, '\n') < 0 && bytes.IndexByte(peek, '\r') >= 0 {
+		// Lines end in a bare CR (classic Mac OS): read each CR as a line end.
+		br = bufio.NewReaderSize(crReader{br}, 64<<10)
+		peek, _ = br.Peek(64 << 10)
+		notes = append(notes, name+": lines end in a carriage return alone; read as line ends")
+	}
 	var t *table
 	ext := strings.ToLower(filepath.Ext(name))
 	first := firstNonSpace(peek)
 	if ext != ".csv" && ext != ".tsv" && (first == '[' || first == '{') {
-		t, err = readJSON(ctx, name, br, first == '[', dec, opt)
+		// '[': an array of objects. '{': JSON Lines when the first line is a whole
+		// object, else one object wrapping an array of records.
+		line, _, _ := bytes.Cut(bytes.TrimLeft(peek, " \t\r\n"), []byte("\n"))
+		array := first == '[' || !json.Valid(bytes.TrimSpace(line))
+		t, err = readJSON(ctx, name, br, array, dec, opt)
 	} else {
 		t, err = readCSV(ctx, name, br, peek, ext, dec, opt)
 	}
@@ -77,8 +92,9 @@ func readSource(ctx context.Context, name string, r io.ReaderAt, size int64, opt
 	t.info.Encoding = dec.encoding
 	t.info.InvalidLines = dec.invalidLines
 	if dec.note != "" {
-		t.notes = append([]string{dec.note}, t.notes...)
+		notes = append([]string{dec.note}, notes...)
 	}
+	t.notes = append(notes, t.notes...)
 	return t, nil
 }
 
@@ -115,4 +131,17 @@ func uniqueHeader(name string, h []string) ([]string, []string) {
 		out[i] = c
 	}
 	return out, notes
+}
+
+// crReader turns every '\r' into '\n'.
+type crReader struct{ r io.Reader }
+
+func (c crReader) Read(p []byte) (int, error) {
+	n, err := c.r.Read(p)
+	for i, b := range p[:n] {
+		if b == '\r' {
+			p[i] = '\n'
+		}
+	}
+	return n, err
 }

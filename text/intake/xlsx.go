@@ -93,7 +93,11 @@ func readSheet(ctx context.Context, name string, r io.Reader, opt *Options) (*ta
 				}
 			}
 			if extra {
-				t.rejects = append(t.rejects, Reject{File: name, Line: rowNum, ID: clip(cells[0], 64), Reason: ReasonRaggedRow,
+				if t.rejFields == nil {
+					t.rejFields = map[int][]string{}
+				}
+				t.rejFields[len(t.rejects)] = cells
+				t.rejects = append(t.rejects, Reject{File: name, Line: rowNum, Reason: ReasonRaggedRow,
 					Detail: fmt.Sprintf("values in %d columns, header has %d", len(cells), len(t.header))})
 				continue
 			}
