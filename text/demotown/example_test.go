@@ -17,16 +17,15 @@ func ExampleGenerate() {
 		}
 	}
 	// Output:
-	// QM23-000001 1/9/2023 5:12 AM Lantern Hill | PROPERTY | lost_found_property
-	// Found a bicycle leaning against the fence at the Millrace Transit Center. The item was wet and appeared to have been outside for ten days. The owner, Ms. Drumberly, came to the station and picked it up. The caller was given a report number for insurance. Lost property report taken.
-	//   name "Drumberly" at [154,163)
-	// QM23-000002 2/22/2023 3:21 PM Eastwater | WELL BEING CHECK | welfare_check
-	// At 0525 hrs on 2/22/2023, officers responded at 2nd St & Thistlecombe Way for a welfare check. Welfare check requested by the reporting party, Rachel Dellacort, who could be reached at 555-555-0195. The individual was cold but alert and said she was walking to a friend's house. There was a strong odor coming from inside the residence. The sergeant was informed of the call. I contacted the resident's daughter by phone at (555) 555-0175. The back door was unlocked and I entered w/ the property manager. The phone number on file, 555-0161, went straight to voicemail. Neighbors said they had not seen her in over a week. No concerns at this time. No further action.
-	//   intersection "2nd St & Thistlecombe Way" at [48,73)
-	//   name "Rachel Dellacort" at [143,159)
-	//   phone "555-555-0195" at [185,197)
-	//   phone "(555) 555-0175" at [424,438)
-	//   phone "555-0161" at [532,540)
-	// QM23-000003 3/10/2023 2:17 PM Eastwater | LARCENY | routine_clear
-	// Area checked, gone on arrival.
+	// QM23-000001 1/9/2023 5:12 AM Millrace | DISTURBANCE - NOISE | trespass
+	// RP reported subjects camping behind the warehouse on Corriden Ave. The manager explained the subject had been asked to leave twice today. The lady was described as a WM wearing a green backpack. I contacted the individual, identified as Maria Kilderry, DOB: 01/05/1978. Ms. Kilderry gathered her belongings and left the area without problems. I checked the building and found an open window in the back. Subj left the property. NFA.
+	//   name "Maria Kilderry" at [237,251)
+	//   dob "01/05/1978" at [258,268)
+	//   name "Kilderry" at [274,282)
+	// QM23-000002 2/20/2023 12:46 AM Eastwater | SUSPICIOUS CIRCUMSTANCES | lost_found_property
+	// 2/20/2023 0046 hrs. Dispatched to 631 Veltmoor Blvd for found property. A reporting party turned in tools found in the parking lot of Dunnerfell Diner. A veh with plate BJZ5139 was parked nearby. The finder did not want to be contacted. Lost property report taken.
+	//   address "631 Veltmoor Blvd" at [34,51)
+	//   plate "BJZ5139" at [169,176)
+	// QM23-000003 3/30/2023 8:20 PM Lantern Hill | SUSPICIOUS CIRCUMSTANCES | routine_clear
+	// Subject GOA.
 }

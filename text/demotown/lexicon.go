@@ -115,6 +115,7 @@ var syn = map[string][]string{
 	"left":      {"left", "left the area", "departed", "went on his way"},
 	"info":      {"information", "^info", "details"},
 	"time":      {"{approx} {hhmm} hrs", "{approx} {hhmm} hours", "{hhmm} hrs", "{approx} {hhmm}"},
+	"itime":     {"{approx} {ihhmm} hrs", "{approx} {ihhmm} hours", "{ihhmm} hrs"},
 	"later":     {"a short time later", "shortly after", "a few minutes later", "later"},
 	"officer":   {"officer", "officer", "^ofc"},
 	"male":      {"male", "man", "guy", "male subject"},

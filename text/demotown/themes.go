@@ -6,9 +6,10 @@ type Trend string
 // The planted trends.
 const (
 	Flat      Trend = "flat"      // constant share
-	Rising    Trend = "rising"    // weight grows linearly from 0.5 to 2 times its base
-	Appearing Trend = "appearing" // weight 0 before AppearMonth, base from then on
-	Seasonal  Trend = "seasonal"  // weight times 1 + 0.7 cos(2 pi (month - July) / 12)
+	Rising    Trend = "rising"    // share grows linearly from 0.6 to 1.6 times its base
+	Appearing Trend = "appearing" // share 0 before AppearMonth, its base from then on
+	Seasonal  Trend = "seasonal"  // share times 1 + 0.5 cos(2 pi (month - July) / 12)
+	Residual  Trend = "residual"  // what the others leave: falls as the specials grow
 )
 
 // themeDef is a theme's invented sentence templates and metadata. Templates use {slot}
@@ -46,7 +47,7 @@ const (
 
 var themeDefs = []themeDef{
 	{
-		name: ThemeTraffic, label: "Traffic stops", trend: Flat, base: 0.10, district: 1,
+		name: ThemeTraffic, label: "Traffic stops", trend: Flat, base: 0.09, district: 1,
 		ref:       []string{"a traffic complaint", "a reckless driver", "a vehicle blocking traffic"},
 		callTypes: []string{"TRAFFIC STOP", "VEHICLE STOP", "TRAFFIC"}, minLen: 2, maxLen: 9,
 		open: []string{
@@ -104,7 +105,7 @@ var themeDefs = []themeDef{
 		},
 	},
 	{
-		name: ThemeWelfare, label: "Welfare checks", trend: Flat, base: 0.08, district: 3,
+		name: ThemeWelfare, label: "Welfare checks", trend: Flat, base: 0.07, district: 3,
 		ref:       []string{"a welfare check", "a check welfare request", "a well being check"},
 		callTypes: []string{"WELFARE CHECK", "CHECK WELFARE", "WELL BEING CHECK"}, minLen: 2, maxLen: 10,
 		open: []string{
@@ -154,7 +155,7 @@ var themeDefs = []themeDef{
 		},
 	},
 	{
-		name: ThemeNoise, label: "Noise complaints", trend: Seasonal, base: 0.08, district: 2,
+		name: ThemeNoise, label: "Noise complaints", trend: Seasonal, base: 0.07, district: 2,
 		ref:       []string{"a noise complaint", "a loud party", "a disturbance"},
 		callTypes: []string{"NOISE COMPLAINT", "DISTURBANCE - NOISE", "LOUD PARTY"}, minLen: 1, maxLen: 7,
 		open: []string{
@@ -163,7 +164,7 @@ var themeDefs = []themeDef{
 			"Responded to a noise complaint on {street} at {time}.",
 			"Anonymous caller reported {noise} from the apartments near {XST}.",
 			"{RP}, {NAME}, called to complain about {noise} from the {res} next door.",
-			"Dispatched for {noise} in the {area} of {place}.",
+			"Dispatched for {noise} near {place}.",
 			"Neighbor complained about {noise} again tonight.",
 			"Caller {stated} {noise} had been going on for {dur}.",
 			"Second call tonight about {noise} on {street}.",
@@ -200,7 +201,7 @@ var themeDefs = []themeDef{
 		},
 	},
 	{
-		name: ThemeAlarm, label: "Alarms", trend: Flat, base: 0.08, district: 4,
+		name: ThemeAlarm, label: "Alarms", trend: Flat, base: 0.07, district: 4,
 		ref:       []string{"an alarm", "an alarm call", "an audible alarm"},
 		callTypes: []string{"ALARM", "BURGLAR ALARM", "ALARM - COMMERCIAL"}, minLen: 1, maxLen: 6,
 		open: []string{
@@ -243,7 +244,7 @@ var themeDefs = []themeDef{
 		},
 	},
 	{
-		name: ThemeAnimal, label: "Animal calls", trend: Flat, base: 0.07, district: 0,
+		name: ThemeAnimal, label: "Animal calls", trend: Flat, base: 0.06, district: 0,
 		ref:       []string{"an animal complaint", "a loose animal", "an animal problem"},
 		callTypes: []string{"ANIMAL COMPLAINT", "ANIMAL CONTROL", "DOG AT LARGE"}, minLen: 1, maxLen: 7,
 		open: []string{
@@ -332,7 +333,7 @@ var themeDefs = []themeDef{
 		},
 	},
 	{
-		name: ThemeDomestic, label: "Domestic disputes", trend: Flat, base: 0.07, district: 1,
+		name: ThemeDomestic, label: "Domestic disputes", trend: Flat, base: 0.06, district: 1,
 		ref:       []string{"a domestic disturbance", "a family fight", "a verbal argument"},
 		callTypes: []string{"DOMESTIC DISTURBANCE", "DOMESTIC", "FAMILY FIGHT"}, minLen: 3, maxLen: 11,
 		open: []string{
@@ -380,7 +381,7 @@ var themeDefs = []themeDef{
 		},
 	},
 	{
-		name: ThemeMentalHealth, label: "Person in mental-health crisis", trend: Flat, base: 0.06, district: 3,
+		name: ThemeMentalHealth, label: "Person in mental-health crisis", trend: Flat, base: 0.05, district: 3,
 		ref:       []string{"a person in crisis", "a mental health call", "a suicidal subject"},
 		callTypes: []string{"MENTAL HEALTH", "PERSON IN CRISIS", "SUICIDAL SUBJECT"}, minLen: 3, maxLen: 11,
 		open: []string{
@@ -425,7 +426,7 @@ var themeDefs = []themeDef{
 		},
 	},
 	{
-		name: ThemeParking, label: "Parking complaints", trend: Flat, base: 0.07, district: 4,
+		name: ThemeParking, label: "Parking complaints", trend: Flat, base: 0.06, district: 4,
 		ref:       []string{"a parking complaint", "an abandoned vehicle", "a parking problem"},
 		callTypes: []string{"PARKING COMPLAINT", "PARKING VIOLATION", "ABANDONED VEHICLE"}, minLen: 1, maxLen: 6,
 		open: []string{
@@ -464,7 +465,7 @@ var themeDefs = []themeDef{
 		},
 	},
 	{
-		name: ThemeProperty, label: "Lost and found property", trend: Flat, base: 0.06, district: 0,
+		name: ThemeProperty, label: "Lost and found property", trend: Flat, base: 0.05, district: 0,
 		ref:       []string{"found property", "a lost property report", "property"},
 		callTypes: []string{"FOUND PROPERTY", "LOST PROPERTY", "PROPERTY"}, minLen: 1, maxLen: 6,
 		open: []string{
@@ -502,7 +503,7 @@ var themeDefs = []themeDef{
 		},
 	},
 	{
-		name: ThemeTrespass, label: "Trespass", trend: Flat, base: 0.06, district: 4,
+		name: ThemeTrespass, label: "Trespass", trend: Flat, base: 0.05, district: 4,
 		ref:       []string{"an unwanted person", "a trespass", "a suspicious person"},
 		callTypes: []string{"TRESPASS", "UNWANTED PERSON", "SUSPICIOUS PERSON"}, minLen: 2, maxLen: 8,
 		open: []string{
@@ -542,7 +543,7 @@ var themeDefs = []themeDef{
 		},
 	},
 	{
-		name: ThemeForce, label: "Use of force and resisting arrest", trend: Flat, base: 0.05, district: 1,
+		name: ThemeForce, label: "Use of force and resisting arrest", trend: Flat, base: 0.04, district: 1,
 		ref:       []string{"a disturbance", "a warrant service", "a fight"},
 		callTypes: []string{"RESISTING ARREST", "ASSAULT ON OFFICER", "WARRANT ARREST"}, minLen: 4, maxLen: 12,
 		open: []string{
@@ -591,7 +592,7 @@ var themeDefs = []themeDef{
 		},
 	},
 	{
-		name: ThemeScooter, label: "Shared e-scooter complaints", trend: Appearing, base: 0.07, district: 2,
+		name: ThemeScooter, label: "Shared e-scooter complaints", trend: Appearing, base: 0.04, district: 2,
 		ref:       []string{"a scooter complaint", "a public nuisance", "a traffic hazard"},
 		callTypes: []string{"SCOOTER COMPLAINT", "PUBLIC NUISANCE", "TRAFFIC HAZARD"}, minLen: 1, maxLen: 6,
 		open: []string{
@@ -626,7 +627,7 @@ var themeDefs = []themeDef{
 		},
 	},
 	{
-		name: ThemeRoutine, label: "Routine: area checked, all clear", trend: Flat, base: 0.17, district: 0,
+		name: ThemeRoutine, label: "Routine: area checked, all clear", trend: Residual, base: 0, district: 0,
 		ref:       []string{"a suspicious circumstance", "an area check"},
 		callTypes: []string{"AREA CHECK", "SUSPICIOUS CIRCUMSTANCES", "EXTRA PATROL"}, minLen: 1, maxLen: 3,
 		open: []string{
@@ -661,16 +662,16 @@ var themeDefs = []themeDef{
 	},
 }
 
-// preambles are optional first sentences in the style of a dispatch log. {date} is the
-// incident's own date (not PII, though it looks like a date of birth), {ref} the theme's
+// preambles are optional first sentences in the style of a dispatch log. {date} and
+// {ihhmm} are the incident's own reported date and 24-hour time (not PII, though it looks like a date of birth), {ref} the theme's
 // noun phrase, {LOC} a location that is PII (an address, block or intersection) when the
 // narrative carries PII and a street or place otherwise.
 var preambles = []string{
-	"On {date} at {time} I was dispatched to {LOC} reference {ref}.",
-	"On {date}, {approx} {hhmm} hrs, {ofc} responded to {LOC} regarding {ref}.",
-	"{date} {hhmm} hrs. Dispatched to {LOC} for {ref}.",
+	"On {date} at {itime} I was dispatched to {LOC} reference {ref}.",
+	"On {date}, {approx} {ihhmm} hrs, {ofc} responded to {LOC} regarding {ref}.",
+	"{date} {ihhmm} hrs. Dispatched to {LOC} for {ref}.",
 	"On {date} I was sent to {LOC} for {ref}.",
-	"At {hhmm} hrs on {date}, {ofc} {arrived} at {LOC} for {ref}.",
+	"At {ihhmm} hrs on {date}, {ofc} {arrived} at {LOC} for {ref}.",
 }
 
 // sharedBody holds body sentences any non-routine theme may use, so that themes share
