@@ -123,7 +123,7 @@ func TestSpans(t *testing.T) {
 		r := c.Incidents[i].Reported
 		if d := r.Format("1/2/2006"); strings.Contains(n, d) {
 			pre++
-			if !strings.Contains(n, r.Format("1504")) && !strings.Contains(n, "On "+d+" I was sent") {
+			if cl := tr.Restore(n); !strings.Contains(cl, r.Format("1504")) && !strings.Contains(cl, "On "+d+" I was sent") {
 				t.Fatalf("%s: preamble without the reported time %s: %q", tr.ID, r.Format("1504"), n)
 			}
 		}
