@@ -619,6 +619,13 @@ type byteCounter int64
 
 func (c *byteCounter) Write(p []byte) (int, error) { *c += byteCounter(len(p)); return len(p), nil }
 
+func BenchmarkGenerate6k(b *testing.B) {
+	b.ReportAllocs()
+	for b.Loop() {
+		Generate(Config{Seed: 1})
+	}
+}
+
 func BenchmarkStream6k(b *testing.B)   { benchmarkStream(b, 6000) }
 func BenchmarkStream100k(b *testing.B) { benchmarkStream(b, 100000) }
 

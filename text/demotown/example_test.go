@@ -2,6 +2,8 @@ package demotown_test
 
 import (
 	"fmt"
+	"log"
+	"os"
 
 	"undercurrent/text/demotown"
 )
@@ -22,10 +24,23 @@ func ExampleGenerate() {
 	//   name "Maria Kilderry" at [237,251)
 	//   dob "01/05/1978" at [258,268)
 	//   name "Kilderry" at [274,282)
-	// QM23-000002 2/20/2023 12:46 AM Eastwater | SUSPICIOUS CIRCUMSTANCES | lost_found_property
-	// 2/20/2023 0046 hrs. Dispatched to 631 Veltmoor Blvd for found property. A reporting party turned in tools found in the parking lot of Dunnerfell Diner. A veh with plate BJZ5139 was parked nearby. The finder did not want to be contacted. Lost property report taken.
+	// QM23-000002 2/20/2023 12:46 AM Lantern Hill | DOG AT LARGE | lost_found_property
+	// 2/20/2023 0046 hrs. Dispatched to 631 Veltmoor Blvd for found property. A reporting party turned in tools found in the parking lot of Dunnerfell Diner. See case #23-064593 for the earlier report. The reporting party was given a report number for insurance. Item logged under case #23-058102.
 	//   address "631 Veltmoor Blvd" at [34,51)
-	//   plate "BJZ5139" at [169,176)
-	// QM23-000003 3/30/2023 8:20 PM Lantern Hill | SUSPICIOUS CIRCUMSTANCES | routine_clear
-	// Subject GOA.
+	//   case_number "23-064593" at [162,171)
+	//   case_number "23-058102" at [281,290)
+	// QM23-000003 3/10/2023 2:17 PM Eastwater | LARCENY | routine_clear
+	// Area checked, gone on arrival.
+}
+
+// StreamDir writes incidents.csv and truth.jsonl for any N in flat memory.
+func ExampleStreamDir() {
+	dir, err := os.MkdirTemp("", "demotown")
+	if err != nil {
+		log.Fatal(err)
+	}
+	defer os.RemoveAll(dir)
+	if err := demotown.StreamDir(dir, demotown.Config{Seed: 1, N: 100000}); err != nil {
+		log.Fatal(err)
+	}
 }

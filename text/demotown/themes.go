@@ -701,6 +701,7 @@ var sharedBody = []string{
 	"It was raining at the time.",
 	"{NAME} {stated} {he} saw the whole thing from across the street.",
 	"A witness named {NAME} gave a similar account.",
+	"Caller {NAME} requested a call back at {PHONE}.",
 	"{RP} {stated} {he} did not want to be identified.",
 	"A neighbor, {NAME}, {stated} {he} did not see or hear anything.",
 	"Dispatch {advised} me that the call was a repeat from earlier in the shift.",
