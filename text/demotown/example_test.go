@@ -19,18 +19,15 @@ func ExampleGenerate() {
 		}
 	}
 	// Output:
-	// QM23-000001 1/9/2023 5:12 AM Millrace | DISTURBANCE - NOISE | trespass
-	// RP reported subjects camping behind the warehouse on Corriden Ave. The manager explained the subject had been asked to leave twice today. The lady was described as a WM wearing a green backpack. I contacted the individual, identified as Maria Kilderry, DOB: 01/05/1978. Ms. Kilderry gathered her belongings and left the area without problems. I checked the building and found an open window in the back. Subj left the property. NFA.
-	//   name "Maria Kilderry" at [237,251)
-	//   dob "01/05/1978" at [258,268)
-	//   name "Kilderry" at [274,282)
-	// QM23-000002 2/20/2023 12:46 AM Lantern Hill | DOG AT LARGE | lost_found_property
-	// 2/20/2023 0046 hrs. Dispatched to 631 Veltmoor Blvd for found property. A reporting party turned in tools found in the parking lot of Dunnerfell Diner. See case #23-064593 for the earlier report. The reporting party was given a report number for insurance. Item logged under case #23-058102.
-	//   address "631 Veltmoor Blvd" at [34,51)
-	//   case_number "23-064593" at [162,171)
-	//   case_number "23-058102" at [281,290)
-	// QM23-000003 3/10/2023 2:17 PM Eastwater | LARCENY | routine_clear
-	// Area checked, gone on arrival.
+	// QM23-000001 1/9/2023 5:12 AM Lantern Hill | TRESPASS | trespass
+	// RP reported subjects camping behind the warehouse on Corriden Ave. A trespass notice was signed by the business owner. The subject was GOA. A lady named Anthony U. Merriwold told me she was waiting for a friend. I advised the individual of shelter options and gave her a bus pass. There was trash and a tent behind the building. Trespass warning issued.
+	//   name "Anthony U. Merriwold" at [153,173)
+	// QM23-000002 2/13/2023 1:38 PM Cobble Flats | VEHICLE STOP | mental_health_crisis
+	// On 2/13/2023 at approx 1338 hours I was dispatched to Larkmoor Market reference a suicidal subject. Counselor at the Eastwater boat launch requested help w/ a person who was threatening self harm. A vehicle was parked in front of the home w/ the engine running. The subject did not meet the criteria for an emergency hold. The individual said he had not slept in a month. Family asked for a welfare check after he stopped answering the phone. The individual was very anxious and did not want to be touched. Emergency hold placed, report to follow.
+	// QM23-000003 3/18/2023 6:08 AM Millrace | WARRANT ARREST | theft_from_vehicle
+	// RP stated her silver work van was rummaged through and a backpack was missing. I arrived around 0655 and spoke w/ the comp. The victim explained she locked the vehicle but the door was found open. I checked the vicinity for the susp with negative results. The VIN 82JGN4FE36J85N807 was recorded for the report. The victim will check with the bank about the stolen cards. The suspect was described as a WF wearing a green backpack. Victim Teresa Dellacort stated she did not see anyone in the area. No suspect information. Report taken.
+	//   vin "82JGN4FE36J85N807" at [264,281)
+	//   name "Teresa Dellacort" at [438,454)
 }
 
 // StreamDir writes incidents.csv and truth.jsonl for any N in flat memory.

@@ -453,7 +453,7 @@ func (g *generator) narrative(ti int, t time.Time, tr *Truth) {
 	var plan [16]int
 	for i := 0; i < L; i++ {
 		plan[i] = roleBody
-		if !routine && g.r.IntN(7) == 0 {
+		if !routine && g.r.IntN(5) == 0 {
 			plan[i] = roleShared
 		}
 	}

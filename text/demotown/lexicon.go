@@ -126,7 +126,7 @@ var syn = map[string][]string{
 	"make":      {"sedan", "pickup", "SUV", "minivan", "hatchback", "work van", "coupe", "Honda", "Toyota", "Ford", "Chevy", "Nissan"},
 	"item":      {"a backpack", "a laptop", "a wallet", "sunglasses", "loose change", "a purse", "tools", "a phone charger", "a gym bag", "a tablet", "paperwork", "a handgun case", "prescription medication", "a garage door opener"},
 	"animal":    {"dog", "dog", "dog", "cat", "raccoon", "goat", "horse", "pit bull", "German shepherd", "stray dog", "deer", "rooster"},
-	"noise":     {"loud music", "a party", "yelling", "a barking dog", "bass from a car stereo", "fireworks", "construction noise", "a generator", "people shouting"},
+	"noise":     {"loud music", "a party", "a car alarm", "yelling", "a barking dog", "bass from a car stereo", "fireworks", "construction noise", "a generator", "people shouting"},
 	"alarm":     {"burglary alarm", "alarm", "panic alarm", "motion alarm", "door alarm", "glass break alarm"},
 	"aalarm":    {"a burglary alarm", "an alarm", "an audible alarm", "a panic alarm", "a motion alarm", "a door alarm", "a glass break alarm"},
 	"business":  {"business", "store", "office", "warehouse", "shop", "restaurant"},

@@ -91,6 +91,7 @@ var themeDefs = []themeDef{
 			"A passenger in the back seat was not wearing a seat belt.",
 			"The driver was nervous and kept reaching toward the center console.",
 			"I {advised} the driver that the tail light was out.",
+			"The driver {stated} {he} was on the way to check on {his} mother.",
 			"The lic plate {PLATE} was displayed in the rear window.",
 		},
 		close: []string{
@@ -145,6 +146,8 @@ var themeDefs = []themeDef{
 			"The neighbor {stated} {he} usually sees the resident every morning.",
 			"The phone number on file, {PHONE}, went straight to voicemail.",
 			"Adult Protective Services was notified.",
+			"The smoke alarm in the hallway was chirping.",
+			"The {veh} in the driveway had not moved in {days}.",
 		},
 		close: []string{
 			"{RP} was {advised} that {his} neighbor was okay. {cleared}",
@@ -191,6 +194,8 @@ var themeDefs = []themeDef{
 			"I could hear the music from {approx} two houses away.",
 			"There was a band practicing in the garage {w} the door open.",
 			"The neighbors have an ongoing dispute about noise and parking.",
+			"A car alarm kept going off in the parking lot.",
+			"The {comp} asked for a welfare check on the elderly neighbor while we were there.",
 		},
 		close: []string{
 			"Music turned down. {cleared}",
@@ -276,6 +281,7 @@ var themeDefs = []themeDef{
 			"The neighbor {stated} the {animal} gets out almost every day.",
 			"The owner was not home and I left a door hanger.",
 			"The {animal} appeared well fed and friendly.",
+			"Neighbors complained about the noise from the barking.",
 			"The owner {MR} {stated} the gate was left open by a delivery driver.",
 		},
 		close: []string{
@@ -323,6 +329,8 @@ var themeDefs = []themeDef{
 			"The {susp} fled on foot toward {street}.",
 			"The VIN {VIN} was recorded for the report.",
 			"There were pry marks on the driver door lock.",
+			"The {veh} alarm did not go off.",
+			"The {vic} thought the noise {he} heard was a car alarm.",
 		},
 		close: []string{
 			"Report taken, case #{CASE}. Victim given a case card.",
@@ -366,6 +374,8 @@ var themeDefs = []themeDef{
 			"{MR} could be reached at {PHONE}.",
 			"There was a history of domestic calls at this {res}.",
 			"A neighbor {stated} the yelling went on for {dur}.",
+			"The {rp} had asked for a welfare check on {his} sister.",
+			"The neighbors have called about noise at this address before.",
 			"The {vic} {stated} {he} wanted the {susp} to leave for the night.",
 			"Both parties had been drinking.",
 			"There was a broken lamp on the living room floor.",
@@ -416,6 +426,8 @@ var themeDefs = []themeDef{
 			"{MR} agreed to talk {w} the clinician by phone.",
 			"The {subj} thanked us for listening.",
 			"The {subj} was holding a kitchen knife and put it down when asked.",
+			"Family asked for a welfare check after {he} stopped answering the phone.",
+			"Neighbors had complained about noise from the apartment all week.",
 		},
 		close: []string{
 			"Transported to the hospital for evaluation. {nfa}",
@@ -455,6 +467,7 @@ var themeDefs = []themeDef{
 			"The {veh} had registration {PLATE} and came back to an owner in another city.",
 			"The {comp} {stated} this happens every weekend.",
 			"Left a note on the {veh} asking the owner to move it.",
+			"The {veh} alarm was going off and had drained the battery.",
 		},
 		close: []string{
 			"Parking citation issued.",
@@ -494,6 +507,7 @@ var themeDefs = []themeDef{
 			"The item was wet and appeared to have been outside for {days}.",
 			"The finder did not want to be contacted.",
 			"The owner {stated} {he} would come by the station tomorrow.",
+			"The wallet was stolen in a vehicle break in last week.",
 		},
 		close: []string{
 			"Property booked. {nfa}",
@@ -534,6 +548,7 @@ var themeDefs = []themeDef{
 			"I {checked} the building and found an open window in the back.",
 			"The {subj} {stated} {he} used to live there.",
 			"The manager {stated} the {subj} had been asked to leave twice today.",
+			"The alarm at the vacant building had been going off all night.",
 		},
 		close: []string{
 			"Subject trespassed and left. {cleared}",
@@ -582,6 +597,7 @@ var themeDefs = []themeDef{
 			"The {susp} was evaluated at the hospital and cleared for booking.",
 			"The {susp} braced {his} feet against the door frame.",
 			"Once handcuffed the {susp} calmed down and apologized.",
+			"The call started as a noise complaint.",
 		},
 		close: []string{
 			"Subject booked for resisting arrest and the warrant.",
@@ -618,6 +634,7 @@ var themeDefs = []themeDef{
 			"The scooter had a QR code and the company was {contacted}.",
 			"The rider {stated} {he} did not know about the sidewalk rule.",
 			"The scooters were blocking the bus stop.",
+			"A scooter was left in the driveway blocking the {veh}.",
 		},
 		close: []string{
 			"Scooter company will pick them up. {cleared}",
@@ -640,6 +657,9 @@ var themeDefs = []themeDef{
 			"Extra patrol of {street} as requested, all quiet.",
 			"{checked} the {area}, {utl}.",
 			"Subject {goa}.",
+			"Alarm cancelled by the alarm company before arrival.",
+			"Welfare check, no answer at the door, all quiet.",
+			"Noise complaint, no noise heard on arrival.",
 			"All quiet on arrival.",
 			"Unfounded, nothing located.",
 			"Area checked, {goa}.",
