@@ -153,7 +153,8 @@ func Themes(cfg Config) []ThemeInfo {
 // MonthCounts returns the number of narratives in each month for cfg.
 func MonthCounts(cfg Config) []int { return monthCounts(cfg.resolved()) }
 
-// Generate returns the corpus cfg describes, in memory.
+// Generate returns the corpus cfg describes, in memory (about 1 KB per narrative; use
+// Stream for large N).
 func Generate(cfg Config) *Corpus {
 	g := newGenerator(cfg)
 	c := &Corpus{Config: g.cfg, Themes: Themes(cfg)}

@@ -3,8 +3,11 @@ package demotown
 import (
 	"bufio"
 	"bytes"
+	"crypto/sha256"
 	"encoding/csv"
+	"encoding/hex"
 	"encoding/json"
+	"flag"
 	"io"
 	"math"
 	"os"
@@ -76,6 +79,12 @@ func TestDefaults(t *testing.T) {
 // spans of different kinds never overlap.
 func TestSpans(t *testing.T) {
 	c := defaultCorpus
+	pre := 0
+	defer func() {
+		if pre == 0 {
+			t.Error("no dispatch preambles")
+		}
+	}()
 	for i, tr := range c.Truth {
 		n := c.Incidents[i].Narrative
 		type iv struct {
@@ -111,6 +120,14 @@ func TestSpans(t *testing.T) {
 		for k := 1; k < len(ivs); k++ {
 			if ivs[k].s < ivs[k-1].e {
 				t.Fatalf("%s: %s and %s overlap in %q", tr.ID, ivs[k-1].what, ivs[k].what, n)
+			}
+		}
+		// A dispatch preamble's date and time are the incident's own.
+		r := c.Incidents[i].Reported
+		if d := r.Format("1/2/2006"); strings.Contains(n, d) {
+			pre++
+			if cl := tr.Restore(n); !strings.Contains(cl, r.Format("1504")) && !strings.Contains(cl, "On "+d+" I was sent") {
+				t.Fatalf("%s: preamble without the reported time %s: %q", tr.ID, r.Format("1504"), n)
 			}
 		}
 		if tr.NoPII != (len(tr.PII) == 0) {
@@ -468,17 +485,17 @@ func TestTrends(t *testing.T) {
 	if s := share(ThemeScooter, 0, AppearMonth(M)); s != 0 {
 		t.Errorf("scooter share %.4f before month %d", s, AppearMonth(M))
 	}
-	if s := share(ThemeScooter, AppearMonth(M), M); s < 0.04 {
+	if s := share(ThemeScooter, AppearMonth(M), M); s < 0.03 {
 		t.Errorf("scooter share %.4f after month %d", s, AppearMonth(M))
 	}
-	// The planted weight grows fourfold; after normalisation the share grows about 2.6
-	// times from the first six months to the last six.
-	if a, b := share(ThemeVehTheft, 0, 6), share(ThemeVehTheft, M-6, M); b < 2*a {
+	// The planted share grows from 0.6 to 1.6 times its base: about 2.3 times from the
+	// first six months to the last six.
+	if a, b := share(ThemeVehTheft, 0, 6), share(ThemeVehTheft, M-6, M); b < 1.8*a {
 		t.Errorf("theft from vehicles: first 6 months %.4f, last 6 %.4f", a, b)
 	}
 	summer := (share(ThemeNoise, 5, 8) + share(ThemeNoise, 17, 20)) / 2
 	winter := (share(ThemeNoise, 0, 2) + share(ThemeNoise, 11, 14)) / 2
-	if summer < 2.5*winter {
+	if summer < 2*winter {
 		t.Errorf("noise: summer %.4f, winter %.4f", summer, winter)
 	}
 	// Each theme's overall count against the planted probabilities (chi-square-like bound
@@ -491,6 +508,13 @@ func TestTrends(t *testing.T) {
 		}
 		if math.Abs(float64(got)-exp) > 5*math.Sqrt(exp)+1 {
 			t.Errorf("theme %d %s: %d narratives, expected %.0f", i, th.Name, got, exp)
+		}
+	}
+	for _, th := range c.Themes {
+		for m := 1; m < M && th.Trend == Flat; m++ {
+			if th.Monthly[m] != th.Monthly[0] {
+				t.Errorf("flat theme %s: month %d share %v, month 0 %v", th.Name, m, th.Monthly[m], th.Monthly[0])
+			}
 		}
 	}
 	for m := 0; m < M; m++ {
@@ -523,7 +547,7 @@ func TestTemplates(t *testing.T) {
 	}
 	all = append(all, sharedBody...)
 	all = append(all, preambles...)
-	g.date, g.ref = []byte("1/2/2024"), "a call"
+	g.date, g.ref, g.ihhmm = []byte("1/2/2024"), "a call", [4]byte{'2', '1', '3', '0'}
 	for _, alts := range syn {
 		all = append(all, alts...)
 	}
@@ -556,6 +580,35 @@ func TestVocabularyShared(t *testing.T) {
 	for _, w := range []string{"vehicle", "contacted", "advised", "stated", "area"} {
 		if len(seen[w]) < 8 {
 			t.Errorf("%q appears in only %d themes", w, len(seen[w]))
+		}
+	}
+	// No single word picks out a theme: the best word's F1 (presence in a narrative as
+	// the classifier) stays below 0.9 for every theme.
+	pres := map[string]map[string]int{}
+	wdocs, tdocs := map[string]int{}, map[string]int{}
+	for i, tr := range defaultCorpus.Truth {
+		tdocs[tr.Theme]++
+		done := map[string]bool{}
+		for _, w := range strings.FieldsFunc(strings.ToLower(defaultCorpus.Incidents[i].Narrative), func(r rune) bool { return r < 'a' || r > 'z' }) {
+			if done[w] {
+				continue
+			}
+			done[w] = true
+			wdocs[w]++
+			if pres[w] == nil {
+				pres[w] = map[string]int{}
+			}
+			pres[w][tr.Theme]++
+		}
+	}
+	for th, n := range tdocs {
+		for w, m := range pres {
+			if tp := float64(m[th]); tp > 0 {
+				p, r := tp/float64(wdocs[w]), tp/float64(n)
+				if f := 2 * p * r / (p + r); f >= 0.9 {
+					t.Errorf("%q alone finds theme %s with F1 %.2f", w, th, f)
+				}
+			}
 		}
 	}
 }
@@ -597,6 +650,13 @@ func benchmarkStream(b *testing.B, n int) {
 type byteCounter int64
 
 func (c *byteCounter) Write(p []byte) (int, error) { *c += byteCounter(len(p)); return len(p), nil }
+
+func BenchmarkGenerate6k(b *testing.B) {
+	b.ReportAllocs()
+	for b.Loop() {
+		Generate(Config{Seed: 1})
+	}
+}
 
 func BenchmarkStream6k(b *testing.B)   { benchmarkStream(b, 6000) }
 func BenchmarkStream100k(b *testing.B) { benchmarkStream(b, 100000) }
@@ -664,5 +724,30 @@ func TestMonthCounts(t *testing.T) {
 	}
 	if sum != DefaultN || summer <= winter {
 		t.Fatalf("counts %v: sum %d, summer %d, winter %d", c, sum, summer, winter)
+	}
+}
+
+var update = flag.Bool("update", false, "print the new golden digest")
+
+// goldenDigest is the first halves of the SHA-256 digests of Stream's CSV and truth outputs
+// for goldenConfig. It pins the output
+// across platforms and Go releases; any intended change of the generator changes it (run
+// go test -run Golden -update and paste the new value).
+const goldenDigest = "6c6e2d4479df2f924b142c2f5f6b0f98c2b7cca39e730d6d62b79682f62aa32a"
+
+var goldenConfig = Config{Seed: 2026, N: 3000, HTMLRate: 0.2, NoiseRate: 0.3, TypoRate: 0.2}
+
+func TestGolden(t *testing.T) {
+	hc, ht := sha256.New(), sha256.New()
+	if err := Stream(hc, ht, goldenConfig); err != nil {
+		t.Fatal(err)
+	}
+	got := hex.EncodeToString(hc.Sum(nil))[:32] + hex.EncodeToString(ht.Sum(nil))[:32]
+	if *update {
+		t.Logf("goldenDigest = %q", got)
+		return
+	}
+	if got != goldenDigest {
+		t.Fatalf("output digest %s, want %s: the generator's output changed", got, goldenDigest)
 	}
 }

@@ -13,11 +13,12 @@
 // Fourteen themes (Corpus.Themes), each with opening, body and closing sentence templates
 // that share vocabulary through synonym sets ("vehicle", "contacted", "advised" appear in
 // many): traffic stops, welfare checks, noise complaints (Seasonal, peaking in July),
-// alarms, animal calls, thefts from vehicles (Rising, from 0.5 to 2 times its base weight),
+// alarms, animal calls, thefts from vehicles (Rising, from 0.6 to 1.6 times its base share),
 // domestic disputes, a person in mental-health crisis, parking complaints, lost and found
 // property, trespass, use of force and resisting arrest, shared e-scooter complaints
 // (Appearing at AppearMonth, month 24 of 36) and a short routine "checked the area, all
-// clear" kind. A narrative has 1 to 12 sentences; a fifth of the non-routine ones open with
+// clear" kind (Residual: it takes the share the others leave, so that the ten Flat themes
+// keep exactly the same share every month). A narrative has 1 to 12 sentences; a fifth of the non-routine ones open with
 // a dispatch-log line carrying the incident's own date ("On 3/4/2024 at 2130 hrs I was
 // dispatched to ..."), a date that is not PII; MixRate of the non-routine narratives take one
 // or more body sentences from a second theme (Truth.Themes counts the sentences of each).

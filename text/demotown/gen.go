@@ -195,9 +195,10 @@ type generator struct {
 	capNext  bool
 	female   bool
 	animal   string
-	date     []byte // the incident's date, for {date}
-	ref      string // the theme's noun phrase, for {ref}
-	pii      bool   // whether {LOC} is PII
+	date     []byte  // the incident's date, for {date}
+	ihhmm    [4]byte // the incident's time, for {ihhmm}
+	ref      string  // the theme's noun phrase, for {ref}
+	pii      bool    // whether {LOC} is PII
 	people   []person
 	buf      []byte
 	out      []byte
@@ -230,19 +231,22 @@ func newGenerator(cfg Config) *generator {
 	return g
 }
 
-// seasonal holds 1 + 0.7 cos(2 pi (k - 6) / 12) for calendar months k = 0 (January) .. 11,
+// seasonal holds 1 + 0.5 cos(2 pi (k - 6) / 12) for calendar months k = 0 (January) .. 11,
 // peaking in July, written out so that no platform's cosine changes a bit.
 var seasonal = [12]float64{
-	1 - 0.7, 1 - 0.7*0.8660254037844386, 1 - 0.7*0.5, 1, 1 + 0.7*0.5, 1 + 0.7*0.8660254037844386,
-	1 + 0.7, 1 + 0.7*0.8660254037844386, 1 + 0.7*0.5, 1, 1 - 0.7*0.5, 1 - 0.7*0.8660254037844386,
+	1 - 0.5, 1 - 0.5*0.8660254037844386, 1 - 0.5*0.5, 1, 1 + 0.5*0.5, 1 + 0.5*0.8660254037844386,
+	1 + 0.5, 1 + 0.5*0.8660254037844386, 1 + 0.5*0.5, 1, 1 - 0.5*0.5, 1 - 0.5*0.8660254037844386,
 }
 
-// monthlyProbs returns, for each month index, each theme's probability:
+// monthlyProbs returns, for each month index m, each theme's probability (its share):
 //
-//	p_t(m) = w_t(m) / sum_u w_u(m),  w_t(m) = base_t * f_t(m)
+//	p_t(m) = base_t * f_t(m)
 //
-// with f = 1 (Flat), 0.5 + 1.5 m/(Months-1) (Rising), 0 before AppearMonth and 1 from it
-// (Appearing), and the seasonal table above by calendar month (Seasonal).
+// with f = 1 (Flat), 0.6 + m/(Months-1) (Rising), 0 before AppearMonth and 1 from it
+// (Appearing) and the seasonal table above by calendar month (Seasonal); the Residual
+// (routine) theme takes the rest, 1 - sum of the others. Flat themes therefore keep
+// exactly the same share every month. With the bases of themes.go the residual stays
+// between about 0.14 and 0.32.
 func monthlyProbs(cfg Config) [][]float64 {
 	out := make([][]float64, cfg.Months)
 	appear := AppearMonth(cfg.Months)
@@ -250,12 +254,14 @@ func monthlyProbs(cfg Config) [][]float64 {
 		p := make([]float64, len(themeDefs))
 		cal := (int(cfg.Start.Month()) - 1 + m) % 12
 		sum := 0.0
+		res := -1
 		for i, d := range themeDefs {
 			f := 1.0
 			switch d.trend {
 			case Rising:
+				f = 0.6
 				if cfg.Months > 1 {
-					f = 0.5 + float64(1.5*float64(m))/float64(cfg.Months-1)
+					f = 0.6 + float64(m)/float64(cfg.Months-1)
 				}
 			case Appearing:
 				if m < appear {
@@ -263,13 +269,17 @@ func monthlyProbs(cfg Config) [][]float64 {
 				}
 			case Seasonal:
 				f = seasonal[cal]
+			case Residual:
+				res = i
+				continue
 			}
 			p[i] = float64(d.base * f)
 			sum += p[i]
 		}
-		for i := range p {
-			p[i] /= sum
+		if res < 0 || sum > 0.95 {
+			panic("demotown: theme shares leave no residual")
 		}
+		p[res] = 1 - sum
 		out[m] = p
 	}
 	return out
@@ -289,7 +299,7 @@ func monthCounts(cfg Config) []int {
 	sum := 0.0
 	for m := range v {
 		cal := (int(cfg.Start.Month()) - 1 + m) % 12
-		v[m] = float64(1+float64(0.15*(seasonal[cal]-1))/0.7) * float64(0.9+float64(0.2*r.Float64()))
+		v[m] = float64(1+float64(0.15*(seasonal[cal]-1))/0.5) * float64(0.9+float64(0.2*r.Float64()))
 		sum += v[m]
 	}
 	counts := make([]int, cfg.Months)
@@ -443,7 +453,7 @@ func (g *generator) narrative(ti int, t time.Time, tr *Truth) {
 	var plan [16]int
 	for i := 0; i < L; i++ {
 		plan[i] = roleBody
-		if !routine && g.r.IntN(7) == 0 {
+		if !routine && g.r.IntN(5) == 0 {
 			plan[i] = roleShared
 		}
 	}
@@ -451,7 +461,6 @@ func (g *generator) narrative(ti int, t time.Time, tr *Truth) {
 	if L >= 2 {
 		plan[L-1] = roleClose
 	}
-	nSecond := 0
 	if si >= 0 {
 		k := 1 + g.r.IntN(max(1, (L-2)/2))
 		for k > 0 {
@@ -459,7 +468,6 @@ func (g *generator) narrative(ti int, t time.Time, tr *Truth) {
 			if plan[p] != roleSecond {
 				plan[p] = roleSecond
 				k--
-				nSecond++
 			}
 		}
 	}
@@ -486,6 +494,7 @@ func (g *generator) narrative(ti int, t time.Time, tr *Truth) {
 	// A dispatch-log preamble in front of a fifth of the non-routine narratives.
 	if !routine && L < 12 && g.r.IntN(5) == 0 {
 		g.date = t.AppendFormat(g.date[:0], "1/2/2006")
+		copy(g.ihhmm[:], t.Format("1504"))
 		g.ref = d.ref[g.r.IntN(len(d.ref))]
 		g.pii = force >= 0
 		g.capNext = true
@@ -533,6 +542,12 @@ func (g *generator) narrative(ti int, t time.Time, tr *Truth) {
 		g.capNext = true
 		g.sent = len(g.pieces)
 		g.expand(p.all[k], 0)
+	}
+	nSecond := 0 // counted after the loop, which may turn a role into roleShared
+	for _, r := range plan[:L] {
+		if r == roleSecond {
+			nSecond++
+		}
 	}
 	tr.Themes = append(tr.Themes[:0], ThemeShare{Theme: d.name, Sentences: L0 + L - nSecond})
 	if nSecond > 0 {
@@ -643,6 +658,8 @@ func (g *generator) slot(name string, depth int) {
 		g.expand(alts[g.r.IntN(len(alts))], depth+1)
 	case "date":
 		g.add(string(g.date), pkOther)
+	case "ihhmm":
+		g.add(string(g.ihhmm[:]), pkWord)
 	case "ref":
 		g.expand(g.ref, depth+1)
 	case "LOC":

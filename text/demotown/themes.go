@@ -6,9 +6,10 @@ type Trend string
 // The planted trends.
 const (
 	Flat      Trend = "flat"      // constant share
-	Rising    Trend = "rising"    // weight grows linearly from 0.5 to 2 times its base
-	Appearing Trend = "appearing" // weight 0 before AppearMonth, base from then on
-	Seasonal  Trend = "seasonal"  // weight times 1 + 0.7 cos(2 pi (month - July) / 12)
+	Rising    Trend = "rising"    // share grows linearly from 0.6 to 1.6 times its base
+	Appearing Trend = "appearing" // share 0 before AppearMonth, its base from then on
+	Seasonal  Trend = "seasonal"  // share times 1 + 0.5 cos(2 pi (month - July) / 12)
+	Residual  Trend = "residual"  // what the others leave: falls as the specials grow
 )
 
 // themeDef is a theme's invented sentence templates and metadata. Templates use {slot}
@@ -46,7 +47,7 @@ const (
 
 var themeDefs = []themeDef{
 	{
-		name: ThemeTraffic, label: "Traffic stops", trend: Flat, base: 0.10, district: 1,
+		name: ThemeTraffic, label: "Traffic stops", trend: Flat, base: 0.09, district: 1,
 		ref:       []string{"a traffic complaint", "a reckless driver", "a vehicle blocking traffic"},
 		callTypes: []string{"TRAFFIC STOP", "VEHICLE STOP", "TRAFFIC"}, minLen: 2, maxLen: 9,
 		open: []string{
@@ -90,6 +91,7 @@ var themeDefs = []themeDef{
 			"A passenger in the back seat was not wearing a seat belt.",
 			"The driver was nervous and kept reaching toward the center console.",
 			"I {advised} the driver that the tail light was out.",
+			"The driver {stated} {he} was on the way to check on {his} mother.",
 			"The lic plate {PLATE} was displayed in the rear window.",
 		},
 		close: []string{
@@ -104,7 +106,7 @@ var themeDefs = []themeDef{
 		},
 	},
 	{
-		name: ThemeWelfare, label: "Welfare checks", trend: Flat, base: 0.08, district: 3,
+		name: ThemeWelfare, label: "Welfare checks", trend: Flat, base: 0.07, district: 3,
 		ref:       []string{"a welfare check", "a check welfare request", "a well being check"},
 		callTypes: []string{"WELFARE CHECK", "CHECK WELFARE", "WELL BEING CHECK"}, minLen: 2, maxLen: 10,
 		open: []string{
@@ -144,6 +146,8 @@ var themeDefs = []themeDef{
 			"The neighbor {stated} {he} usually sees the resident every morning.",
 			"The phone number on file, {PHONE}, went straight to voicemail.",
 			"Adult Protective Services was notified.",
+			"The smoke alarm in the hallway was chirping.",
+			"The {veh} in the driveway had not moved in {days}.",
 		},
 		close: []string{
 			"{RP} was {advised} that {his} neighbor was okay. {cleared}",
@@ -154,7 +158,7 @@ var themeDefs = []themeDef{
 		},
 	},
 	{
-		name: ThemeNoise, label: "Noise complaints", trend: Seasonal, base: 0.08, district: 2,
+		name: ThemeNoise, label: "Noise complaints", trend: Seasonal, base: 0.07, district: 2,
 		ref:       []string{"a noise complaint", "a loud party", "a disturbance"},
 		callTypes: []string{"NOISE COMPLAINT", "DISTURBANCE - NOISE", "LOUD PARTY"}, minLen: 1, maxLen: 7,
 		open: []string{
@@ -163,7 +167,7 @@ var themeDefs = []themeDef{
 			"Responded to a noise complaint on {street} at {time}.",
 			"Anonymous caller reported {noise} from the apartments near {XST}.",
 			"{RP}, {NAME}, called to complain about {noise} from the {res} next door.",
-			"Dispatched for {noise} in the {area} of {place}.",
+			"Dispatched for {noise} near {place}.",
 			"Neighbor complained about {noise} again tonight.",
 			"Caller {stated} {noise} had been going on for {dur}.",
 			"Second call tonight about {noise} on {street}.",
@@ -190,6 +194,8 @@ var themeDefs = []themeDef{
 			"I could hear the music from {approx} two houses away.",
 			"There was a band practicing in the garage {w} the door open.",
 			"The neighbors have an ongoing dispute about noise and parking.",
+			"A car alarm kept going off in the parking lot.",
+			"The {comp} asked for a welfare check on the elderly neighbor while we were there.",
 		},
 		close: []string{
 			"Music turned down. {cleared}",
@@ -200,7 +206,7 @@ var themeDefs = []themeDef{
 		},
 	},
 	{
-		name: ThemeAlarm, label: "Alarms", trend: Flat, base: 0.08, district: 4,
+		name: ThemeAlarm, label: "Alarms", trend: Flat, base: 0.07, district: 4,
 		ref:       []string{"an alarm", "an alarm call", "an audible alarm"},
 		callTypes: []string{"ALARM", "BURGLAR ALARM", "ALARM - COMMERCIAL"}, minLen: 1, maxLen: 6,
 		open: []string{
@@ -243,7 +249,7 @@ var themeDefs = []themeDef{
 		},
 	},
 	{
-		name: ThemeAnimal, label: "Animal calls", trend: Flat, base: 0.07, district: 0,
+		name: ThemeAnimal, label: "Animal calls", trend: Flat, base: 0.06, district: 0,
 		ref:       []string{"an animal complaint", "a loose animal", "an animal problem"},
 		callTypes: []string{"ANIMAL COMPLAINT", "ANIMAL CONTROL", "DOG AT LARGE"}, minLen: 1, maxLen: 7,
 		open: []string{
@@ -275,6 +281,7 @@ var themeDefs = []themeDef{
 			"The neighbor {stated} the {animal} gets out almost every day.",
 			"The owner was not home and I left a door hanger.",
 			"The {animal} appeared well fed and friendly.",
+			"Neighbors complained about the noise from the barking.",
 			"The owner {MR} {stated} the gate was left open by a delivery driver.",
 		},
 		close: []string{
@@ -322,6 +329,8 @@ var themeDefs = []themeDef{
 			"The {susp} fled on foot toward {street}.",
 			"The VIN {VIN} was recorded for the report.",
 			"There were pry marks on the driver door lock.",
+			"The {veh} alarm did not go off.",
+			"The {vic} thought the noise {he} heard was a car alarm.",
 		},
 		close: []string{
 			"Report taken, case #{CASE}. Victim given a case card.",
@@ -332,7 +341,7 @@ var themeDefs = []themeDef{
 		},
 	},
 	{
-		name: ThemeDomestic, label: "Domestic disputes", trend: Flat, base: 0.07, district: 1,
+		name: ThemeDomestic, label: "Domestic disputes", trend: Flat, base: 0.06, district: 1,
 		ref:       []string{"a domestic disturbance", "a family fight", "a verbal argument"},
 		callTypes: []string{"DOMESTIC DISTURBANCE", "DOMESTIC", "FAMILY FIGHT"}, minLen: 3, maxLen: 11,
 		open: []string{
@@ -365,6 +374,8 @@ var themeDefs = []themeDef{
 			"{MR} could be reached at {PHONE}.",
 			"There was a history of domestic calls at this {res}.",
 			"A neighbor {stated} the yelling went on for {dur}.",
+			"The {rp} had asked for a welfare check on {his} sister.",
+			"The neighbors have called about noise at this address before.",
 			"The {vic} {stated} {he} wanted the {susp} to leave for the night.",
 			"Both parties had been drinking.",
 			"There was a broken lamp on the living room floor.",
@@ -380,7 +391,7 @@ var themeDefs = []themeDef{
 		},
 	},
 	{
-		name: ThemeMentalHealth, label: "Person in mental-health crisis", trend: Flat, base: 0.06, district: 3,
+		name: ThemeMentalHealth, label: "Person in mental-health crisis", trend: Flat, base: 0.05, district: 3,
 		ref:       []string{"a person in crisis", "a mental health call", "a suicidal subject"},
 		callTypes: []string{"MENTAL HEALTH", "PERSON IN CRISIS", "SUICIDAL SUBJECT"}, minLen: 3, maxLen: 11,
 		open: []string{
@@ -415,6 +426,8 @@ var themeDefs = []themeDef{
 			"{MR} agreed to talk {w} the clinician by phone.",
 			"The {subj} thanked us for listening.",
 			"The {subj} was holding a kitchen knife and put it down when asked.",
+			"Family asked for a welfare check after {he} stopped answering the phone.",
+			"Neighbors had complained about noise from the apartment all week.",
 		},
 		close: []string{
 			"Transported to the hospital for evaluation. {nfa}",
@@ -425,7 +438,7 @@ var themeDefs = []themeDef{
 		},
 	},
 	{
-		name: ThemeParking, label: "Parking complaints", trend: Flat, base: 0.07, district: 4,
+		name: ThemeParking, label: "Parking complaints", trend: Flat, base: 0.06, district: 4,
 		ref:       []string{"a parking complaint", "an abandoned vehicle", "a parking problem"},
 		callTypes: []string{"PARKING COMPLAINT", "PARKING VIOLATION", "ABANDONED VEHICLE"}, minLen: 1, maxLen: 6,
 		open: []string{
@@ -454,6 +467,7 @@ var themeDefs = []themeDef{
 			"The {veh} had registration {PLATE} and came back to an owner in another city.",
 			"The {comp} {stated} this happens every weekend.",
 			"Left a note on the {veh} asking the owner to move it.",
+			"The {veh} alarm was going off and had drained the battery.",
 		},
 		close: []string{
 			"Parking citation issued.",
@@ -464,7 +478,7 @@ var themeDefs = []themeDef{
 		},
 	},
 	{
-		name: ThemeProperty, label: "Lost and found property", trend: Flat, base: 0.06, district: 0,
+		name: ThemeProperty, label: "Lost and found property", trend: Flat, base: 0.05, district: 0,
 		ref:       []string{"found property", "a lost property report", "property"},
 		callTypes: []string{"FOUND PROPERTY", "LOST PROPERTY", "PROPERTY"}, minLen: 1, maxLen: 6,
 		open: []string{
@@ -493,6 +507,7 @@ var themeDefs = []themeDef{
 			"The item was wet and appeared to have been outside for {days}.",
 			"The finder did not want to be contacted.",
 			"The owner {stated} {he} would come by the station tomorrow.",
+			"The wallet was stolen in a vehicle break in last week.",
 		},
 		close: []string{
 			"Property booked. {nfa}",
@@ -502,7 +517,7 @@ var themeDefs = []themeDef{
 		},
 	},
 	{
-		name: ThemeTrespass, label: "Trespass", trend: Flat, base: 0.06, district: 4,
+		name: ThemeTrespass, label: "Trespass", trend: Flat, base: 0.05, district: 4,
 		ref:       []string{"an unwanted person", "a trespass", "a suspicious person"},
 		callTypes: []string{"TRESPASS", "UNWANTED PERSON", "SUSPICIOUS PERSON"}, minLen: 2, maxLen: 8,
 		open: []string{
@@ -533,6 +548,7 @@ var themeDefs = []themeDef{
 			"I {checked} the building and found an open window in the back.",
 			"The {subj} {stated} {he} used to live there.",
 			"The manager {stated} the {subj} had been asked to leave twice today.",
+			"The alarm at the vacant building had been going off all night.",
 		},
 		close: []string{
 			"Subject trespassed and left. {cleared}",
@@ -542,7 +558,7 @@ var themeDefs = []themeDef{
 		},
 	},
 	{
-		name: ThemeForce, label: "Use of force and resisting arrest", trend: Flat, base: 0.05, district: 1,
+		name: ThemeForce, label: "Use of force and resisting arrest", trend: Flat, base: 0.04, district: 1,
 		ref:       []string{"a disturbance", "a warrant service", "a fight"},
 		callTypes: []string{"RESISTING ARREST", "ASSAULT ON OFFICER", "WARRANT ARREST"}, minLen: 4, maxLen: 12,
 		open: []string{
@@ -581,6 +597,7 @@ var themeDefs = []themeDef{
 			"The {susp} was evaluated at the hospital and cleared for booking.",
 			"The {susp} braced {his} feet against the door frame.",
 			"Once handcuffed the {susp} calmed down and apologized.",
+			"The call started as a noise complaint.",
 		},
 		close: []string{
 			"Subject booked for resisting arrest and the warrant.",
@@ -591,7 +608,7 @@ var themeDefs = []themeDef{
 		},
 	},
 	{
-		name: ThemeScooter, label: "Shared e-scooter complaints", trend: Appearing, base: 0.07, district: 2,
+		name: ThemeScooter, label: "Shared e-scooter complaints", trend: Appearing, base: 0.04, district: 2,
 		ref:       []string{"a scooter complaint", "a public nuisance", "a traffic hazard"},
 		callTypes: []string{"SCOOTER COMPLAINT", "PUBLIC NUISANCE", "TRAFFIC HAZARD"}, minLen: 1, maxLen: 6,
 		open: []string{
@@ -617,6 +634,7 @@ var themeDefs = []themeDef{
 			"The scooter had a QR code and the company was {contacted}.",
 			"The rider {stated} {he} did not know about the sidewalk rule.",
 			"The scooters were blocking the bus stop.",
+			"A scooter was left in the driveway blocking the {veh}.",
 		},
 		close: []string{
 			"Scooter company will pick them up. {cleared}",
@@ -626,7 +644,7 @@ var themeDefs = []themeDef{
 		},
 	},
 	{
-		name: ThemeRoutine, label: "Routine: area checked, all clear", trend: Flat, base: 0.17, district: 0,
+		name: ThemeRoutine, label: "Routine: area checked, all clear", trend: Residual, base: 0, district: 0,
 		ref:       []string{"a suspicious circumstance", "an area check"},
 		callTypes: []string{"AREA CHECK", "SUSPICIOUS CIRCUMSTANCES", "EXTRA PATROL"}, minLen: 1, maxLen: 3,
 		open: []string{
@@ -639,6 +657,9 @@ var themeDefs = []themeDef{
 			"Extra patrol of {street} as requested, all quiet.",
 			"{checked} the {area}, {utl}.",
 			"Subject {goa}.",
+			"Alarm cancelled by the alarm company before arrival.",
+			"Welfare check, no answer at the door, all quiet.",
+			"Noise complaint, no noise heard on arrival.",
 			"All quiet on arrival.",
 			"Unfounded, nothing located.",
 			"Area checked, {goa}.",
@@ -661,16 +682,16 @@ var themeDefs = []themeDef{
 	},
 }
 
-// preambles are optional first sentences in the style of a dispatch log. {date} is the
-// incident's own date (not PII, though it looks like a date of birth), {ref} the theme's
+// preambles are optional first sentences in the style of a dispatch log. {date} and
+// {ihhmm} are the incident's own reported date and 24-hour time (not PII, though it looks like a date of birth), {ref} the theme's
 // noun phrase, {LOC} a location that is PII (an address, block or intersection) when the
 // narrative carries PII and a street or place otherwise.
 var preambles = []string{
-	"On {date} at {time} I was dispatched to {LOC} reference {ref}.",
-	"On {date}, {approx} {hhmm} hrs, {ofc} responded to {LOC} regarding {ref}.",
-	"{date} {hhmm} hrs. Dispatched to {LOC} for {ref}.",
+	"On {date} at {itime} I was dispatched to {LOC} reference {ref}.",
+	"On {date}, {approx} {ihhmm} hrs, {ofc} responded to {LOC} regarding {ref}.",
+	"{date} {ihhmm} hrs. Dispatched to {LOC} for {ref}.",
 	"On {date} I was sent to {LOC} for {ref}.",
-	"At {hhmm} hrs on {date}, {ofc} {arrived} at {LOC} for {ref}.",
+	"At {ihhmm} hrs on {date}, {ofc} {arrived} at {LOC} for {ref}.",
 }
 
 // sharedBody holds body sentences any non-routine theme may use, so that themes share
@@ -700,6 +721,7 @@ var sharedBody = []string{
 	"It was raining at the time.",
 	"{NAME} {stated} {he} saw the whole thing from across the street.",
 	"A witness named {NAME} gave a similar account.",
+	"Caller {NAME} requested a call back at {PHONE}.",
 	"{RP} {stated} {he} did not want to be identified.",
 	"A neighbor, {NAME}, {stated} {he} did not see or hear anything.",
 	"Dispatch {advised} me that the call was a repeat from earlier in the shift.",
