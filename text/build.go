@@ -130,41 +130,114 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 	}
 	c := &Corpus{Settings: s, Docs: len(docs)}
 
-	// Pass 1: tokenize, intern surfaces, count.
+	// Pass 1: tokenize, intern surfaces, count. Chunks of narratives are scanned in parallel
+	// with chunk-local surface tables, then merged in chunk order, so surface ids are numbered
+	// by first occurrence exactly as a sequential scan would number them.
 	intern := make(map[string]int32)
 	var surfs []surface
 	nbytes := 0
 	for _, raw := range docs {
 		nbytes += len(raw)
 	}
+	c.Bytes = nbytes
 	stream := make([]int32, 0, nbytes/5+16)
 	docOff := make([]int, len(docs)+1)
-	var sc scanner
-	for d, raw := range docs {
-		if d&511 == 0 {
-			if err := ctx.Err(); err != nil {
-				return nil, nil, err
+	type chunk struct {
+		intern map[string]int32
+		surfs  []surface
+		stream []int32
+		off    []int
+		tokens int
+	}
+	const chunkDocs = 256
+	nChunks := (len(docs) + chunkDocs - 1) / chunkDocs
+	scanners := make([]scanner, workers())
+	wave := 4 * workers()
+	chunks := make([]chunk, wave)
+	for w0 := 0; w0 < nChunks; w0 += wave {
+		if err := ctx.Err(); err != nil {
+			return nil, nil, err
+		}
+		nw := min(wave, nChunks-w0)
+		parallelFor(nw, func(worker, k int) {
+			ch := &chunks[k]
+			if ch.intern == nil {
+				ch.intern = make(map[string]int32)
+			} else {
+				clear(ch.intern)
+			}
+			ch.surfs, ch.stream, ch.off, ch.tokens = ch.surfs[:0], ch.stream[:0], append(ch.off[:0], 0), 0
+			sc := &scanners[worker]
+			lo := (w0 + k) * chunkDocs
+			hi := min(lo+chunkDocs, len(docs))
+			for _, raw := range docs[lo:hi] {
+				start := len(ch.stream)
+				sc.scan(raw, s.Tokens.KeepPossessive)
+				for _, t := range sc.toks {
+					if t.brk && len(ch.stream) > start && ch.stream[len(ch.stream)-1] != -1 {
+						ch.stream = append(ch.stream, -1)
+					}
+					key := sc.text[t.a:t.b]
+					id, ok := ch.intern[string(key)]
+					if !ok {
+						id = int32(len(ch.surfs))
+						str := string(key)
+						ch.intern[str] = id
+						ch.surfs = append(ch.surfs, surface{str, t.kind, 0})
+					}
+					ch.surfs[id].count++
+					ch.stream = append(ch.stream, id)
+				}
+				ch.tokens += len(sc.toks)
+				ch.off = append(ch.off, len(ch.stream))
+			}
+		})
+		var remap []int32
+		for k := 0; k < nw; k++ {
+			ch := &chunks[k]
+			remap = remap[:0]
+			for _, sf := range ch.surfs {
+				id, ok := intern[sf.text]
+				if !ok {
+					id = int32(len(surfs))
+					intern[sf.text] = id
+					surfs = append(surfs, surface{sf.text, sf.kind, 0})
+				}
+				surfs[id].count += sf.count
+				remap = append(remap, id)
+			}
+			base := len(stream)
+			for _, v := range ch.stream {
+				if v >= 0 {
+					v = remap[v]
+				}
+				stream = append(stream, v)
+			}
+			lo := (w0 + k) * chunkDocs
+			for j := 1; j < len(ch.off); j++ {
+				docOff[lo+j] = base + ch.off[j]
+			}
+			c.Tokens += ch.tokens
+		}
+	}
+	chunks = nil
+
+	// Stems of every scanned word, in parallel, seeded into the lexer's cache.
+	if !s.Stem.Off {
+		stems := make([]string, len(surfs))
+		const per = 512
+		parallelFor((len(surfs)+per-1)/per, func(_, k int) {
+			for id := k * per; id < min((k+1)*per, len(surfs)); id++ {
+				if surfs[id].kind == Word {
+					stems[id] = StemWord(surfs[id].text)
+				}
+			}
+		})
+		for id, st := range stems {
+			if surfs[id].kind == Word {
+				lx.stems[surfs[id].text] = st
 			}
 		}
-		c.Bytes += len(raw)
-		sc.scan(raw, s.Tokens.KeepPossessive)
-		for _, t := range sc.toks {
-			if t.brk && len(stream) > docOff[d] && stream[len(stream)-1] != -1 {
-				stream = append(stream, -1)
-			}
-			key := sc.text[t.a:t.b]
-			id, ok := intern[string(key)]
-			if !ok {
-				id = int32(len(surfs))
-				str := string(key)
-				intern[str] = id
-				surfs = append(surfs, surface{str, t.kind, 0})
-			}
-			surfs[id].count++
-			stream = append(stream, id)
-		}
-		c.Tokens += len(sc.toks)
-		docOff[d+1] = len(stream)
 	}
 	addSurface := func(w string) int32 {
 		if id, ok := intern[w]; ok {
@@ -203,6 +276,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		ix := repair.NewIndex(targets)
 		minLen, shortLen := orInt(rs.MinLength, 5), orInt(rs.ShortLen, 8)
 		maxCost, shortCost := orFloat(rs.MaxCost, 1), orFloat(rs.ShortMaxCost, 0.5)
+		var cand []int32
 		for id := 0; id < nScanned; id++ {
 			sf := surfs[id]
 			if sf.kind != Word || sf.count > rmax || user[sf.text] || lx.stop.Has(sf.text) || !lettersOnly(sf.text, true) {
@@ -211,21 +285,33 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 			if _, ok := lx.abbrev.Lookup(sf.text); ok {
 				continue
 			}
-			n := len([]rune(sf.text))
-			if n < minLen {
+			if len([]rune(sf.text)) < minLen {
 				continue
 			}
+			cand = append(cand, int32(id))
+		}
+		found := make([]string, len(cand))
+		costs := make([]float64, len(cand))
+		parallelFor(len(cand), func(_, k int) {
+			w := surfs[cand[k]].text
 			limit := maxCost
-			if n <= shortLen {
+			if len([]rune(w)) <= shortLen {
 				limit = shortCost
 			}
-			if tgt, cost, ok := ix.Best(sf.text, limit); ok {
-				if !s.Stem.Off && lx.stems.stem(tgt) == lx.stems.stem(sf.text) {
-					continue // an inflection of the target: stemming already merges them
-				}
-				repairTo[id] = addSurface(tgt)
-				repairCost[id] = cost
+			if tgt, cost, ok := ix.Best(w, limit); ok {
+				found[k], costs[k] = tgt, cost
 			}
+		})
+		for k, id := range cand {
+			tgt := found[k]
+			if tgt == "" {
+				continue
+			}
+			if !s.Stem.Off && lx.stems.stem(tgt) == lx.stems.stem(surfs[id].text) {
+				continue // an inflection of the target: stemming already merges them
+			}
+			repairTo[id] = addSurface(tgt)
+			repairCost[id] = costs[k]
 		}
 	}
 	joinOn := rs.Enabled && !rs.NoJoin
@@ -366,7 +452,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 	// Phrases.
 	var phrasePairs [][2]string
 	if s.Phrases.Enabled {
-		pairCount := make(map[[2]int32]int)
+		pairCount := make(map[uint64]int, len(stemStr)*4)
 		left, right := make([]int, len(stemStr)), make([]int, len(stemStr))
 		n := 0
 		for d := range docs {
@@ -375,14 +461,23 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 				if a < 0 || b < 0 || stemProt[a] || stemProt[b] {
 					continue
 				}
-				pairCount[[2]int32{a, b}]++
+				pairCount[uint64(a)<<32|uint64(b)]++
 				left[a]++
 				right[b]++
 				n++
 			}
 		}
-		sel := phrase.Select(pairCount, left, right, n, s.Phrases.Settings)
-		phraseID := make(map[[2]int32]int32, len(sel))
+		pc := make(map[[2]int32]int, len(pairCount)/4)
+		minCount := orInt(s.Phrases.MinCount, 5)
+		for k, v := range pairCount {
+			if v >= minCount {
+				pc[[2]int32{int32(k >> 32), int32(uint32(k))}] = v
+			}
+		}
+		pairCount = nil
+		sel := phrase.Select(pc, left, right, n, s.Phrases.Settings)
+		phraseID := make(map[uint64]int32, len(sel))
+		isLeft := make([]bool, len(stemStr))
 		for _, p := range sel {
 			key := stemStr[p.A] + "_" + stemStr[p.B]
 			id := internStem(key, false)
@@ -390,7 +485,8 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 				disp = append(disp, "")
 			}
 			disp[id] = disp[p.A] + "_" + disp[p.B]
-			phraseID[[2]int32{p.A, p.B}] = id
+			phraseID[uint64(p.A)<<32|uint64(p.B)] = id
+			isLeft[p.A] = true
 			phrasePairs = append(phrasePairs, [2]string{stemStr[p.A], stemStr[p.B]})
 			c.Phrases = append(c.Phrases, PhraseInfo{key, disp[id], p.Count, p.Score})
 		}
@@ -400,8 +496,8 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 				a, b := docOff2[d], docOff2[d+1]
 				docOff2[d] = w
 				for k := a; k < b; {
-					if k+1 < b && out[k] >= 0 && out[k+1] >= 0 {
-						if p, ok := phraseID[[2]int32{out[k], out[k+1]}]; ok {
+					if k+1 < b && out[k] >= 0 && out[k+1] >= 0 && isLeft[out[k]] {
+						if p, ok := phraseID[uint64(out[k])<<32|uint64(out[k+1])]; ok {
 							out[w] = p
 							w++
 							k += 2
@@ -426,7 +522,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 	for i := range last {
 		last[i] = -1
 	}
-	routineStem := make(map[int32]bool)
+	routineStem := make([]bool, nTerms)
 	for _, w := range s.Routine.Words {
 		w = strings.ToLower(strings.TrimSpace(w))
 		if w == "" {
@@ -474,18 +570,22 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 			th[i] = routine.HashString(st)
 		}
 		sigs := make([][]uint64, len(docs))
-		var buf []uint64
-		for d := range docs {
-			buf = buf[:0]
-			for _, t := range out[docOff2[d]:docOff2[d+1]] {
-				if t >= 0 {
-					buf = append(buf, th[t])
+		bufs := make([][]uint64, workers())
+		const per = 256
+		parallelFor((len(docs)+per-1)/per, func(w, k int) {
+			for d := k * per; d < min((k+1)*per, len(docs)); d++ {
+				buf := bufs[w][:0]
+				for _, t := range out[docOff2[d]:docOff2[d+1]] {
+					if t >= 0 {
+						buf = append(buf, th[t])
+					}
 				}
+				sigs[d] = h.Signature(nil, buf)
+				bufs[w] = buf
 			}
-			sigs[d] = h.Signature(nil, buf)
-		}
+		})
 		g := h.Groups(sigs)
-		size := make(map[int]int)
+		size := make([]int, len(docs))
 		for _, r := range g {
 			size[r]++
 		}

@@ -7,6 +7,7 @@ import (
 	"math"
 	"os"
 	"reflect"
+	"runtime"
 	"slices"
 	"strings"
 	"testing"
@@ -126,8 +127,12 @@ func TestTransformMatchesBuild(t *testing.T) {
 
 // Same input and settings give byte-identical output (RULES: determinism).
 func TestBuildDeterministic(t *testing.T) {
-	docs := genCorpus(300, 3)
-	enc := func() []byte {
+	docs := genCorpus(3000, 3)
+	if _, err := os.Stat(oshaPath); err == nil {
+		docs = append(docs, loadOSHA(t, 1500)...)
+	}
+	enc := func(procs int) []byte {
+		defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(procs))
 		c, f := build(t, docs, DefaultSettings())
 		b, err := json.Marshal(struct {
 			C *Corpus
@@ -138,9 +143,9 @@ func TestBuildDeterministic(t *testing.T) {
 		}
 		return b
 	}
-	a, b := enc(), enc()
+	a, b := enc(1), enc(4)
 	if !bytes.Equal(a, b) {
-		t.Fatal("two builds differ")
+		t.Fatal("builds with GOMAXPROCS 1 and 4 differ")
 	}
 }
 

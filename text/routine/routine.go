@@ -104,8 +104,9 @@ func (h *Hasher) Signature(dst []uint64, tokens []uint64) []uint64 {
 	for i := 0; i+k <= len(tokens); i++ {
 		sh := h.seed
 		for _, t := range tokens[i : i+k] {
-			sh = mix(sh ^ t)
+			sh = (sh ^ t) * 0x100000001b3 // FNV-style combine of the token hashes
 		}
+		sh = mix(sh)
 		bin := 0
 		if h.shift < 64 {
 			bin = int(sh >> h.shift)
