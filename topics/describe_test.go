@@ -8,8 +8,8 @@ import (
 
 func handModel() *Model {
 	return &Model{k: 2, v: 3, alpha: []float64{0.5, 0.5}, beta: 0.1,
-		phi:   []float64{0.5, 0.3, 0.2, 0.1, 0.1, 0.8},
-		theta: []float64{0.9, 0.1, 0.2, 0.8, 0.6, 0.4, 0.5, 0.5},
+		phi:    []float64{0.5, 0.3, 0.2, 0.1, 0.1, 0.8},
+		theta:  []float64{0.9, 0.1, 0.2, 0.8, 0.6, 0.4, 0.5, 0.5},
 		docLen: []int{3, 5, 2, 0}, freq: []int64{6, 4, 10},
 		vocab: []string{"fall", "ladder", "press"}, display: []string{"fall", "ladder", "press"},
 		names: []string{"", ""}}

@@ -27,7 +27,7 @@ type Corpus struct {
 type Settings struct {
 	// K is the number of themes. It must be at least 1 (there is no default).
 	K int
-	// Iterations is the number of Gibbs sweeps over all tokens. Zero means 300.
+	// Iterations is the number of Gibbs sweeps over all tokens. Zero means 200.
 	Iterations int
 	// BurnIn is the number of sweeps discarded before samples are averaged. Zero means
 	// Iterations/2. Hyperparameters are re-estimated only during burn-in, so the averaged
@@ -91,7 +91,7 @@ func (s Settings) resolved() (Settings, error) {
 		return s, fmt.Errorf("topics: K = %d is more than %d themes", s.K, 1<<15)
 	}
 	if s.Iterations == 0 {
-		s.Iterations = 300
+		s.Iterations = 200
 	}
 	if s.BurnIn == 0 {
 		s.BurnIn = s.Iterations / 2
