@@ -15,16 +15,20 @@ var wordsEN string
 var namesEN string
 
 var (
-	listsOnce        sync.Once
-	dict             map[string]bool // ordinary English words
-	givenNames       map[string]bool
-	surnames         map[string]bool
-	stopNames        map[string]bool // capitalised words that never start or continue a name
-	orgWords         map[string]bool // words that make a capitalised run a business or place
-	orgOnly          map[string]bool // orgWords without the street suffixes
-	titleWords       = map[string]bool{"mr": true, "mrs": true, "ms": true, "miss": true, "mx": true, "dr": true, "mister": true}
-	personVerbs      map[string]bool
-	personBefore     = map[string]bool{"with": true, "told": true, "asked": true, "and": true, "saw": true, "by": true, "told,": true, "called": true, "met": true, "per": true}
+	listsOnce    sync.Once
+	dict         map[string]bool // ordinary English words
+	givenNames   map[string]bool
+	surnames     map[string]bool
+	stopNames    map[string]bool // capitalised words that never start or continue a name
+	orgWords     map[string]bool // words that make a capitalised run a business or place
+	orgOnly      map[string]bool // orgWords without the street suffixes
+	titleWords   = map[string]bool{"mr": true, "mrs": true, "ms": true, "miss": true, "mx": true, "dr": true, "mister": true}
+	personVerbs  map[string]bool
+	personBefore = set("told asked and saw called met per")
+	// words before a capitalised run that make it a thing, not a person: "a Timberjack
+	// Feller Buncher", "caused by Myocardial Infarction" is kept out by "of"/"as" ...
+	thingBefore      = set("a an the this that these those his her their its our your my each every any some of as from using into onto for")
+	usStates         = set("AL AK AZ AR CA CO CT DE DC FL GA HI ID IL IN IA KS KY LA ME MD MA MI MN MS MO MT NE NV NH NJ NM NY NC ND OH OK OR PA RI SC SD TN TX UT VT VA WA WV WI WY PR")
 	placePrepsBefore = map[string]bool{"in": true, "at": true, "near": true, "into": true, "inside": true, "via": true}
 )
 
@@ -71,7 +75,9 @@ func loadLists() {
 	june july august september october november december
 	name phone email ssn dob age plate vin address case no
 	north south east west street avenue road drive lane court
-	mr mrs ms miss mx dr mister sir madam st`)
+	mr mrs ms miss mx dr mister sir madam st
+	however therefore meanwhile additionally later subsequently finally thus instead also
+	coworker coworkers co-worker supervisor foreman manager operator crew laborer`)
 	orgWords = set(`inc llc co corp corporation company companies ltd limited lp llp pllc
 	department dept county city town township village state university college school academy
 	hospital clinic center centre church bank store stores market restaurant cafe bar grill pub
@@ -290,7 +296,10 @@ func (d *doc) names(cs []cand) []cand {
 				break
 			}
 			if end, parts := d.nameSeq(j); len(parts) > 0 {
-				cs = d.addName(cs, j, end, parts)
+				// "Coworker #1", "Unit 12": a label, not a name.
+				if !(end < len(d.toks) && (d.toks[end].kind == tNum || d.isPunct(end, "#"))) {
+					cs = d.addName(cs, j, end, parts)
+				}
 				i = end - 1
 			}
 			break
@@ -364,6 +373,13 @@ func (d *doc) heuristicNames(cs []cand) []cand {
 		if org || (idx[0] > 0 && d.toks[idx[0]-1].kind == tNum) {
 			continue
 		}
+		// a model number after, or ", MN" (a place), marks a thing.
+		if next < len(d.toks) && d.toks[next].kind == tNum {
+			continue
+		}
+		if d.isPunct(next, ",") && next+1 < len(d.toks) && usStates[d.word(next+1)] {
+			continue
+		}
 		// drop leading stop words and sentence-initial dictionary words.
 		for len(idx) > 0 {
 			w := d.word(idx[0])
@@ -376,6 +392,12 @@ func (d *doc) heuristicNames(cs []cand) []cand {
 		}
 		if len(idx) == 0 {
 			continue
+		}
+		// a determiner or preposition before marks a thing: "the Rooftop Rigger".
+		if idx[0] > 0 && d.toks[idx[0]-1].kind == tWord {
+			if p := d.lower[idx[0]-1]; thingBefore[p] || (p == "called" && !d.personCalled(idx[0]-1)) {
+				continue
+			}
 		}
 		for len(idx) > 0 && stopNames[strings.ToLower(d.word(idx[len(idx)-1]))] {
 			idx = idx[:len(idx)-1]
@@ -667,4 +689,18 @@ func (d *doc) quoted(i, j int) bool {
 		return k >= 0 && k < len(d.toks) && d.toks[k].kind == tPunct && strings.ContainsAny(d.word(k), "\"“”'‘’")
 	}
 	return q(i-1) && q(j+1)
+}
+
+// personCalled reports whether "called" at token i means "telephoned" or "named" a person
+// ("Staff called Tamo Bromley") rather than naming a thing ("a machine called a Sreco"):
+// it is preceded by a word that is not a determiner or a noun for a thing.
+func (d *doc) personCalled(i int) bool {
+	if i == 0 || d.toks[i-1].kind != tWord {
+		return true
+	}
+	switch d.lower[i-1] {
+	case "machine", "device", "tool", "product", "chemical", "pesticide", "substance", "cleaner", "system", "unit", "equipment":
+		return false
+	}
+	return true
 }
