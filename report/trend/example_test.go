@@ -71,3 +71,28 @@ func ExampleSeriesTable() {
 	// 2023-04,0,entry,withheld,withheld,withheld,withheld,withheld,withheld,0.666667,true,false,
 	// 2023-04,1,noise,withheld,withheld,withheld,withheld,withheld,withheld,0.666667,true,false,
 }
+
+func ExampleChanges() {
+	// Ten months of 100 invented narratives, 10 or 11 of them mostly about theme 0,
+	// then a month with 30.
+	var docs []trend.Doc
+	for m := 0; m < 11; m++ {
+		k := 10 + m%2
+		if m == 10 {
+			k = 30
+		}
+		for i := 0; i < 100; i++ {
+			theta := []float64{0.2, 0.8}
+			if i < k {
+				theta = []float64{0.9, 0.1}
+			}
+			docs = append(docs, trend.Doc{Date: time.Date(2023, time.Month(1+m), 1+i%28, 0, 0, 0, 0, time.UTC), Theta: theta})
+		}
+	}
+	s, _ := trend.Monthly(docs, trend.Settings{From: time.Date(2023, 1, 1, 0, 0, 0, 0, time.UTC), To: time.Date(2023, 11, 30, 0, 0, 0, 0, time.UTC)})
+	for _, f := range trend.Changes(s, trend.ChangeSettings{Methods: []trend.Method{trend.C1}}) {
+		fmt.Println(f.Explanation)
+	}
+	// Output:
+	// In 2023-11 this theme's share (30.0%) was above the upper limit expected from the previous 7 months with data (2023-04 to 2023-10: mean 10.6%, sd 3.1% (the binomial floor for the month's number of narratives); C1 = 6.29 > 3). This marks the month for a closer reading of its narratives; it does not show that anything changed in what happened.
+}

@@ -98,7 +98,8 @@ func Groups(docs []Doc, gs GroupSettings) (*GroupTable, error) {
 
 // ChiSquare is Pearson's chi-square test of independence of the rows and columns of a
 // table of counts, with adjusted standardised residuals (Agresti 2013, Categorical Data
-// Analysis, 3rd ed., §2.4.5):
+// Analysis, 3rd ed., the section on residuals for contingency tables; section number
+// not given because it is from memory):
 //
 //	e_ij = n_i. n_.j / n
 //	X²   = Σ (o_ij − e_ij)² / e_ij,   df = (r−1)(c−1),   p = P(χ²_df ≥ X²)

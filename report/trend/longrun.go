@@ -15,7 +15,7 @@ import (
 //	log E[count_t] = β0 + β1·x_t + log(total_t),   x_t = (months since the first month)/12
 //
 // fitted by iteratively reweighted least squares (McCullagh & Nelder 1989, Generalized
-// Linear Models, 2nd ed., §2.5) over the months with data (gaps are left out; partial
+// Linear Models, 2nd ed.) over the months with data (gaps are left out; partial
 // months stay in, their smaller total is the offset). exp(β1) is the rate ratio per year:
 // the factor by which the theme's share of narratives changes over twelve months.
 //

@@ -25,6 +25,7 @@ import "strconv"
 type Publish struct {
 	// Threshold is the smallest count shown; 0 means 10 (a threshold common among
 	// statistical agencies for published tables; from memory, not from one standard).
+	// A negative value is a caller bug and panics.
 	Threshold int
 	// Everything shows every count. Tables made with it are private: WriteFiles writes
 	// them only to a file whose name contains "private", and WriteCSV and WriteJSON

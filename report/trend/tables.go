@@ -25,7 +25,9 @@ import (
 //
 // Counts below p's threshold are shown as "<10" (Publish.Withheld); counts withheld with
 // them so that they cannot be recovered, and shares and intervals computed from a
-// withheld count or total, are shown as "withheld" (Hidden).
+// withheld count or total, are shown as "withheld" (Hidden). The flag column is shown
+// even where the cell's numbers are withheld: Changes flags only counts of at least
+// ChangeSettings.MinCount (3), so a flag says no more than that.
 func SeriesTable(s *Series, flags []Flag, labels []string, p Publish) *Table {
 	t := newTable("series", p, Column{"month", Text}, Column{"theme", Number}, Column{"label", Text},
 		Column{"count", Number}, Column{"expected", Number}, Column{"total", Number}, Column{"share", Number},

@@ -6,9 +6,10 @@ import (
 )
 
 func TestWilsonNewcombe(t *testing.T) {
-	// Expected values: the examples of Newcombe (1998), Statistics in Medicine 17:857–872,
-	// Table I, method 3 (score interval) — the attribution of these four examples to that
-	// table is from memory; the figures themselves were computed here to 4 decimals.
+	// Expected values: the worked examples given for the score interval in Newcombe (1998),
+	// "Two-sided confidence intervals for the single proportion", Statistics in Medicine
+	// 17:857–872 — the attribution of these four examples to that paper is from memory;
+	// the figures themselves, to 4 decimals, are as computed here and in the issue.
 	for _, tc := range []struct {
 		x, n      int
 		low, high float64
