@@ -223,8 +223,8 @@ func TestBrowser(t *testing.T) {
 	if x.Pwned != "undefined" {
 		t.Errorf("window.__pwned is %s: a payload ran", x.Pwned)
 	}
-	if x.Imgs != 0 || x.Scripts != 2 {
-		t.Errorf("page has %d img and %d script elements, want 0 and 2", x.Imgs, x.Scripts)
+	if x.Imgs != 0 || x.Scripts != 3 {
+		t.Errorf("page has %d img and %d script elements, want 0 and 3 (runtime, our script, the JSON block)", x.Imgs, x.Scripts)
 	}
 	for _, p := range []string{HostileScript, HostileImg} {
 		if n := strings.Count(x.Text, p); n < 2 { // the label (twice at least) and the example
@@ -262,7 +262,7 @@ func TestBrowser(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if x2.Pwned != "undefined" || x2.Imgs != 0 || x2.Scripts != 2 {
+	if x2.Pwned != "undefined" || x2.Imgs != 0 || x2.Scripts != 3 {
 		t.Errorf("after tooltips: __pwned %s, %d img, %d script elements", x2.Pwned, x2.Imgs, x2.Scripts)
 	}
 

@@ -9,8 +9,10 @@
 // context, where they are escaped. go-echarts' own page renderers are never used: they
 // write options unescaped into <script> (see /work/shared/LIBNOTES.md). The browser
 // runtime is npm echarts@6.1.0 dist/echarts.min.js, embedded with go:embed and checked
-// by assets/verify.sh against assets/PROVENANCE. The page loads nothing from the network
-// and its Content-Security-Policy forbids it.
+// by assets/verify.sh against assets/PROVENANCE. The page loads nothing from the network,
+// and its Content-Security-Policy forbids it and lets only two scripts run, named by
+// their SHA-256 hashes: that runtime and our own templates/app.js. The chart options
+// travel in a JSON block, which is data.
 //
 // Colours come from the Okabe–Ito palette (Okabe and Ito 2008), recommended for
 // colour-blind readers by Wong (2011), Nature Methods 8:441.

@@ -211,3 +211,42 @@ func TestApply(t *testing.T) {
 		t.Errorf("got %v", err)
 	}
 }
+
+// FuzzParseLabels: any input gives a Curation or a *LabelsError whose position lies
+// inside the input, and never a panic; a parsed file maps without error for a model
+// large enough.
+func FuzzParseLabels(f *testing.F) {
+	for _, s := range []string{
+		"theme 3: label = Parking\nmerge 4 into 7\nhide 9\n",
+		"# c\n\ntheme 0: note = a = b\n",
+		"merge 1 into 2\nmerge 2 into 1",
+		"theme 99999999999999999999: label = x",
+		"hide\t7\r\n",
+	} {
+		f.Add(s)
+	}
+	f.Fuzz(func(t *testing.T, src string) {
+		c, err := ParseLabels("f.txt", strings.NewReader(src))
+		if err != nil {
+			var le *LabelsError
+			if !errors.As(err, &le) {
+				t.Fatalf("error %v is not a *LabelsError", err)
+			}
+			lines := strings.Count(src, "\n") + 1
+			if le.Line < 1 || le.Line > lines+1 || le.Col < 1 {
+				t.Fatalf("position %d:%d outside the input (%d lines): %v", le.Line, le.Col, lines, err)
+			}
+			return
+		}
+		k := 0
+		for _, st := range c.Statements {
+			if st.Theme > 1<<16 || st.Into > 1<<16 {
+				return
+			}
+			k = max(k, st.Theme+1, st.Into+1)
+		}
+		if _, err := c.Map(k); err != nil {
+			t.Fatalf("Map(%d): %v", k, err)
+		}
+	})
+}

@@ -2,7 +2,9 @@ package report
 
 import (
 	"bytes"
+	"crypto/sha256"
 	"embed"
+	"encoding/base64"
 	"errors"
 	"fmt"
 	"html/template"
@@ -23,6 +25,12 @@ var templateFS embed.FS
 //
 //go:embed assets/echarts.min.js
 var echartsJS string
+
+// appJS is our own page script: it draws the charts from the page's JSON block, sorts
+// the overview table and runs the search box. It is code, never built from data.
+//
+//go:embed templates/app.js
+var appJS string
 
 // EchartsNotice is the licence notice of the embedded echarts runtime (Apache-2.0); ship
 // it with any binary that embeds this package.
@@ -49,6 +57,14 @@ var pageTemplate = template.Must(template.New("page").
 	}).
 	ParseFS(templateFS, "templates/*.tmpl"))
 
+// pageCSP is the page's Content-Security-Policy. It allows exactly two scripts, by
+// their SHA-256 hashes (CSP Level 2, "hash-source"): the echarts runtime and our own
+// script, both fixed at build time. The chart options are in a JSON block that is data,
+// not script. So even markup that slipped through escaping could run no script, and the
+// page may load nothing (default-src 'none'); only data: images (echarts' own) and
+// inline styles (echarts sizes its canvases with them) are allowed.
+var pageCSP string
+
 func init() {
 	// The runtime is inserted into a <script> element unescaped (it is code we ship, not
 	// data); make sure nothing in it can end the element early.
@@ -56,6 +72,16 @@ func init() {
 	if strings.Contains(low, "</script") || strings.Contains(low, "<!--") {
 		panic("report: embedded echarts runtime contains </script or <!--")
 	}
+	if strings.Contains(strings.ToLower(appJS), "</script") {
+		panic("report: app.js contains </script")
+	}
+	pageCSP = "default-src 'none'; script-src " + scriptHash(echartsJS) + " " + scriptHash(appJS) +
+		"; style-src 'unsafe-inline'; img-src data:; connect-src 'none'; font-src 'none'; form-action 'none'; base-uri 'none'"
+}
+
+func scriptHash(s string) string {
+	sum := sha256.Sum256([]byte(s))
+	return "'sha256-" + base64.StdEncoding.EncodeToString(sum[:]) + "'"
 }
 
 // Render writes the report for d to w as one self-contained HTML page. The page is
@@ -116,6 +142,8 @@ type page struct {
 	Rejected   int
 	Balanced   bool
 	Runtime    template.JS
+	App        template.JS
+	CSP        string
 	HeatRows   []heatRow
 }
 
@@ -239,7 +267,7 @@ func render(w *bytes.Buffer, d *Data) error {
 	if err := Validate(d); err != nil {
 		return err
 	}
-	p := &page{D: d, Title: d.Title, Runtime: template.JS(echartsJS)}
+	p := &page{D: d, Title: d.Title, Runtime: template.JS(echartsJS), App: template.JS(appJS), CSP: pageCSP}
 	if p.Title == "" {
 		p.Title = "Narrative themes"
 	}

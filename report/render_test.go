@@ -107,8 +107,8 @@ func TestEscaping(t *testing.T) {
 			t.Errorf("page contains %q unescaped", bad)
 		}
 	}
-	if n := strings.Count(strings.ToLower(page), "<script"); n != 2 {
-		t.Errorf("%d script elements, want 2", n)
+	if n := strings.Count(strings.ToLower(page), "<script"); n != 3 {
+		t.Errorf("%d script elements, want 3 (runtime, our script, the JSON block)", n)
 	}
 	if !strings.Contains(page, "&lt;svg onload=alert(1)&gt;") || !strings.Contains(page, `\u003csvg onload=alert(1)\u003e`) {
 		t.Error("label not found escaped as HTML text and as JS string")

@@ -1,9 +1,10 @@
-{{define "app.js.tmpl"}}
 /* undercurrent report script: draws the charts from UC_CHARTS, sorts the overview table,
    filters themes and examples. It reads the page and never writes markup from data: all
    text changes go through textContent. */
 (function () {
   "use strict";
+  // The chart options are data in a JSON block, not code.
+  var UC_CHARTS = JSON.parse(document.getElementById("uc-charts").textContent);
   var drawn = [];
   var byID = {};
   // Charts are drawn in slices of about 40 ms after the first paint, so that the text of
@@ -119,4 +120,4 @@
   for (var i = 0; i < tables.length; i++) { setupSort(tables[i]); }
   setupSearch();
 })();
-{{end}}
+
