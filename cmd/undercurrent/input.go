@@ -141,3 +141,9 @@ func writeFileAtomic(path string, fn func(w io.Writer) error) error {
 	ok = true
 	return nil
 }
+
+func writeRejects(path string, set *intake.Set) error {
+	return writeFileAtomic(path, func(w io.Writer) error { return intake.WriteRejects(w, set.Rejects) })
+}
+
+func intakeRejectCounts(set *intake.Set) []intake.ReasonCount { return intake.RejectCounts(set.Rejects) }

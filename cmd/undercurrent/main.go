@@ -130,10 +130,10 @@ func run(ctx context.Context, e *env, args []string) int {
 		return exitUsage
 	}
 	err := runFn(ctx, e, fs.Args())
-	return report(e, c, err)
+	return exitFor(e, c, err)
 }
 
-func report(e *env, c *command, err error) int {
+func exitFor(e *env, c *command, err error) int {
 	var ue usageError
 	switch {
 	case err == nil:
