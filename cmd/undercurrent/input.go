@@ -146,4 +146,6 @@ func writeRejects(path string, set *intake.Set) error {
 	return writeFileAtomic(path, func(w io.Writer) error { return intake.WriteRejects(w, set.Rejects) })
 }
 
-func intakeRejectCounts(set *intake.Set) []intake.ReasonCount { return intake.RejectCounts(set.Rejects) }
+func intakeRejectCounts(set *intake.Set) []intake.ReasonCount {
+	return intake.RejectCounts(set.Rejects)
+}

@@ -159,17 +159,17 @@ func (f *redactFlags) redactor() (*redact.Redactor, error) {
 // prepared is the input after reading, redaction and the text pipeline.
 type prepared struct {
 	set       *intake.Set
-	published []string         // redacted narratives: the only text that is ever shown
-	spans     [][]redact.Span  // redactions per narrative
-	counts    redact.Counts    // redactions per type
-	corpus    *text.Corpus     // built on the blanked published text
-	frozen    *text.Frozen     // the pipeline, frozen for tagging
-	fitRows   []int            // narratives the models are fitted on (routine ones left out)
-	inputHash string           // sha256 of the input files' bytes, in order
-	settings  text.Settings    // text pipeline settings used
-	abbrevN   map[string]int   // expansions by abbreviation
-	routineN  map[string]int   // routine narratives by reason
-	fitCounts *sparse.Matrix   // counts restricted to fitRows
+	published []string        // redacted narratives: the only text that is ever shown
+	spans     [][]redact.Span // redactions per narrative
+	counts    redact.Counts   // redactions per type
+	corpus    *text.Corpus    // built on the blanked published text
+	frozen    *text.Frozen    // the pipeline, frozen for tagging
+	fitRows   []int           // narratives the models are fitted on (routine ones left out)
+	inputHash string          // sha256 of the input files' bytes, in order
+	settings  text.Settings   // text pipeline settings used
+	abbrevN   map[string]int  // expansions by abbreviation
+	routineN  map[string]int  // routine narratives by reason
+	fitCounts *sparse.Matrix  // counts restricted to fitRows
 }
 
 // prepare reads the inputs, accounts for every row, redacts, and runs the text pipeline.
