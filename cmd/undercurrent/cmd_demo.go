@@ -58,12 +58,7 @@ Example:
 					f.title = "Demo: an invented town's incident narratives"
 				}
 				res, err := runJob(ctx, e, &f, []string{filepath.Join(inDir, "incidents.csv")})
-				if err != nil {
-					return err
-				}
-				fmt.Fprintf(e.stdout, "%s\n", res.report)
-				fmt.Fprintf(e.stderr, "wrote %d files into %s; open %s in a browser\n", len(res.files), f.out, res.report)
-				return nil
+				return jobDone(e, &f, res, err)
 			}
 		},
 	})

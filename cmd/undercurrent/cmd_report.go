@@ -3,7 +3,6 @@ package main
 import (
 	"context"
 	"flag"
-	"fmt"
 )
 
 func init() {
@@ -48,12 +47,7 @@ Example:
 			f.register(fs, true)
 			return func(ctx context.Context, e *env, args []string) error {
 				res, err := runJob(ctx, e, &f, args)
-				if err != nil {
-					return err
-				}
-				fmt.Fprintf(e.stdout, "%s\n", res.report)
-				fmt.Fprintf(e.stderr, "wrote %d files into %s; the report is %s\n", len(res.files), f.out, res.report)
-				return nil
+				return jobDone(e, &f, res, err)
 			}
 		},
 	})

@@ -98,21 +98,21 @@ func runJob(ctx context.Context, e *env, f *jobFlags, args []string) (*jobResult
 	// The number of themes.
 	var sweep *topics.SweepTable
 	k := f.model.themes
-	if k == 0 || len(splitList(f.model.krange)) > 0 && f.model.themes == 0 {
+	if k == 0 {
 		k, sweep, err = chooseK(ctx, e, p, &f.model)
 		if err != nil {
-			return nil, err
+			return res, err
 		}
 		fmt.Fprintf(e.stderr, "number of themes: %d (%s)\n", k, strings.Join(sweep.Reasons, " "))
 	}
 	m, err := fitModel(ctx, e, p, &f.model, k)
 	if err != nil {
-		return nil, err
+		return res, err
 	}
 	res.k = k
 	modelPath := filepath.Join(f.out, "themes.ucmodel")
 	if err := saveModel(modelPath, m); err != nil {
-		return nil, err
+		return res, err
 	}
 	res.files = append(res.files, modelPath)
 
@@ -141,7 +141,7 @@ func runJob(ctx context.Context, e *env, f *jobFlags, args []string) (*jobResult
 
 	d, err := buildData(ctx, e, f, p, m, sweep, theta, labels)
 	if err != nil {
-		return nil, err
+		return res, err
 	}
 	pub := trend.Publish{Threshold: f.threshold}
 
@@ -150,7 +150,7 @@ func runJob(ctx context.Context, e *env, f *jobFlags, args []string) (*jobResult
 	if cur != nil {
 		tm, err := cur.Map(k)
 		if err != nil {
-			return nil, err
+			return res, err
 		}
 		themeMap = report.ThemeMap{Into: append(tm.Into, k), Hidden: append(tm.Hidden, false)}
 		recompute := func(into int, from []int) ([]report.MonthPoint, []report.GroupShare, string, error) {
@@ -182,7 +182,7 @@ func runJob(ctx context.Context, e *env, f *jobFlags, args []string) (*jobResult
 			return months, groups, publishCount(dom, pub), nil
 		}
 		if err := report.Apply(d, cur, recompute); err != nil {
-			return nil, err
+			return res, err
 		}
 		for t := 0; t < k; t++ {
 			for _, th := range d.Themes {
@@ -195,7 +195,7 @@ func runJob(ctx context.Context, e *env, f *jobFlags, args []string) (*jobResult
 
 	reportPath := filepath.Join(f.out, "report.html")
 	if err := report.WriteFile(reportPath, d); err != nil {
-		return nil, err
+		return res, err
 	}
 	res.report = reportPath
 	res.files = append(res.files, reportPath)
@@ -203,9 +203,29 @@ func runJob(ctx context.Context, e *env, f *jobFlags, args []string) (*jobResult
 	written, err := writeExports(ctx, f, p, m, d, theta, labels, themeMap, pub)
 	res.files = append(res.files, written...)
 	if err != nil {
-		return nil, err
+		return res, err
 	}
 	return res, nil
+}
+
+// jobDone prints what a job wrote. After an interruption or a failure it lists the files
+// that were finished (each was written completely under its final name; nothing
+// half-written is left behind).
+func jobDone(e *env, f *jobFlags, res *jobResult, err error) error {
+	if err != nil {
+		if res != nil && len(res.files) > 0 {
+			fmt.Fprintf(e.stderr, "stopped before the end; these files were finished:\n")
+			for _, p := range res.files {
+				if _, serr := os.Stat(p); serr == nil {
+					fmt.Fprintf(e.stderr, "\t%s\n", p)
+				}
+			}
+		}
+		return err
+	}
+	fmt.Fprintf(e.stdout, "%s\n", res.report)
+	fmt.Fprintf(e.stderr, "wrote %d files into %s; open %s in a browser\n", len(res.files), f.out, res.report)
+	return nil
 }
 
 func identity(n int) []int {
