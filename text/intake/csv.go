@@ -90,7 +90,7 @@ func delimName(d rune, spaced bool) string {
 // the header's is rejected as a ragged row; a row with bad quoting is rejected with the
 // parser's line and column; a quoted field that never closes is an error, since the
 // rest of the file was swallowed by it.
-func readCSV(ctx context.Context, name string, br *bufio.Reader, peek []byte, ext string, dec decision, opt *Options) (*table, error) {
+func readCSV(ctx context.Context, name string, br *bufio.Reader, peek []byte, ext string, dec decision, tail *tailTracker, opt *Options) (*table, error) {
 	delim, spaced := opt.Delimiter, false
 	if delim == ',' {
 		_, spaced = sniffDelimiter(peek)
@@ -138,7 +138,7 @@ func readCSV(ctx context.Context, name string, br *bufio.Reader, peek []byte, ex
 			if !errors.As(err, &pe) {
 				return nil, &PosError{File: name, Err: err}
 			}
-			if _, err2 := br.Peek(1); err2 == io.EOF && errors.Is(err, csv.ErrQuote) {
+			if _, err2 := br.Peek(1); err2 == io.EOF && errors.Is(err, csv.ErrQuote) && pe.Column > tail.lastLine() {
 				return nil, &PosError{File: name, Line: pe.Line, Column: pe.Column,
 					Err: fmt.Errorf("%w: the quoted field of the record starting at line %d never closes", ErrUnclosedQuote, pe.StartLine)}
 			}

@@ -217,6 +217,22 @@ func TestTrailingDelimiter(t *testing.T) {
 	}
 }
 
+func TestQuoteErrorOnLastLine(t *testing.T) {
+	// A closed quote followed by text on the last line is bad quoting, not an unclosed
+	// quote, with or without a final line end.
+	for _, in := range []string{"id,narrative\n1,ok\n2,\"q\"x", "id,narrative\n1,ok\n2,\"q\"x\r\n"} {
+		s, err := readOne(t, "q.csv", in, Options{})
+		if err != nil || len(s.Rejects) != 1 || s.Rejects[0].Reason != ReasonBadQuoting || s.Rejects[0].Line != 3 {
+			t.Errorf("%q: %v %+v", in, err, s)
+		}
+	}
+	for _, in := range []string{"id,narrative\n1,ok\n2,\"open", "id,narrative\n1,ok\n2,\"open\r\n", "id,narrative\r\n1,\"open\r\nmore\r\n"} {
+		if _, err := readOne(t, "q.csv", in, Options{}); !errors.Is(err, ErrUnclosedQuote) {
+			t.Errorf("%q: %v", in, err)
+		}
+	}
+}
+
 func TestCROnlyLines(t *testing.T) {
 	s, err := readOne(t, "mac.csv", "id,narrative\r1,one\r2,two\r", Options{})
 	if err != nil || len(s.Records) != 2 || s.Records[1].Line != 3 {
