@@ -327,6 +327,11 @@ func chooseColumns(file string, header []string, rows []rowRef, xlsx bool, opt *
 				best = c
 			}
 		}
+		if best < 0 && len(rows) == 0 {
+			// Every row was rejected while parsing; nothing to choose from.
+			notes = append(notes, "narrative column: none chosen, no row could be parsed")
+			return
+		}
 		if best < 0 {
 			err = &PosError{File: file, Err: fmt.Errorf("%w: every column is empty; columns are: %s", ErrNoNarrative, quoteList(header))}
 			return

@@ -233,6 +233,19 @@ func TestQuoteErrorOnLastLine(t *testing.T) {
 	}
 }
 
+func TestPreamble(t *testing.T) {
+	in := "Millbrook Police Department - incident export\nGenerated 1/5/2024, 10:00\n\nid,date,narrative\n" +
+		"1,1/1/2024,a\n2,1/2/2024,b\n3,1/3/2024,c\n4,1/4/2024,d\n5,1/5/2024,\"e, with comma\"\n"
+	s, err := readOne(t, "p.csv", in, Options{})
+	if err != nil || len(s.Records) != 5 || s.Records[0].Line != 5 || !strings.Contains(s.Notes[0], "header is on line 4") {
+		t.Fatalf("%v %+v", err, s)
+	}
+	// Explicit: SkipLines -1 takes line 1 as the header.
+	if s, err = readOne(t, "p.csv", in, Options{SkipLines: -1}); err != nil || len(s.Records) != 0 {
+		t.Errorf("SkipLines -1: %v %s", err, s.Summary())
+	}
+}
+
 func TestCROnlyLines(t *testing.T) {
 	s, err := readOne(t, "mac.csv", "id,narrative\r1,one\r2,two\r", Options{})
 	if err != nil || len(s.Records) != 2 || s.Records[1].Line != 3 {
