@@ -283,6 +283,12 @@ func TestAutoColumns(t *testing.T) {
 	if err != nil || s.TextNames[0] != "b" || s.IDName != "" || !strings.HasSuffix(s.Records[0].ID, "b.csv:2") {
 		t.Errorf("fallbacks: %v %q %q %q", err, s.TextNames, s.IDName, s.Records[0].ID)
 	}
+	// A far longer free-text column beats a short narrative-like header.
+	long := strings.Repeat("Officer arrived and spoke with the reporting party at length. ", 5)
+	s, _ = readOne(t, "l.csv", "id,Call Description,Log\n1,NOISE COMPLAINT,"+long+"\n2,ALARM,"+long+"\n", Options{})
+	if s.TextNames[0] != "Log" {
+		t.Errorf("chose %q; notes %q", s.TextNames, s.Notes)
+	}
 	// Several narrative columns are joined by a blank line.
 	s, _ = readOne(t, "c.csv", "id,n1,n2\n1,first part,second part\n2,,only second\n", Options{Text: []string{"n1", "n2"}})
 	if got := texts(s); !reflect.DeepEqual(got, []string{"first part\n\nsecond part", "only second"}) {
