@@ -95,6 +95,8 @@ func TestRFC4180HeaderRule3(t *testing.T) {
 	}
 }
 
+// TestDelimiters: the separators named in the brief; the ", " case copies the shape of
+// shared/corpora/safenet (SOURCES.md: header and fields separated by ", ").
 func TestDelimiters(t *testing.T) {
 	tests := []struct{ name, in, want string }{
 		{"a.csv", "id,narrative\n1,one\n2,two\n", ","},
@@ -115,6 +117,10 @@ func TestDelimiters(t *testing.T) {
 	}
 }
 
+// TestBadInputs: issue 2's bad-input list (binary files, empty and header-only files, an
+// unclosed quote); the zip magic PK\x03\x04 is from the ZIP format's APPNOTE (local file
+// header signature) and D0 CF 11 E0 A1 B1 1A E1 is the OLE2 compound-file signature
+// used by .xls (both from memory).
 func TestBadInputs(t *testing.T) {
 	tests := []struct {
 		name, in string
@@ -142,6 +148,8 @@ func TestBadInputs(t *testing.T) {
 	}
 }
 
+// TestRowRejects: one row per reason code of issue 2 item 5; expected values worked by
+// hand from the documented rules (first failing check gives the reason).
 func TestRowRejects(t *testing.T) {
 	in := "id,date,narrative\n" +
 		"1,2020-01-05,first\n" +
@@ -296,6 +304,7 @@ func TestAutoColumns(t *testing.T) {
 	}
 }
 
+// TestGarbageDates: issue 2, "a date column that is mostly garbage".
 func TestGarbageDates(t *testing.T) {
 	in := "id,date,narrative\n1,2020-01-05,a\n2,??,b\n3,N/A,c\n4,tbd,d\n5,soon,e\n"
 	s, err := readOne(t, "g.csv", in, Options{Date: "date"})
@@ -319,6 +328,8 @@ func TestGarbageDates(t *testing.T) {
 	}
 }
 
+// TestDayFirstColumn: the day-first rule of the brief (a first field > 12 in some row,
+// none with a second field > 12); 25/12/2020 can only be 25 December.
 func TestDayFirstColumn(t *testing.T) {
 	in := "id,date,narrative\n1,03/04/2020,a\n2,25/12/2020,b\n"
 	s, err := readOne(t, "d.csv", in, Options{})
@@ -335,6 +346,9 @@ func TestDayFirstColumn(t *testing.T) {
 	}
 }
 
+// TestEncodings: byte-order marks EF BB BF, FF FE, FE FF are those of the Unicode
+// Standard's byte order mark table (from memory); Windows-1252 byte values from Microsoft's
+// published code page table (from memory): E9 é, 96 en dash, 93/94 curly quotes.
 func TestEncodings(t *testing.T) {
 	const text = "id,narrative\n1,caf\u00e9 \u2013 \u201cquoted\u201d\n"
 	utf16 := func(be bool) []byte {
@@ -400,6 +414,8 @@ func TestEncodings(t *testing.T) {
 	}
 }
 
+// TestJSON: JSON Lines (jsonlines.org: one JSON value per line, UTF-8) and RFC 8259
+// arrays of objects; the scalar-to-text rules are ours (package documentation).
 func TestJSON(t *testing.T) {
 	arr := `[
   {"id": 1, "narrative": "first", "nested": {"a": [1, 2]}, "flag": true},
@@ -472,6 +488,9 @@ func TestSeveralFiles(t *testing.T) {
 	}
 }
 
+// TestXLSX builds a workbook with excelize itself (the reference library of the brief)
+// and reads it back; serial 43835.6041666667 is 2020-01-05 14:30 by the 1900 date system
+// (see TestExcelSerial).
 func TestXLSX(t *testing.T) {
 	f := excelize.NewFile()
 	f.SetSheetRow("Sheet1", "A1", &[]any{"Incident No", "Occurred", "Synopsis", "Zone"})
