@@ -9,6 +9,7 @@ import (
 	"reflect"
 	"strings"
 	"testing"
+	"time"
 
 	"github.com/xuri/excelize/v2"
 )
@@ -497,6 +498,7 @@ func TestXLSX(t *testing.T) {
 	f.SetSheetRow("Sheet1", "A2", &[]any{"A-1", 43835.6041666667, "Caller reported a loose dog on Maple Row.", "East"})
 	f.SetSheetRow("Sheet1", "A4", &[]any{"A-2", 43836, "Alarm at the Quarry Lane library, all clear.", "West"})
 	f.SetSheetRow("Sheet1", "A5", &[]any{"A-3", 43837, "Too many cells", "West", "spill"})
+	f.SetSheetRow("Sheet1", "A6", &[]any{"A-4", time.Date(2020, 1, 8, 9, 15, 0, 0, time.UTC), "A date-typed cell.", "East"})
 	f.NewSheet("Other")
 	f.SetSheetRow("Other", "A1", &[]any{"id", "text"})
 	f.SetSheetRow("Other", "A2", &[]any{"9", "from the other sheet"})
@@ -510,11 +512,14 @@ func TestXLSX(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if s.Files[0].Format != "xlsx" || s.DateName != "Occurred" || s.IDName != "Incident No" || len(s.Records) != 2 {
+	if s.Files[0].Format != "xlsx" || s.DateName != "Occurred" || s.IDName != "Incident No" || len(s.Records) != 3 {
 		t.Fatalf("%+v %s %q", s.Files, s.Summary(), s.Notes)
 	}
 	if got := s.Records[0].Date.Format("2006-01-02 15:04"); got != "2020-01-05 14:30" || s.Records[1].Line != 4 {
 		t.Errorf("date %s line %d", got, s.Records[1].Line)
+	}
+	if got := s.Records[2].Date.Format("2006-01-02 15:04"); got != "2020-01-08 09:15" {
+		t.Errorf("date-typed cell read as %s", got)
 	}
 	if s.Rejects[0].Reason != ReasonRaggedRow || s.Rejects[0].Line != 5 {
 		t.Errorf("rejects %+v", s.Rejects)
