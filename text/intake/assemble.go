@@ -56,12 +56,21 @@ func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
 			rows = append(rows, rowRef{file: file, fi: fi, line: r.line, f: f})
 		}
 	}
-	// Pre-rejects carry their file index through the order of tabs; remember it.
+	// fileIndex orders rejects by the file's place on the command line.
 	fileIndex := map[string]int{}
-	for fi, t := range tabs {
-		if _, ok := fileIndex[t.info.Path]; !ok {
-			fileIndex[t.info.Path] = fi
+	note := func(file string, fi int) {
+		if _, ok := fileIndex[file]; !ok {
+			fileIndex[file] = fi
 		}
+	}
+	for fi, t := range tabs {
+		note(t.info.Path, fi)
+		for _, rj := range t.rejects {
+			note(rj.File, fi)
+		}
+	}
+	for _, r := range rows {
+		note(r.file, r.fi)
 	}
 	if err := ctx.Err(); err != nil {
 		return nil, err
@@ -291,7 +300,7 @@ func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
 	}
 	sort.SliceStable(s.Rejects, func(i, j int) bool {
 		a, b := s.Rejects[i], s.Rejects[j]
-		fa, fb := fileIndex[tabOf(a.File, tabs)], fileIndex[tabOf(b.File, tabs)]
+		fa, fb := fileIndex[a.File], fileIndex[b.File]
 		if fa != fb {
 			return fa < fb
 		}
@@ -304,21 +313,6 @@ func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
 		return nil, errors.New("intake: internal error: rows kept plus rejected differ from rows read")
 	}
 	return s, nil
-}
-
-// tabOf maps a row's file to its table's path (rows of a .txt folder name their file).
-func tabOf(file string, tabs []*table) string {
-	for _, t := range tabs {
-		if t.info.Path == file {
-			return file
-		}
-	}
-	for _, t := range tabs {
-		if t.info.Format == "txt" && strings.HasPrefix(file, t.info.Path) {
-			return t.info.Path
-		}
-	}
-	return file
 }
 
 // align checks that t has the columns of t0. It returns nil when they are in the same

@@ -327,6 +327,26 @@ func chooseColumns(file string, header []string, rows []rowRef, xlsx bool, opt *
 				best = c
 			}
 		}
+		if len(hinted) > 0 {
+			// A far longer column beats a short narrative-like one ("Call Description"
+			// of a few words beside a free-text log): 3 times the mean and 200 characters.
+			long := -1
+			for c := range header {
+				if !used[c] && !hintText(header[c]) && (long < 0 || stats[c].meanRunes > stats[long].meanRunes) {
+					long = c
+				}
+			}
+			if long >= 0 && stats[long].meanRunes >= 200 && stats[long].meanRunes > 3*stats[best].meanRunes {
+				why = fmt.Sprintf("its mean text is over 3 times that of the narrative-like %q", header[best])
+				pool = append(pool, long)
+				best = long
+			}
+		}
+		if best < 0 && len(rows) == 0 {
+			// Every row was rejected while parsing; nothing to choose from.
+			notes = append(notes, "narrative column: none chosen, no row could be parsed")
+			return
+		}
 		if best < 0 {
 			err = &PosError{File: file, Err: fmt.Errorf("%w: every column is empty; columns are: %s", ErrNoNarrative, quoteList(header))}
 			return

@@ -11,71 +11,101 @@ import (
 	"unicode/utf8"
 )
 
-// sniffDelimiter chooses the field separator from the first lines of decoded text.
+// sniffDelimiter chooses the field separator from the first records of decoded text.
 // For each candidate (',', '\t', ';', '|', in that order of preference) it counts the
-// candidate outside double quotes on each of the first 50 records; the winner is the
-// candidate found on the header line whose count matches the header's on the most
-// lines (ties: the larger header count, then the order above). spaced reports the
-// ", " separator: a comma winner where every separator of the header line is followed
-// by a space (the safenet exports).
-func sniffDelimiter(sample []byte) (delim rune, spaced bool) {
+// candidate outside double quotes on each of the first 50 records (a record may span
+// lines inside quotes) and takes the mode of the counts. The winner has a mode > 0 and
+// the most records at its mode (ties: the larger mode, then the order above).
+//
+// skip is the number of physical lines before the header: a preamble such as a report
+// title. Leading records are a preamble when each has fewer separators than the mode,
+// they are fewer than 20, and of the records after them at least 5 and at least 80%
+// sit at the mode.
+//
+// spaced reports the ", " separator: a comma winner where every separator of the
+// header line is followed by a space (the safenet exports).
+func sniffDelimiter(sample []byte) (delim rune, spaced bool, skip int) {
 	cands := []byte{',', '\t', ';', '|'}
-	var counts [][4]int
-	var spaceAfter, seps int
-	var cur [4]int
+	type rec struct {
+		n          [4]int
+		line       int // physical line (0-based) where the record starts
+		spaceAfter int // commas followed by a space
+	}
+	var recs []rec
+	cur := rec{}
+	line := 0
 	inQ := false
-	for i := 0; i < len(sample) && len(counts) < 50; i++ {
+	for i := 0; i < len(sample) && len(recs) < 50; i++ {
 		c := sample[i]
 		switch {
 		case c == '"':
 			inQ = !inQ
-		case inQ:
 		case c == '\n':
-			counts = append(counts, cur)
-			cur = [4]int{}
+			line++
+			if !inQ {
+				recs = append(recs, cur)
+				cur = rec{line: line}
+			}
+		case inQ:
 		default:
 			for k, d := range cands {
 				if c == d {
-					cur[k]++
-					if len(counts) == 0 && k == 0 {
-						seps++
-						if i+1 < len(sample) && sample[i+1] == ' ' {
-							spaceAfter++
-						}
+					cur.n[k]++
+					if k == 0 && i+1 < len(sample) && sample[i+1] == ' ' {
+						cur.spaceAfter++
 					}
 				}
 			}
 		}
 	}
-	if len(counts) < 50 && cur != ([4]int{}) {
-		counts = append(counts, cur)
+	if len(recs) < 50 && cur.n != ([4]int{}) {
+		recs = append(recs, cur)
 	}
-	if len(counts) == 0 {
-		return ',', false
+	if len(recs) == 0 {
+		return ',', false, 0
 	}
-	best, bestScore, bestN := -1, -1, 0
+	best, bestScore, bestMode := -1, -1, 0
 	for k := range cands {
-		n := counts[0][k]
-		if n == 0 {
-			continue
+		freq := map[int]int{}
+		for _, r := range recs {
+			freq[r.n[k]]++
 		}
-		score := 0
-		for _, row := range counts {
-			if row[k] == n {
-				score++
+		mode, score := 0, 0
+		for n, f := range freq {
+			if n > 0 && (f > score || (f == score && n > mode)) {
+				mode, score = n, f
 			}
 		}
-		if score > bestScore || (score == bestScore && n > bestN) {
-			best, bestScore, bestN = k, score, n
+		if mode == 0 {
+			continue
+		}
+		if score > bestScore || (score == bestScore && mode > bestMode) {
+			best, bestScore, bestMode = k, score, mode
 		}
 	}
 	if best < 0 {
-		return ',', false
+		return ',', false, 0
 	}
-	if best == 0 && seps > 0 && spaceAfter == seps {
-		return ',', true
+	h := 0
+	for h < len(recs) && h < 20 && recs[h].n[best] < bestMode {
+		h++
 	}
-	return rune(cands[best]), false
+	if h > 0 {
+		at := 0
+		for _, r := range recs[h:] {
+			if r.n[best] == bestMode {
+				at++
+			}
+		}
+		if h == len(recs) || h == 20 || at < 5 || 5*at < 4*len(recs[h:]) {
+			h = 0
+		}
+	}
+	hdr := recs[h]
+	if best == 0 && hdr.n[0] > 0 && hdr.spaceAfter == hdr.n[0] {
+		return ',', true, hdr.line
+	}
+	return rune(cands[best]), false, hdr.line
 }
 
 func delimName(d rune, spaced bool) string {
@@ -90,13 +120,19 @@ func delimName(d rune, spaced bool) string {
 // the header's is rejected as a ragged row; a row with bad quoting is rejected with the
 // parser's line and column; a quoted field that never closes is an error, since the
 // rest of the file was swallowed by it.
-func readCSV(ctx context.Context, name string, br *bufio.Reader, peek []byte, ext string, dec decision, opt *Options) (*table, error) {
+func readCSV(ctx context.Context, name string, br *bufio.Reader, peek []byte, ext string, dec decision, tail *tailTracker, opt *Options) (*table, error) {
 	delim, spaced := opt.Delimiter, false
-	if delim == ',' {
-		_, spaced = sniffDelimiter(peek)
+	sniffed, sp, skip := sniffDelimiter(peek)
+	if opt.SkipLines > 0 {
+		skip = opt.SkipLines
+	} else if opt.SkipLines < 0 || (delim != 0 && delim != sniffed) {
+		skip = 0
+	}
+	if delim == ',' && sniffed == ',' {
+		spaced = sp
 	}
 	if delim == 0 {
-		delim, spaced = sniffDelimiter(peek)
+		delim, spaced = sniffed, sp
 		if hdr, _, _ := strings.Cut(string(peek[:min(len(peek), 4096)]), "\n"); ext == ".tsv" && strings.Contains(hdr, "\t") {
 			delim, spaced = '\t', false
 		}
@@ -104,6 +140,16 @@ func readCSV(ctx context.Context, name string, br *bufio.Reader, peek []byte, ex
 	t := &table{info: FileInfo{Path: name, Format: "csv", Delimiter: delimName(delim, spaced)}}
 	if delim == '\t' {
 		t.info.Format = "tsv"
+	}
+	var preamble []string
+	for i := 0; i < skip; i++ {
+		l, err := br.ReadString('\n')
+		if l != "" {
+			preamble = append(preamble, fmt.Sprintf("%q", clip(strings.TrimRight(l, "\r\n"), 60)))
+		}
+		if err != nil {
+			break
+		}
 	}
 	cr := csv.NewReader(br)
 	cr.Comma = delim
@@ -116,9 +162,13 @@ func readCSV(ctx context.Context, name string, br *bufio.Reader, peek []byte, ex
 		return nil, &PosError{File: name, Err: ErrEmpty}
 	}
 	if err != nil {
-		return nil, csvErr(name, err, cr)
+		return nil, csvErr(name, err, skip)
 	}
 	t.header, t.notes = uniqueHeader(name, hdr)
+	if skip > 0 {
+		t.notes = append([]string{fmt.Sprintf("%s: the header is on line %d; the %s before it were skipped: %s", name, skip+1,
+			count(skip, "line", "lines"), strings.Join(preamble, ", "))}, t.notes...)
+	}
 	if spaced {
 		t.notes = append(t.notes, fmt.Sprintf("%s: fields separated by \", \" (comma and space); leading spaces of fields are dropped", name))
 	}
@@ -138,19 +188,20 @@ func readCSV(ctx context.Context, name string, br *bufio.Reader, peek []byte, ex
 			if !errors.As(err, &pe) {
 				return nil, &PosError{File: name, Err: err}
 			}
-			if _, err2 := br.Peek(1); err2 == io.EOF && errors.Is(err, csv.ErrQuote) {
-				return nil, &PosError{File: name, Line: pe.Line, Column: pe.Column,
-					Err: fmt.Errorf("%w: the quoted field of the record starting at line %d never closes", ErrUnclosedQuote, pe.StartLine)}
+			if _, err2 := br.Peek(1); err2 == io.EOF && errors.Is(err, csv.ErrQuote) && pe.Column > tail.lastLine() {
+				return nil, &PosError{File: name, Line: pe.Line + skip, Column: pe.Column,
+					Err: fmt.Errorf("%w: the quoted field of the record starting at line %d never closes", ErrUnclosedQuote, pe.StartLine+skip)}
 			}
-			d := fmt.Sprintf("%d:%d: %v", pe.Line, pe.Column, pe.Err)
+			d := fmt.Sprintf("%d:%d: %v", pe.Line+skip, pe.Column, pe.Err)
 			if pe.Line != pe.StartLine {
-				d = fmt.Sprintf("record on lines %d-%d, at %s", pe.StartLine, pe.Line, d)
+				d = fmt.Sprintf("record on lines %d-%d, at %s", pe.StartLine+skip, pe.Line+skip, d)
 			}
-			t.rejects = append(t.rejects, Reject{File: name, Line: pe.StartLine, Reason: ReasonBadQuoting, Detail: d})
+			t.rejects = append(t.rejects, Reject{File: name, Line: pe.StartLine + skip, Reason: ReasonBadQuoting, Detail: d})
 			quoting++
 			continue
 		}
 		line, _ := cr.FieldPos(0)
+		line += skip
 		if dec.sanitize {
 			if bad := invalidField(rec); bad >= 0 && opt.RejectBadEncoding {
 				if t.rejFields == nil {
@@ -195,16 +246,16 @@ func readCSV(ctx context.Context, name string, br *bufio.Reader, peek []byte, ex
 		t.notes = append(t.notes, fmt.Sprintf("%s: %d lines hold only spaces; not counted as rows", name, blank))
 	}
 	if t.read() == 0 {
-		return nil, &PosError{File: name, Line: 1, Err: ErrHeaderOnly}
+		return nil, &PosError{File: name, Line: skip + 1, Err: ErrHeaderOnly}
 	}
 	t.info.Rows = t.read()
 	return t, nil
 }
 
-func csvErr(name string, err error, cr *csv.Reader) error {
+func csvErr(name string, err error, skip int) error {
 	var pe *csv.ParseError
 	if errors.As(err, &pe) {
-		return &PosError{File: name, Line: pe.Line, Column: pe.Column, Err: pe.Err}
+		return &PosError{File: name, Line: pe.Line + skip, Column: pe.Column, Err: pe.Err}
 	}
 	return &PosError{File: name, Err: err}
 }

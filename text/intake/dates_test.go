@@ -1,6 +1,9 @@
 package intake
 
 import (
+	"encoding/json"
+	"os"
+	"path/filepath"
 	"testing"
 	"time"
 )
@@ -95,7 +98,8 @@ func TestParseDateBad(t *testing.T) {
 
 func TestExcelSerial(t *testing.T) {
 	// Microsoft's documentation of the 1900 date system ("Date systems in Excel"): serial 1
-	// is January 1, 1900, and January 1, 2008 is serial 39448 (from memory). Its note on
+	// is January 1, 1900, and January 1, 2008 is serial 39448 (from memory; openpyxl agrees,
+	// see TestDatesAgainstReferences). Its note on
 	// the 1900 leap-year bug: serial 60 is the nonexistent February 29, 1900, so serial 61
 	// is March 1, 1900.
 	tests := []struct {
@@ -182,4 +186,50 @@ func FuzzParseDate(f *testing.F) {
 		}
 		_, _ = parseDate(s, order, true, testNow)
 	})
+}
+
+// TestDatesAgainstReferences compares ParseDate with python3-dateutil's parser and the
+// Excel serial conversion with python3-openpyxl's from_excel, through the fixture
+// testdata/dates_ref.json written by testdata/gen_dates.py.
+func TestDatesAgainstReferences(t *testing.T) {
+	b, err := os.ReadFile(filepath.Join("testdata", "dates_ref.json"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var ref struct {
+		Dateutil [][4]any
+		Openpyxl [][2]string
+	}
+	if err := json.Unmarshal(b, &ref); err != nil {
+		t.Fatal(err)
+	}
+	const layout = "2006-01-02T15:04:05.000000"
+	for _, e := range ref.Dateutil {
+		in, dayFirst, want := e[0].(string), e[1].(bool), e[2].(string)
+		order := MonthFirst
+		if dayFirst {
+			order = DayFirst
+		}
+		got, err := ParseDate(in, order, testNow)
+		if err != nil {
+			t.Errorf("dateutil reads %q as %s; we fail: %v", in, want, err)
+			continue
+		}
+		if got.Format(layout) != want {
+			t.Errorf("%q: %s, dateutil %s", in, got.Format(layout), want)
+		}
+		_, off := got.Zone()
+		if e[3] != nil && float64(off) != e[3].(float64) {
+			t.Errorf("%q: offset %d, dateutil %v", in, off, e[3])
+		}
+	}
+	for _, e := range ref.Openpyxl {
+		got, err := excelSerial(e[0])
+		if err != nil || got.Format(layout) != e[1] {
+			t.Errorf("serial %s: %s %v, openpyxl %s", e[0], got.Format(layout), err, e[1])
+		}
+	}
+	if len(ref.Dateutil) < 30 || len(ref.Openpyxl) < 10 {
+		t.Fatal("fixture too short")
+	}
 }

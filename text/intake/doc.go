@@ -22,7 +22,10 @@
 //     element or line that is not an object is rejected ("bad json");
 //   - anything else is delimited text. The delimiter is sniffed among ',' tab ';' '|',
 //     plus ", " (comma and space, as in the safenet exports; encoding/csv's
-//     TrimLeadingSpace then drops leading blanks of fields). Quoting is RFC 4180 through
+//     TrimLeadingSpace then drops leading blanks of fields). A preamble before the
+//     header (a report title, a generation date) is detected and skipped with a note
+//     (Options.SkipLines overrides); line numbers stay those of the file. Lines ending
+//     in a bare CR are read as lines. Quoting is RFC 4180 through
 //     encoding/csv with LazyQuotes off unless Options.LazyQuotes. Fields of any size
 //     (tested with 50 MB) are read. Lines holding only blanks are skipped and counted in
 //     a note (encoding/csv skips empty lines alike); empty fields after the header's

@@ -38,6 +38,10 @@ type Options struct {
 	Sheet string
 	// Delimiter of CSV files; 0 sniffs among ',' ';' '\t' '|' (and ", ").
 	Delimiter rune
+	// SkipLines is the number of lines before a CSV file's header (a report title, a
+	// generation date); 0 detects such a preamble (see the package documentation), -1
+	// means none.
+	SkipLines int
 	// KeepLast keeps the last row of a duplicated id instead of the first.
 	KeepLast bool
 	// RequireDate rejects rows with an empty date ("missing date"); by default they are

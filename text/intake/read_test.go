@@ -9,6 +9,7 @@ import (
 	"reflect"
 	"strings"
 	"testing"
+	"time"
 
 	"github.com/xuri/excelize/v2"
 )
@@ -95,6 +96,8 @@ func TestRFC4180HeaderRule3(t *testing.T) {
 	}
 }
 
+// TestDelimiters: the separators named in the brief; the ", " case copies the shape of
+// shared/corpora/safenet (SOURCES.md: header and fields separated by ", ").
 func TestDelimiters(t *testing.T) {
 	tests := []struct{ name, in, want string }{
 		{"a.csv", "id,narrative\n1,one\n2,two\n", ","},
@@ -115,6 +118,10 @@ func TestDelimiters(t *testing.T) {
 	}
 }
 
+// TestBadInputs: issue 2's bad-input list (binary files, empty and header-only files, an
+// unclosed quote); the zip magic PK\x03\x04 is from the ZIP format's APPNOTE (local file
+// header signature) and D0 CF 11 E0 A1 B1 1A E1 is the OLE2 compound-file signature
+// used by .xls (both from memory).
 func TestBadInputs(t *testing.T) {
 	tests := []struct {
 		name, in string
@@ -142,6 +149,8 @@ func TestBadInputs(t *testing.T) {
 	}
 }
 
+// TestRowRejects: one row per reason code of issue 2 item 5; expected values worked by
+// hand from the documented rules (first failing check gives the reason).
 func TestRowRejects(t *testing.T) {
 	in := "id,date,narrative\n" +
 		"1,2020-01-05,first\n" +
@@ -217,6 +226,35 @@ func TestTrailingDelimiter(t *testing.T) {
 	}
 }
 
+func TestQuoteErrorOnLastLine(t *testing.T) {
+	// A closed quote followed by text on the last line is bad quoting, not an unclosed
+	// quote, with or without a final line end.
+	for _, in := range []string{"id,narrative\n1,ok\n2,\"q\"x", "id,narrative\n1,ok\n2,\"q\"x\r\n"} {
+		s, err := readOne(t, "q.csv", in, Options{})
+		if err != nil || len(s.Rejects) != 1 || s.Rejects[0].Reason != ReasonBadQuoting || s.Rejects[0].Line != 3 {
+			t.Errorf("%q: %v %+v", in, err, s)
+		}
+	}
+	for _, in := range []string{"id,narrative\n1,ok\n2,\"open", "id,narrative\n1,ok\n2,\"open\r\n", "id,narrative\r\n1,\"open\r\nmore\r\n"} {
+		if _, err := readOne(t, "q.csv", in, Options{}); !errors.Is(err, ErrUnclosedQuote) {
+			t.Errorf("%q: %v", in, err)
+		}
+	}
+}
+
+func TestPreamble(t *testing.T) {
+	in := "Millbrook Police Department - incident export\nGenerated 1/5/2024, 10:00\n\nid,date,narrative\n" +
+		"1,1/1/2024,a\n2,1/2/2024,b\n3,1/3/2024,c\n4,1/4/2024,d\n5,1/5/2024,\"e, with comma\"\n"
+	s, err := readOne(t, "p.csv", in, Options{})
+	if err != nil || len(s.Records) != 5 || s.Records[0].Line != 5 || !strings.Contains(s.Notes[0], "header is on line 4") {
+		t.Fatalf("%v %+v", err, s)
+	}
+	// Explicit: SkipLines -1 takes line 1 as the header.
+	if s, err = readOne(t, "p.csv", in, Options{SkipLines: -1}); err != nil || len(s.Records) != 0 {
+		t.Errorf("SkipLines -1: %v %s", err, s.Summary())
+	}
+}
+
 func TestCROnlyLines(t *testing.T) {
 	s, err := readOne(t, "mac.csv", "id,narrative\r1,one\r2,two\r", Options{})
 	if err != nil || len(s.Records) != 2 || s.Records[1].Line != 3 {
@@ -254,6 +292,12 @@ func TestAutoColumns(t *testing.T) {
 	if err != nil || s.TextNames[0] != "b" || s.IDName != "" || !strings.HasSuffix(s.Records[0].ID, "b.csv:2") {
 		t.Errorf("fallbacks: %v %q %q %q", err, s.TextNames, s.IDName, s.Records[0].ID)
 	}
+	// A far longer free-text column beats a short narrative-like header.
+	long := strings.Repeat("Officer arrived and spoke with the reporting party at length. ", 5)
+	s, _ = readOne(t, "l.csv", "id,Call Description,Log\n1,NOISE COMPLAINT,"+long+"\n2,ALARM,"+long+"\n", Options{})
+	if s.TextNames[0] != "Log" {
+		t.Errorf("chose %q; notes %q", s.TextNames, s.Notes)
+	}
 	// Several narrative columns are joined by a blank line.
 	s, _ = readOne(t, "c.csv", "id,n1,n2\n1,first part,second part\n2,,only second\n", Options{Text: []string{"n1", "n2"}})
 	if got := texts(s); !reflect.DeepEqual(got, []string{"first part\n\nsecond part", "only second"}) {
@@ -261,6 +305,7 @@ func TestAutoColumns(t *testing.T) {
 	}
 }
 
+// TestGarbageDates: issue 2, "a date column that is mostly garbage".
 func TestGarbageDates(t *testing.T) {
 	in := "id,date,narrative\n1,2020-01-05,a\n2,??,b\n3,N/A,c\n4,tbd,d\n5,soon,e\n"
 	s, err := readOne(t, "g.csv", in, Options{Date: "date"})
@@ -284,6 +329,8 @@ func TestGarbageDates(t *testing.T) {
 	}
 }
 
+// TestDayFirstColumn: the day-first rule of the brief (a first field > 12 in some row,
+// none with a second field > 12); 25/12/2020 can only be 25 December.
 func TestDayFirstColumn(t *testing.T) {
 	in := "id,date,narrative\n1,03/04/2020,a\n2,25/12/2020,b\n"
 	s, err := readOne(t, "d.csv", in, Options{})
@@ -300,6 +347,9 @@ func TestDayFirstColumn(t *testing.T) {
 	}
 }
 
+// TestEncodings: byte-order marks EF BB BF, FF FE, FE FF are those of the Unicode
+// Standard's byte order mark table (from memory); Windows-1252 byte values from Microsoft's
+// published code page table (from memory): E9 é, 96 en dash, 93/94 curly quotes.
 func TestEncodings(t *testing.T) {
 	const text = "id,narrative\n1,caf\u00e9 \u2013 \u201cquoted\u201d\n"
 	utf16 := func(be bool) []byte {
@@ -365,6 +415,8 @@ func TestEncodings(t *testing.T) {
 	}
 }
 
+// TestJSON: JSON Lines (jsonlines.org: one JSON value per line, UTF-8) and RFC 8259
+// arrays of objects; the scalar-to-text rules are ours (package documentation).
 func TestJSON(t *testing.T) {
 	arr := `[
   {"id": 1, "narrative": "first", "nested": {"a": [1, 2]}, "flag": true},
@@ -437,12 +489,16 @@ func TestSeveralFiles(t *testing.T) {
 	}
 }
 
+// TestXLSX builds a workbook with excelize itself (the reference library of the brief)
+// and reads it back; serial 43835.6041666667 is 2020-01-05 14:30 by the 1900 date system
+// (see TestExcelSerial).
 func TestXLSX(t *testing.T) {
 	f := excelize.NewFile()
 	f.SetSheetRow("Sheet1", "A1", &[]any{"Incident No", "Occurred", "Synopsis", "Zone"})
 	f.SetSheetRow("Sheet1", "A2", &[]any{"A-1", 43835.6041666667, "Caller reported a loose dog on Maple Row.", "East"})
 	f.SetSheetRow("Sheet1", "A4", &[]any{"A-2", 43836, "Alarm at the Quarry Lane library, all clear.", "West"})
 	f.SetSheetRow("Sheet1", "A5", &[]any{"A-3", 43837, "Too many cells", "West", "spill"})
+	f.SetSheetRow("Sheet1", "A6", &[]any{"A-4", time.Date(2020, 1, 8, 9, 15, 0, 0, time.UTC), "A date-typed cell.", "East"})
 	f.NewSheet("Other")
 	f.SetSheetRow("Other", "A1", &[]any{"id", "text"})
 	f.SetSheetRow("Other", "A2", &[]any{"9", "from the other sheet"})
@@ -456,11 +512,14 @@ func TestXLSX(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if s.Files[0].Format != "xlsx" || s.DateName != "Occurred" || s.IDName != "Incident No" || len(s.Records) != 2 {
+	if s.Files[0].Format != "xlsx" || s.DateName != "Occurred" || s.IDName != "Incident No" || len(s.Records) != 3 {
 		t.Fatalf("%+v %s %q", s.Files, s.Summary(), s.Notes)
 	}
 	if got := s.Records[0].Date.Format("2006-01-02 15:04"); got != "2020-01-05 14:30" || s.Records[1].Line != 4 {
 		t.Errorf("date %s line %d", got, s.Records[1].Line)
+	}
+	if got := s.Records[2].Date.Format("2006-01-02 15:04"); got != "2020-01-08 09:15" {
+		t.Errorf("date-typed cell read as %s", got)
 	}
 	if s.Rejects[0].Reason != ReasonRaggedRow || s.Rejects[0].Line != 5 {
 		t.Errorf("rejects %+v", s.Rejects)

@@ -62,7 +62,8 @@ func readSource(ctx context.Context, name string, r io.ReaderAt, size int64, opt
 	if err != nil {
 		return nil, err
 	}
-	br := bufio.NewReaderSize(decodedReader(r, size, dec), 64<<10)
+	tail := &tailTracker{r: decodedReader(r, size, dec)}
+	br := bufio.NewReaderSize(tail, 64<<10)
 	peek, _ := br.Peek(64 << 10)
 	if len(peek) < 64<<10 && len(bytes.TrimSpace(peek)) == 0 {
 		return nil, &PosError{File: name, Err: ErrEmpty}
@@ -84,7 +85,7 @@ func readSource(ctx context.Context, name string, r io.ReaderAt, size int64, opt
 		array := first == '[' || !json.Valid(bytes.TrimSpace(line))
 		t, err = readJSON(ctx, name, br, array, dec, opt)
 	} else {
-		t, err = readCSV(ctx, name, br, peek, ext, dec, opt)
+		t, err = readCSV(ctx, name, br, peek, ext, dec, tail, opt)
 	}
 	if err != nil {
 		return nil, err
@@ -144,4 +145,40 @@ func (c crReader) Read(p []byte) (int, error) {
 		}
 	}
 	return n, err
+}
+
+// tailTracker passes bytes through and keeps the byte length of the last line seen
+// (CR, LF and CRLF end lines), so that an error at the end of a file can tell a quote
+// that never closed (its column lies past the end of the last line) from other quoting
+// errors on the last line.
+type tailTracker struct {
+	r             io.Reader
+	cur, prev     int
+	sawCR, anyEOL bool
+}
+
+func (t *tailTracker) Read(p []byte) (int, error) {
+	n, err := t.r.Read(p)
+	for _, b := range p[:n] {
+		switch {
+		case b == '\r':
+			t.prev, t.cur, t.sawCR = t.cur, 0, true
+		case b == '\n' && t.sawCR:
+			t.sawCR = false
+		case b == '\n':
+			t.prev, t.cur = t.cur, 0
+		default:
+			t.sawCR = false
+			t.cur++
+		}
+	}
+	return n, err
+}
+
+// lastLine is the length of the file's last line, without its line end.
+func (t *tailTracker) lastLine() int {
+	if t.cur > 0 {
+		return t.cur
+	}
+	return t.prev
 }
