@@ -135,6 +135,7 @@ var syn = map[string][]string{
 	"days":      {"two weeks", "ten days", "a month", "several weeks", "three days", "over a week"},
 	"dur":       {"ten minutes", "about an hour", "twenty minutes", "most of the night", "several hours", "a few minutes", "two days"},
 	"nfa":       {"No further action.", "^NFA.", "Nothing further.", "No further action taken.", "No report needed."},
+	"code":      {"Code 4.", "10-8.", "Code 4, 10-8.", "10-98, back in service.", "Returned to service, 10-8."},
 	"cleared":   {"Cleared.", "Cleared, no report.", "Call cleared.", "Unit cleared.", "Cleared the call."},
 	"goa":       {"^GOA", "gone on arrival", "^GOA", "gone prior to arrival"},
 	"utl":       {"^UTL", "unable to locate", "^UTL"},
