@@ -7,6 +7,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"maps"
 	"os"
 	"path/filepath"
 	"sort"
@@ -149,6 +150,10 @@ func Themes(cfg Config) []ThemeInfo {
 	}
 	return out
 }
+
+// Abbreviations returns a copy of the table of abbreviations the corpus writes (lower
+// case, no trailing period) and their expansions; Abbrev.Expansion comes from it.
+func Abbreviations() map[string]string { return maps.Clone(abbrevs) }
 
 // MonthCounts returns the number of narratives in each month for cfg.
 func MonthCounts(cfg Config) []int { return monthCounts(cfg.resolved()) }

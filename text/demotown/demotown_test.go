@@ -7,6 +7,7 @@ import (
 	"encoding/csv"
 	"encoding/hex"
 	"encoding/json"
+	"errors"
 	"flag"
 	"io"
 	"math"
@@ -610,6 +611,35 @@ func TestVocabularyShared(t *testing.T) {
 				}
 			}
 		}
+	}
+}
+
+type failWriter struct{ after int }
+
+func (w *failWriter) Write(p []byte) (int, error) {
+	if w.after -= len(p); w.after < 0 {
+		return 0, errors.New("disk full")
+	}
+	return len(p), nil
+}
+
+func TestStreamErrors(t *testing.T) {
+	cfg := Config{N: 5000}
+	if err := Stream(&failWriter{after: 100000}, io.Discard, cfg); err == nil || !strings.Contains(err.Error(), "disk full") {
+		t.Errorf("failing CSV writer: %v", err)
+	}
+	if err := Stream(io.Discard, &failWriter{after: 100000}, cfg); err == nil || !strings.Contains(err.Error(), "disk full") {
+		t.Errorf("failing truth writer: %v", err)
+	}
+	file := filepath.Join(t.TempDir(), "file")
+	if err := os.WriteFile(file, nil, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if err := StreamDir(filepath.Join(file, "sub"), Config{N: 10}); err == nil || !strings.Contains(err.Error(), file) {
+		t.Errorf("directory under a file: %v", err)
+	}
+	if a := Abbreviations(); a["veh"] != "vehicle" || a["goa"] != "gone on arrival" {
+		t.Errorf("Abbreviations: %v", a)
 	}
 }
 
