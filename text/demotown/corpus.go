@@ -29,7 +29,7 @@ type Incident struct {
 // ReportedLayout is the time layout of the reported column (M/D/YYYY h:mm AM/PM).
 const ReportedLayout = "1/2/2006 3:04 PM"
 
-// Header is the header row of incidents.csv.
+// Header is the header row of incidents.csv (read only).
 var Header = []string{"incident_id", "reported", "district", "call_type", "narrative", "officer_unit"}
 
 // ThemeShare says how many of a narrative's sentences came from a theme.

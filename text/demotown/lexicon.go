@@ -8,7 +8,7 @@ package demotown
 // TownName is the invented town the corpus describes.
 const TownName = "Quillmere"
 
-// Districts are the invented patrol districts, in the order ThemeInfo.District indexes.
+// Districts are the invented patrol districts (read only).
 var Districts = []string{"Lantern Hill", "Millrace", "Cobble Flats", "Eastwater", "Sorrel Park"}
 
 // street is an invented street: a name and its USPS Publication 28 standard suffix
@@ -53,10 +53,10 @@ var (
 		"Ashwick", "Brenholt", "Carrowby", "Dellacort", "Emberlin", "Farrowgate", "Gillmoth",
 		"Hasselby", "Iverholt", "Jorvane", "Kettleby", "Larrowin", "Mossford", "Nettlecomb",
 		"Orrendale", "Pellowin", "Quarrison", "Rushcombe", "Stallowin", "Tamberlee",
-		"Umberlin", "Vantrell", "Wickerham", "Yarnell", "Zobrecht", "Abernoll", "Blackwither",
+		"Umberlin", "Vantrell", "Wickerham", "Yarnholt", "Zobrecht", "Abernoll", "Blackwither",
 		"Cassingale", "Drumberly", "Eskerwood", "Fallowmere", "Grendahl", "Hollifax",
-		"Ingleby-Rourke", "Jessamont", "Kilderry", "Lomaxton", "Merriwold", "Nockwell",
-		"Osterhagen", "Pruitfield", "Quintover", "Rosgarde", "Sellbourne", "Thackwell",
+		"Ingleby-Rourke", "Jessamont", "Kildarrow", "Lomaxton", "Merriwold", "Nockwell",
+		"Osterhagen", "Pruitfield", "Quintover", "Rosgarde", "Sellbourne", "Thackmoor",
 		"Underhay", "Vollmering", "Westerhold", "Yelverstone", "Zandervoort", "Alcantero",
 		"Benavidro", "Castrejon", "Dominguel", "Escalvo", "Fuentaral", "Gallardino",
 		"Herrezuela", "Okonkwele", "Nwachurin", "Tranhoven", "Nguyenberg", "Kowalczar",
