@@ -323,9 +323,14 @@ var (
 	blockRE = regexp.MustCompile(`^\d+00 block of [A-Z0-9][A-Za-z0-9]* (?:St|Ave|Rd|Ln|Ct|Blvd|Dr|Way|Pl|Ter|Cir|Pkwy)$`)
 )
 
-// TestPIIForms checks every planted value's form: phones only in 555-0100..555-0199 (the
-// NANP numbers reserved for fiction, common practice), SSNs in the issuable format, e-mail
-// only at RFC 2606 example domains, names only from the invented lists.
+// TestPIIForms checks every planted value's form against the outside rule it must follow:
+//   - phones only in 555-0100..555-0199, the NANP line numbers reserved for fictional use
+//     (NANPA; common practice, from memory);
+//   - SSNs outside the never-issued area 000, 666 and 900-999, group 00 and serial 0000
+//     (the Social Security Administration's rules; common practice, from memory);
+//   - e-mail only at the example domains reserved by RFC 2606;
+//   - street suffixes from USPS Publication 28's standard abbreviations;
+//   - names only from the invented lists.
 func TestPIIForms(t *testing.T) {
 	listed := map[string]bool{}
 	for _, l := range [][]string{MaleFirstNames, FemaleFirstNames, Surnames} {
