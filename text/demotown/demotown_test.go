@@ -786,3 +786,29 @@ func TestGolden(t *testing.T) {
 		t.Fatalf("output digest %s, want %s: the generator's output changed", got, goldenDigest)
 	}
 }
+
+// FuzzGenerate checks, for any seed and settings, that every recorded span indexes its
+// text and that undoing the noise and HTML events gives the clean corpus.
+func FuzzGenerate(f *testing.F) {
+	f.Add(uint64(0), uint8(20), uint8(3), uint8(10), uint8(4), uint8(60))
+	f.Add(uint64(99), uint8(200), uint8(36), uint8(100), uint8(100), uint8(100))
+	f.Add(uint64(1<<63), uint8(1), uint8(1), uint8(0), uint8(0), uint8(0))
+	f.Fuzz(func(t *testing.T, seed uint64, n, months, noise, html, pii uint8) {
+		pct := func(v uint8) float64 { return float64(v%101) / 100 }
+		cfg := Config{Seed: seed, N: 1 + int(n), Months: 1 + int(months%60), NoiseRate: pct(noise), HTMLRate: pct(html), PIIRate: pct(pii), TypoRate: pct(noise)}
+		c := Generate(cfg)
+		cfg.NoiseRate, cfg.HTMLRate, cfg.TypoRate = -1, -1, -1
+		clean := Generate(cfg)
+		for i, tr := range c.Truth {
+			s := c.Incidents[i].Narrative
+			for _, p := range tr.PII {
+				if p.Start < 0 || p.End > len(s) || s[p.Start:p.End] != p.Text {
+					t.Fatalf("%s: PII %+v does not index %q", tr.ID, p, s)
+				}
+			}
+			if got := tr.Restore(s); got != clean.Incidents[i].Narrative {
+				t.Fatalf("%s: restored %q, want %q", tr.ID, got, clean.Incidents[i].Narrative)
+			}
+		}
+	})
+}
