@@ -255,7 +255,7 @@ func TestReadTruth(t *testing.T) {
 	}
 }
 
-// VIN check digits: an independent table-driven implementation of 49 CFR 565.15 (values
+// VIN check digits: an independent table-driven implementation of 49 CFR Part 565 (values
 // and weights written from memory; common practice) and the commonly cited worked example
 // 1M8GDM9AXKP042788, whose check digit is X (from memory; common practice).
 func refCheckDigit(vin string) byte {
