@@ -256,8 +256,8 @@ func TestReadTruth(t *testing.T) {
 }
 
 // VIN check digits: an independent table-driven implementation of 49 CFR Part 565 (values
-// and weights written from memory; common practice) and the commonly cited worked example
-// 1M8GDM9AXKP042788, whose check digit is X (from memory; common practice).
+// and weights written from memory, then checked against the Wikibooks page cited below;
+// common practice) and the published worked examples.
 func refCheckDigit(vin string) byte {
 	val := map[byte]int{
 		'A': 1, 'B': 2, 'C': 3, 'D': 4, 'E': 5, 'F': 6, 'G': 7, 'H': 8,
@@ -283,7 +283,12 @@ func TestVINCheckDigit(t *testing.T) {
 		vin  string
 		want byte
 	}{
-		{"1M8GDM9AXKP042788", 'X'}, // the commonly cited worked example (from memory)
+		// The commonly cited worked example (Wikibooks, "Vehicle Identification Numbers
+		// (VIN codes)/Check digit": products sum to 351, 351 mod 11 = 10, so X).
+		{"1M8GDM9AXKP042788", 'X'},
+		// A second published example (scientificgems.wordpress.com, 2018, "Mathematics
+		// in action: vehicle identification numbers": sum 186, 186 mod 11 = 10).
+		{"LJCPCBLCX11000237", 'X'},
 		{"11111111111111111", '1'}, // all ones: 89 mod 11 = 1
 		{"1M8GDM9A", 0},            // too short
 		{"1M8GDM9AXKP04278O", 0},   // letter O is not in the VIN alphabet

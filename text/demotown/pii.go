@@ -27,8 +27,8 @@ const (
 //	A=1 B=2 C=3 D=4 E=5 F=6 G=7 H=8   J=1 K=2 L=3 M=4 N=5 P=7 R=9
 //	S=2 T=3 U=4 V=5 W=6 X=7 Y=8 Z=9   (I, O and Q are never used)
 //
-// (written from memory; common practice, it is the table every VIN decoder prints; the
-// section number within Part 565 is not checked here).
+// (written from memory and checked against the table of Wikibooks' "Vehicle Identification
+// Numbers (VIN codes)/Check digit"; common practice).
 func vinValue(c byte) int {
 	switch {
 	case c >= '0' && c <= '9':
