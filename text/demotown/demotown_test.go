@@ -417,8 +417,15 @@ func TestPIIForms(t *testing.T) {
 // standard errors.
 func TestRates(t *testing.T) {
 	c := defaultCorpus
-	var noisy, typo, html, pii, nonRoutine, mixed, agree int
-	for _, tr := range c.Truth {
+	var noisy, typo, html, pii, nonRoutine, mixed, agree, favoured int
+	fav := map[string]string{}
+	for _, th := range c.Themes {
+		fav[th.Name] = th.District
+	}
+	for i, tr := range c.Truth {
+		if c.Incidents[i].District == fav[tr.Theme] {
+			favoured++
+		}
 		ocr, mis := false, false
 		for _, z := range tr.Noise {
 			if z.Kind == Misspelling {
@@ -460,6 +467,7 @@ func TestRates(t *testing.T) {
 		{"misspellings", float64(typo), n, DefaultTypoRate},
 		{"pii", float64(pii), nr, DefaultPIIRate},
 		{"call type agrees", float64(agree), n, 0.65},
+		{"favoured district", float64(favoured), n, 0.6},
 		{"mixed", float64(mixed), nr, DefaultMixRate},
 	} {
 		se := math.Sqrt(tc.p * (1 - tc.p) / tc.n)
