@@ -708,6 +708,7 @@ func BenchmarkGenerate6k(b *testing.B) {
 
 func BenchmarkStream6k(b *testing.B)   { benchmarkStream(b, 6000) }
 func BenchmarkStream100k(b *testing.B) { benchmarkStream(b, 100000) }
+func BenchmarkStream1M(b *testing.B)   { benchmarkStream(b, 1000000) }
 
 // TestEdgeConfigs runs unusual settings: fewer narratives than months, one month, a start
 // in mid-month, every rate off or at 1.
