@@ -7,6 +7,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"maps"
 	"os"
 	"path/filepath"
 	"sort"
@@ -28,7 +29,7 @@ type Incident struct {
 // ReportedLayout is the time layout of the reported column (M/D/YYYY h:mm AM/PM).
 const ReportedLayout = "1/2/2006 3:04 PM"
 
-// Header is the header row of incidents.csv.
+// Header is the header row of incidents.csv (read only).
 var Header = []string{"incident_id", "reported", "district", "call_type", "narrative", "officer_unit"}
 
 // ThemeShare says how many of a narrative's sentences came from a theme.
@@ -149,6 +150,10 @@ func Themes(cfg Config) []ThemeInfo {
 	}
 	return out
 }
+
+// Abbreviations returns a copy of the table of abbreviations the corpus writes (lower
+// case, no trailing period) and their expansions; Abbrev.Expansion comes from it.
+func Abbreviations() map[string]string { return maps.Clone(abbrevs) }
 
 // MonthCounts returns the number of narratives in each month for cfg.
 func MonthCounts(cfg Config) []int { return monthCounts(cfg.resolved()) }

@@ -7,6 +7,7 @@ import (
 	"encoding/csv"
 	"encoding/hex"
 	"encoding/json"
+	"errors"
 	"flag"
 	"io"
 	"math"
@@ -254,9 +255,9 @@ func TestReadTruth(t *testing.T) {
 	}
 }
 
-// VIN check digits: an independent table-driven implementation of 49 CFR 565.15 (values
-// and weights written from memory; common practice) and the commonly cited worked example
-// 1M8GDM9AXKP042788, whose check digit is X (from memory; common practice).
+// VIN check digits: an independent table-driven implementation of 49 CFR Part 565 (values
+// and weights written from memory, then checked against the Wikibooks page cited below;
+// common practice) and the published worked examples.
 func refCheckDigit(vin string) byte {
 	val := map[byte]int{
 		'A': 1, 'B': 2, 'C': 3, 'D': 4, 'E': 5, 'F': 6, 'G': 7, 'H': 8,
@@ -282,7 +283,12 @@ func TestVINCheckDigit(t *testing.T) {
 		vin  string
 		want byte
 	}{
-		{"1M8GDM9AXKP042788", 'X'}, // the commonly cited worked example (from memory)
+		// The commonly cited worked example (Wikibooks, "Vehicle Identification Numbers
+		// (VIN codes)/Check digit": products sum to 351, 351 mod 11 = 10, so X).
+		{"1M8GDM9AXKP042788", 'X'},
+		// A second published example (scientificgems.wordpress.com, 2018, "Mathematics
+		// in action: vehicle identification numbers": sum 186, 186 mod 11 = 10).
+		{"LJCPCBLCX11000237", 'X'},
 		{"11111111111111111", '1'}, // all ones: 89 mod 11 = 1
 		{"1M8GDM9A", 0},            // too short
 		{"1M8GDM9AXKP04278O", 0},   // letter O is not in the VIN alphabet
@@ -322,9 +328,14 @@ var (
 	blockRE = regexp.MustCompile(`^\d+00 block of [A-Z0-9][A-Za-z0-9]* (?:St|Ave|Rd|Ln|Ct|Blvd|Dr|Way|Pl|Ter|Cir|Pkwy)$`)
 )
 
-// TestPIIForms checks every planted value's form: phones only in 555-0100..555-0199 (the
-// NANP numbers reserved for fiction, common practice), SSNs in the issuable format, e-mail
-// only at RFC 2606 example domains, names only from the invented lists.
+// TestPIIForms checks every planted value's form against the outside rule it must follow:
+//   - phones only in 555-0100..555-0199, the NANP line numbers reserved for fictional use
+//     (NANPA; common practice, from memory);
+//   - SSNs outside the never-issued area 000, 666 and 900-999, group 00 and serial 0000
+//     (the Social Security Administration's rules; common practice, from memory);
+//   - e-mail only at the example domains reserved by RFC 2606;
+//   - street suffixes from USPS Publication 28's standard abbreviations;
+//   - names only from the invented lists.
 func TestPIIForms(t *testing.T) {
 	listed := map[string]bool{}
 	for _, l := range [][]string{MaleFirstNames, FemaleFirstNames, Surnames} {
@@ -406,8 +417,15 @@ func TestPIIForms(t *testing.T) {
 // standard errors.
 func TestRates(t *testing.T) {
 	c := defaultCorpus
-	var noisy, typo, html, pii, nonRoutine, mixed, agree int
-	for _, tr := range c.Truth {
+	var noisy, typo, html, pii, nonRoutine, mixed, agree, favoured int
+	fav := map[string]string{}
+	for _, th := range c.Themes {
+		fav[th.Name] = th.District
+	}
+	for i, tr := range c.Truth {
+		if c.Incidents[i].District == fav[tr.Theme] {
+			favoured++
+		}
 		ocr, mis := false, false
 		for _, z := range tr.Noise {
 			if z.Kind == Misspelling {
@@ -449,6 +467,7 @@ func TestRates(t *testing.T) {
 		{"misspellings", float64(typo), n, DefaultTypoRate},
 		{"pii", float64(pii), nr, DefaultPIIRate},
 		{"call type agrees", float64(agree), n, 0.65},
+		{"favoured district", float64(favoured), n, 0.6},
 		{"mixed", float64(mixed), nr, DefaultMixRate},
 	} {
 		se := math.Sqrt(tc.p * (1 - tc.p) / tc.n)
@@ -613,6 +632,35 @@ func TestVocabularyShared(t *testing.T) {
 	}
 }
 
+type failWriter struct{ after int }
+
+func (w *failWriter) Write(p []byte) (int, error) {
+	if w.after -= len(p); w.after < 0 {
+		return 0, errors.New("disk full")
+	}
+	return len(p), nil
+}
+
+func TestStreamErrors(t *testing.T) {
+	cfg := Config{N: 5000}
+	if err := Stream(&failWriter{after: 100000}, io.Discard, cfg); err == nil || !strings.Contains(err.Error(), "disk full") {
+		t.Errorf("failing CSV writer: %v", err)
+	}
+	if err := Stream(io.Discard, &failWriter{after: 100000}, cfg); err == nil || !strings.Contains(err.Error(), "disk full") {
+		t.Errorf("failing truth writer: %v", err)
+	}
+	file := filepath.Join(t.TempDir(), "file")
+	if err := os.WriteFile(file, nil, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if err := StreamDir(filepath.Join(file, "sub"), Config{N: 10}); err == nil || !strings.Contains(err.Error(), file) {
+		t.Errorf("directory under a file: %v", err)
+	}
+	if a := Abbreviations(); a["veh"] != "vehicle" || a["goa"] != "gone on arrival" {
+		t.Errorf("Abbreviations: %v", a)
+	}
+}
+
 func TestStreamLarge(t *testing.T) {
 	if testing.Short() {
 		t.Skip("short")
@@ -660,6 +708,7 @@ func BenchmarkGenerate6k(b *testing.B) {
 
 func BenchmarkStream6k(b *testing.B)   { benchmarkStream(b, 6000) }
 func BenchmarkStream100k(b *testing.B) { benchmarkStream(b, 100000) }
+func BenchmarkStream1M(b *testing.B)   { benchmarkStream(b, 1000000) }
 
 // TestEdgeConfigs runs unusual settings: fewer narratives than months, one month, a start
 // in mid-month, every rate off or at 1.
@@ -733,7 +782,7 @@ var update = flag.Bool("update", false, "print the new golden digest")
 // for goldenConfig. It pins the output
 // across platforms and Go releases; any intended change of the generator changes it (run
 // go test -run Golden -update and paste the new value).
-const goldenDigest = "6c6e2d4479df2f924b142c2f5f6b0f98c2b7cca39e730d6d62b79682f62aa32a"
+const goldenDigest = "9b98f211966c03aab9d546210929213bb0852182467949f520ac8b7d13de8490"
 
 var goldenConfig = Config{Seed: 2026, N: 3000, HTMLRate: 0.2, NoiseRate: 0.3, TypoRate: 0.2}
 
@@ -750,4 +799,30 @@ func TestGolden(t *testing.T) {
 	if got != goldenDigest {
 		t.Fatalf("output digest %s, want %s: the generator's output changed", got, goldenDigest)
 	}
+}
+
+// FuzzGenerate checks, for any seed and settings, that every recorded span indexes its
+// text and that undoing the noise and HTML events gives the clean corpus.
+func FuzzGenerate(f *testing.F) {
+	f.Add(uint64(0), uint8(20), uint8(3), uint8(10), uint8(4), uint8(60))
+	f.Add(uint64(99), uint8(200), uint8(36), uint8(100), uint8(100), uint8(100))
+	f.Add(uint64(1<<63), uint8(1), uint8(1), uint8(0), uint8(0), uint8(0))
+	f.Fuzz(func(t *testing.T, seed uint64, n, months, noise, html, pii uint8) {
+		pct := func(v uint8) float64 { return float64(v%101) / 100 }
+		cfg := Config{Seed: seed, N: 1 + int(n), Months: 1 + int(months%60), NoiseRate: pct(noise), HTMLRate: pct(html), PIIRate: pct(pii), TypoRate: pct(noise)}
+		c := Generate(cfg)
+		cfg.NoiseRate, cfg.HTMLRate, cfg.TypoRate = -1, -1, -1
+		clean := Generate(cfg)
+		for i, tr := range c.Truth {
+			s := c.Incidents[i].Narrative
+			for _, p := range tr.PII {
+				if p.Start < 0 || p.End > len(s) || s[p.Start:p.End] != p.Text {
+					t.Fatalf("%s: PII %+v does not index %q", tr.ID, p, s)
+				}
+			}
+			if got := tr.Restore(s); got != clean.Incidents[i].Narrative {
+				t.Fatalf("%s: restored %q, want %q", tr.ID, got, clean.Incidents[i].Narrative)
+			}
+		}
+	})
 }

@@ -20,7 +20,7 @@ func ExampleGenerate() {
 	}
 	// Output:
 	// QM23-000001 1/9/2023 5:12 AM Lantern Hill | TRESPASS | trespass
-	// RP reported subjects camping behind the warehouse on Corriden Ave. A trespass notice was signed by the business owner. The subject was GOA. A lady named Anthony U. Merriwold told me she was waiting for a friend. I advised the individual of shelter options and gave her a bus pass. There was trash and a tent behind the building. Trespass warning issued.
+	// RP reported subjects camping behind the warehouse on Corriden Ave. A trespass notice was signed by the business owner. The subject was GOA. A lady named Anthony U. Merriwold told me she was waiting for a friend. I advised the individual of shelter options and gave her a bus pass. There was trash and a tent behind the building. Subject arrested for trespass.
 	//   name "Anthony U. Merriwold" at [153,173)
 	// QM23-000002 2/13/2023 1:38 PM Cobble Flats | VEHICLE STOP | mental_health_crisis
 	// On 2/13/2023 at approx 1338 hours I was dispatched to Larkmoor Market reference a suicidal subject. Counselor at the Eastwater boat launch requested help w/ a person who was threatening self harm. A vehicle was parked in front of the home w/ the engine running. The subject did not meet the criteria for an emergency hold. The individual said he had not slept in a month. Family asked for a welfare check after he stopped answering the phone. The individual was very anxious and did not want to be touched. Emergency hold placed, report to follow.

@@ -8,7 +8,7 @@ package demotown
 // TownName is the invented town the corpus describes.
 const TownName = "Quillmere"
 
-// Districts are the invented patrol districts, in the order ThemeInfo.District indexes.
+// Districts are the invented patrol districts (read only).
 var Districts = []string{"Lantern Hill", "Millrace", "Cobble Flats", "Eastwater", "Sorrel Park"}
 
 // street is an invented street: a name and its USPS Publication 28 standard suffix
@@ -53,10 +53,10 @@ var (
 		"Ashwick", "Brenholt", "Carrowby", "Dellacort", "Emberlin", "Farrowgate", "Gillmoth",
 		"Hasselby", "Iverholt", "Jorvane", "Kettleby", "Larrowin", "Mossford", "Nettlecomb",
 		"Orrendale", "Pellowin", "Quarrison", "Rushcombe", "Stallowin", "Tamberlee",
-		"Umberlin", "Vantrell", "Wickerham", "Yarnell", "Zobrecht", "Abernoll", "Blackwither",
+		"Umberlin", "Vantrell", "Wickerham", "Yarnholt", "Zobrecht", "Abernoll", "Blackwither",
 		"Cassingale", "Drumberly", "Eskerwood", "Fallowmere", "Grendahl", "Hollifax",
-		"Ingleby-Rourke", "Jessamont", "Kilderry", "Lomaxton", "Merriwold", "Nockwell",
-		"Osterhagen", "Pruitfield", "Quintover", "Rosgarde", "Sellbourne", "Thackwell",
+		"Ingleby-Rourke", "Jessamont", "Kildarrow", "Lomaxton", "Merriwold", "Nockwell",
+		"Osterhagen", "Pruitfield", "Quintover", "Rosgarde", "Sellbourne", "Thackmoor",
 		"Underhay", "Vollmering", "Westerhold", "Yelverstone", "Zandervoort", "Alcantero",
 		"Benavidro", "Castrejon", "Dominguel", "Escalvo", "Fuentaral", "Gallardino",
 		"Herrezuela", "Okonkwele", "Nwachurin", "Tranhoven", "Nguyenberg", "Kowalczar",
@@ -135,6 +135,7 @@ var syn = map[string][]string{
 	"days":      {"two weeks", "ten days", "a month", "several weeks", "three days", "over a week"},
 	"dur":       {"ten minutes", "about an hour", "twenty minutes", "most of the night", "several hours", "a few minutes", "two days"},
 	"nfa":       {"No further action.", "^NFA.", "Nothing further.", "No further action taken.", "No report needed."},
+	"code":      {"Code 4.", "10-8.", "Code 4, 10-8.", "10-98, back in service.", "Returned to service, 10-8."},
 	"cleared":   {"Cleared.", "Cleared, no report.", "Call cleared.", "Unit cleared.", "Cleared the call."},
 	"goa":       {"^GOA", "gone on arrival", "^GOA", "gone prior to arrival"},
 	"utl":       {"^UTL", "unable to locate", "^UTL"},

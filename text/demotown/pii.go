@@ -21,13 +21,14 @@ const (
 	PIISSN          = "ssn"           // NNN-NN-NNNN, area 001-665, group 01-99, serial 0001-9999
 )
 
-// vinValue is the 49 CFR 565.15 transliteration of VIN characters to values: digits are
+// vinValue is the 49 CFR Part 565 transliteration of VIN characters to values: digits are
 // themselves, and
 //
 //	A=1 B=2 C=3 D=4 E=5 F=6 G=7 H=8   J=1 K=2 L=3 M=4 N=5 P=7 R=9
 //	S=2 T=3 U=4 V=5 W=6 X=7 Y=8 Z=9   (I, O and Q are never used)
 //
-// (written from memory; common practice, it is the table every VIN decoder prints).
+// (written from memory and checked against the table of Wikibooks' "Vehicle Identification
+// Numbers (VIN codes)/Check digit"; common practice).
 func vinValue(c byte) int {
 	switch {
 	case c >= '0' && c <= '9':
@@ -46,7 +47,7 @@ func vinValue(c byte) int {
 	return -1
 }
 
-// vinWeights are the position weights of 49 CFR 565.15, positions 1 to 17; position 9 holds
+// vinWeights are the position weights of 49 CFR Part 565, positions 1 to 17; position 9 holds
 // the check digit and weighs 0.
 var vinWeights = [17]int{8, 7, 6, 5, 4, 3, 2, 10, 0, 9, 8, 7, 6, 5, 4, 3, 2}
 

@@ -102,6 +102,7 @@ var themeDefs = []themeDef{
 			"Driver cited and released at scene.",
 			"Driver {advised} to get the light fixed and released {w} a warning.",
 			"Cited for driving on a suspended license, {veh} parked and locked at the scene.",
+			"Warning issued. {code}",
 			"{veh} towed from the scene, driver given a ride to {place}.",
 		},
 	},
@@ -155,6 +156,8 @@ var themeDefs = []themeDef{
 			"No concerns at this time. {nfa}",
 			"Resident was fine, family notified.",
 			"Welfare check completed, {subj} okay.",
+			"Subject okay, {code}",
+			"Family will check on {him} daily. {nfa}",
 		},
 	},
 	{
@@ -203,6 +206,7 @@ var themeDefs = []themeDef{
 			"Warning issued for the noise ordinance.",
 			"No noise heard. {cleared}",
 			"Resident {advised}. {nfa}",
+			"Music off on departure. {code}",
 		},
 	},
 	{
@@ -245,6 +249,7 @@ var themeDefs = []themeDef{
 			"Building secure. {cleared}",
 			"Alarm reset by the keyholder.",
 			"All secure, no sign of entry. {nfa}",
+			"Keyholder secured the building. {code}",
 			"Possible burglary, report to follow under case #{CASE}.",
 		},
 	},
@@ -290,6 +295,7 @@ var themeDefs = []themeDef{
 			"{utl} the animal. {cleared}",
 			"Warning issued to the owner.",
 			"Report forwarded to animal control.",
+			"Owner located and {advised}. {code}",
 		},
 	},
 	{
@@ -338,6 +344,7 @@ var themeDefs = []themeDef{
 			"Victim {advised} to call if {he} finds more items missing.",
 			"Case number {CASE} given to the {vic}.",
 			"Report taken for theft from a {veh}.",
+			"Report taken, no workable leads. {code}",
 		},
 	},
 	{
@@ -388,6 +395,7 @@ var themeDefs = []themeDef{
 			"Report taken under case #{CASE}.",
 			"Both parties {advised}, no crime committed. {cleared}",
 			"Victim was given a victim rights pamphlet.",
+			"Parties separated for the night. {code}",
 		},
 	},
 	{
@@ -435,6 +443,7 @@ var themeDefs = []themeDef{
 			"{crisis} will follow up tomorrow.",
 			"Emergency hold placed, report to follow.",
 			"Subject declined services. {cleared}",
+			"Left with the clinician. {code}",
 		},
 	},
 	{
@@ -475,6 +484,7 @@ var themeDefs = []themeDef{
 			"Tagged for 72 hours.",
 			"{veh} towed.",
 			"Warning placed on the windshield.",
+			"Parking enforcement notified. {code}",
 		},
 	},
 	{
@@ -514,6 +524,7 @@ var themeDefs = []themeDef{
 			"Property returned to the owner.",
 			"Lost property report taken.",
 			"Item logged under case #{CASE}.",
+			"Owner notified by phone. {code}",
 		},
 	},
 	{
@@ -554,6 +565,7 @@ var themeDefs = []themeDef{
 			"Subject trespassed and left. {cleared}",
 			"Trespass warning issued.",
 			"Subject arrested for trespass.",
+			"Subject escorted off the property. {code}",
 			"{subj} left the property. {nfa}",
 		},
 	},
@@ -605,6 +617,7 @@ var themeDefs = []themeDef{
 			"{susp} transported to jail {wo} further incident.",
 			"Supervisor notified. Report to follow under case #{CASE}.",
 			"Photos of injuries taken and attached to the report.",
+			"See supplemental report. {code}",
 		},
 	},
 	{
@@ -641,6 +654,7 @@ var themeDefs = []themeDef{
 			"Riders {advised}. {nfa}",
 			"Information exchanged between the rider and the {veh} owner.",
 			"{utl} the riders. {cleared}",
+			"Scooters moved, {code}",
 		},
 	},
 	{
@@ -678,6 +692,7 @@ var themeDefs = []themeDef{
 			"{nfa}",
 			"Unfounded.",
 			"{cleared}",
+			"{code}",
 		},
 	},
 }
