@@ -274,12 +274,16 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 			}
 		}
 		ix := repair.NewIndex(targets)
-		minLen, shortLen := orInt(rs.MinLength, 5), orInt(rs.ShortLen, 8)
+		minLen, shortLen := orInt(rs.MinLength, 4), orInt(rs.ShortLen, 8)
+		ratio := rs.RareRatio
+		if ratio == 0 {
+			ratio = 50
+		}
 		maxCost, shortCost := orFloat(rs.MaxCost, 1), orFloat(rs.ShortMaxCost, 0.5)
 		var cand []int32
 		for id := 0; id < nScanned; id++ {
 			sf := surfs[id]
-			if sf.kind != Word || sf.count > rmax || user[sf.text] || lx.stop.Has(sf.text) || !lettersOnly(sf.text, true) {
+			if sf.kind != Word || sf.count >= fmin || (sf.count > rmax && ratio < 0) || user[sf.text] || lx.stop.Has(sf.text) || !lettersOnly(sf.text, true) {
 				continue
 			}
 			if _, ok := lx.abbrev.Lookup(sf.text); ok {
@@ -306,6 +310,11 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 			tgt := found[k]
 			if tgt == "" {
 				continue
+			}
+			if n := surfs[id].count; n > rmax {
+				if tid, ok := intern[tgt]; !ok || float64(surfs[tid].count) < ratio*float64(n) {
+					continue // not rare enough beside its target
+				}
 			}
 			if !s.Stem.Off && lx.stems.stem(tgt) == lx.stems.stem(surfs[id].text) {
 				continue // an inflection of the target: stemming already merges them

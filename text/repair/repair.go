@@ -6,7 +6,7 @@
 // substring edited at most once), with costs of our own choosing for OCR confusions:
 //
 //	insert, delete, substitute, transpose adjacent     1
-//	substitute a confusable pair (0/o, 1/l, 1/i, l/i, 5/s)   0.5
+//	substitute a confusable pair (0/o, 1/l, 1/i, l/i, 5/s, e/c)   0.5
 //	replace "rn" by "m", "cl" by "d", "vv" by "w" or back     0.5
 //
 // The confusion pairs are common practice for OCR of typed forms (written from memory).
@@ -26,7 +26,7 @@ func confusable(a, b rune) bool {
 		a, b = b, a
 	}
 	switch [2]rune{a, b} {
-	case [2]rune{'0', 'o'}, [2]rune{'1', 'l'}, [2]rune{'1', 'i'}, [2]rune{'i', 'l'}, [2]rune{'5', 's'}:
+	case [2]rune{'0', 'o'}, [2]rune{'1', 'l'}, [2]rune{'1', 'i'}, [2]rune{'i', 'l'}, [2]rune{'5', 's'}, [2]rune{'c', 'e'}:
 		return true
 	}
 	return false
@@ -94,7 +94,7 @@ type Index struct {
 	del     map[string][]int32
 }
 
-// canonical maps a word to its OCR-canonical form: 0→o, 1→l, i→l, 5→s, rn→m, cl→d, vv→w.
+// canonical maps a word to its OCR-canonical form: 0→o, 1→l, i→l, 5→s, e→c, rn→m, cl→d, vv→w.
 // Two words that differ only by OCR confusions have the same canonical form.
 func canonical(w string) []rune {
 	rs := []rune(w)
@@ -125,6 +125,8 @@ func canonical(w string) []rune {
 			r = 'l'
 		case '5':
 			r = 's'
+		case 'e':
+			r = 'c'
 		}
 		out = append(out, r)
 	}
