@@ -7,6 +7,7 @@ import (
 	"sort"
 	"strings"
 	"unicode"
+	"unicode/utf8"
 
 	"undercurrent/text/phrase"
 	"undercurrent/text/repair"
@@ -73,10 +74,33 @@ type Corpus struct {
 	// Expansions counts every abbreviation expanded.
 	Expansions []Expansion
 	Phrases    []PhraseInfo
+	// Common lists the terms found in at least a quarter of the narratives before pruning
+	// (most frequent first, ties by term), for suggesting stopwords: SuggestStopwords.
+	Common     []TermStat
 	Docs       int // narratives
 	Bytes      int // total raw bytes
 	Tokens     int // tokens scanned (before policies, stopwords, pruning)
 	Terms      int // content term occurrences (after stopwords, before pruning)
+}
+
+// TermStat is a term with its display form and document frequency.
+type TermStat struct {
+	Term    string `json:"term"`
+	Display string `json:"display"`
+	Docs    int    `json:"docs"`
+}
+
+// SuggestStopwords returns the display forms of the terms found in more than share of the
+// narratives (share at least 0.25, the least Build records), most frequent first. Inspecting
+// them is common practice before fitting themes: boilerplate that no list holds shows up here.
+func (c *Corpus) SuggestStopwords(share float64) []string {
+	var out []string
+	for _, t := range c.Common {
+		if float64(t.Docs) > share*float64(c.Docs) {
+			out = append(out, t.Display)
+		}
+	}
+	return out
 }
 
 // Weights returns the TF-IDF weights of the counts under the corpus's Settings.Weight, and
@@ -289,7 +313,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 			if _, ok := lx.abbrev.Lookup(sf.text); ok {
 				continue
 			}
-			if len([]rune(sf.text)) < minLen {
+			if utf8.RuneCountInString(sf.text) < minLen {
 				continue
 			}
 			cand = append(cand, int32(id))
@@ -299,7 +323,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		parallelFor(len(cand), func(_, k int) {
 			w := surfs[cand[k]].text
 			limit := maxCost
-			if len([]rune(w)) <= shortLen {
+			if utf8.RuneCountInString(w) <= shortLen {
 				limit = shortCost
 			}
 			if tgt, cost, ok := ix.Best(w, limit); ok {
@@ -608,6 +632,22 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 			}
 		}
 	}
+
+	for t, n := range df {
+		if 4*n >= len(docs) && n > 0 {
+			d := disp[t]
+			if d == "" {
+				d = stemStr[t]
+			}
+			c.Common = append(c.Common, TermStat{stemStr[t], d, n})
+		}
+	}
+	sort.Slice(c.Common, func(i, j int) bool {
+		if c.Common[i].Docs != c.Common[j].Docs {
+			return c.Common[i].Docs > c.Common[j].Docs
+		}
+		return c.Common[i].Term < c.Common[j].Term
+	})
 
 	// Vocabulary and counts.
 	keep := weight.Prune(stemStr, df, total, len(docs), s.Vocab)

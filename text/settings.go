@@ -139,7 +139,7 @@ func DefaultSettings() Settings {
 			Words:      []string{"gone", "arrival", "unable", "locate", "no", "action", "cleared", "clear", "cancelled", "canceled", "negative", "contact", "duplicate", "test"},
 			NearDup:    true,
 			MinGroup:   3,
-			Settings:   routine.Settings{Shingle: 3, Hashes: 64, Bands: 16, Threshold: 0.8, Seed: 1},
+			Settings:   routine.Settings{Shingle: 3, Hashes: 32, Bands: 8, Threshold: 0.8, Seed: 1},
 		},
 	}
 }
