@@ -76,11 +76,11 @@ type Corpus struct {
 	Phrases    []PhraseInfo
 	// Common lists the terms found in at least a quarter of the narratives before pruning
 	// (most frequent first, ties by term), for suggesting stopwords: SuggestStopwords.
-	Common     []TermStat
-	Docs       int // narratives
-	Bytes      int // total raw bytes
-	Tokens     int // tokens scanned (before policies, stopwords, pruning)
-	Terms      int // content term occurrences (after stopwords, before pruning)
+	Common []TermStat
+	Docs   int // narratives
+	Bytes  int // total raw bytes
+	Tokens int // tokens scanned (before policies, stopwords, pruning)
+	Terms  int // content term occurrences (after stopwords, before pruning)
 }
 
 // TermStat is a term with its display form and document frequency.
