@@ -167,13 +167,13 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 	stream := make([]int32, 0, nbytes/5+16)
 	docOff := make([]int, len(docs)+1)
 	type chunk struct {
-		intern map[string]int32
+		intern *internTable
 		surfs  []surface
 		stream []int32
 		off    []int
 		tokens int
 	}
-	const chunkDocs = 256
+	const chunkDocs = 1024
 	nChunks := (len(docs) + chunkDocs - 1) / chunkDocs
 	scanners := make([]scanner, workers())
 	wave := 4 * workers()
@@ -186,9 +186,9 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		parallelFor(nw, func(worker, k int) {
 			ch := &chunks[k]
 			if ch.intern == nil {
-				ch.intern = make(map[string]int32)
+				ch.intern = newInternTable(4096)
 			} else {
-				clear(ch.intern)
+				ch.intern.reset()
 			}
 			ch.surfs, ch.stream, ch.off, ch.tokens = ch.surfs[:0], ch.stream[:0], append(ch.off[:0], 0), 0
 			sc := &scanners[worker]
@@ -201,13 +201,9 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 					if t.brk && len(ch.stream) > start && ch.stream[len(ch.stream)-1] != -1 {
 						ch.stream = append(ch.stream, -1)
 					}
-					key := sc.text[t.a:t.b]
-					id, ok := ch.intern[string(key)]
-					if !ok {
-						id = int32(len(ch.surfs))
-						str := string(key)
-						ch.intern[str] = id
-						ch.surfs = append(ch.surfs, surface{str, t.kind, 0})
+					id := ch.intern.id(sc.text[t.a:t.b])
+					if int(id) == len(ch.surfs) {
+						ch.surfs = append(ch.surfs, surface{ch.intern.strs[id], t.kind, 0})
 					}
 					ch.surfs[id].count++
 					ch.stream = append(ch.stream, id)
