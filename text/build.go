@@ -7,6 +7,7 @@ import (
 	"sort"
 	"strings"
 	"unicode"
+	"unicode/utf8"
 
 	"undercurrent/text/phrase"
 	"undercurrent/text/repair"
@@ -73,10 +74,33 @@ type Corpus struct {
 	// Expansions counts every abbreviation expanded.
 	Expansions []Expansion
 	Phrases    []PhraseInfo
-	Docs       int // narratives
-	Bytes      int // total raw bytes
-	Tokens     int // tokens scanned (before policies, stopwords, pruning)
-	Terms      int // content term occurrences (after stopwords, before pruning)
+	// Common lists the terms found in at least a quarter of the narratives before pruning
+	// (most frequent first, ties by term), for suggesting stopwords: SuggestStopwords.
+	Common []TermStat
+	Docs   int // narratives
+	Bytes  int // total raw bytes
+	Tokens int // tokens scanned (before policies, stopwords, pruning)
+	Terms  int // content term occurrences (after stopwords, before pruning)
+}
+
+// TermStat is a term with its display form and document frequency.
+type TermStat struct {
+	Term    string `json:"term"`
+	Display string `json:"display"`
+	Docs    int    `json:"docs"`
+}
+
+// SuggestStopwords returns the display forms of the terms found in more than share of the
+// narratives (share at least 0.25, the least Build records), most frequent first. Inspecting
+// them is common practice before fitting themes: boilerplate that no list holds shows up here.
+func (c *Corpus) SuggestStopwords(share float64) []string {
+	var out []string
+	for _, t := range c.Common {
+		if float64(t.Docs) > share*float64(c.Docs) {
+			out = append(out, t.Display)
+		}
+	}
+	return out
 }
 
 // Weights returns the TF-IDF weights of the counts under the corpus's Settings.Weight, and
@@ -143,13 +167,13 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 	stream := make([]int32, 0, nbytes/5+16)
 	docOff := make([]int, len(docs)+1)
 	type chunk struct {
-		intern map[string]int32
+		intern *internTable
 		surfs  []surface
 		stream []int32
 		off    []int
 		tokens int
 	}
-	const chunkDocs = 256
+	const chunkDocs = 1024
 	nChunks := (len(docs) + chunkDocs - 1) / chunkDocs
 	scanners := make([]scanner, workers())
 	wave := 4 * workers()
@@ -162,9 +186,9 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		parallelFor(nw, func(worker, k int) {
 			ch := &chunks[k]
 			if ch.intern == nil {
-				ch.intern = make(map[string]int32)
+				ch.intern = newInternTable(4096)
 			} else {
-				clear(ch.intern)
+				ch.intern.reset()
 			}
 			ch.surfs, ch.stream, ch.off, ch.tokens = ch.surfs[:0], ch.stream[:0], append(ch.off[:0], 0), 0
 			sc := &scanners[worker]
@@ -177,13 +201,9 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 					if t.brk && len(ch.stream) > start && ch.stream[len(ch.stream)-1] != -1 {
 						ch.stream = append(ch.stream, -1)
 					}
-					key := sc.text[t.a:t.b]
-					id, ok := ch.intern[string(key)]
-					if !ok {
-						id = int32(len(ch.surfs))
-						str := string(key)
-						ch.intern[str] = id
-						ch.surfs = append(ch.surfs, surface{str, t.kind, 0})
+					id := ch.intern.id(sc.text[t.a:t.b])
+					if int(id) == len(ch.surfs) {
+						ch.surfs = append(ch.surfs, surface{ch.intern.strs[id], t.kind, 0})
 					}
 					ch.surfs[id].count++
 					ch.stream = append(ch.stream, id)
@@ -274,18 +294,22 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 			}
 		}
 		ix := repair.NewIndex(targets)
-		minLen, shortLen := orInt(rs.MinLength, 5), orInt(rs.ShortLen, 8)
+		minLen, shortLen := orInt(rs.MinLength, 4), orInt(rs.ShortLen, 8)
+		ratio := rs.RareRatio
+		if ratio == 0 {
+			ratio = 50
+		}
 		maxCost, shortCost := orFloat(rs.MaxCost, 1), orFloat(rs.ShortMaxCost, 0.5)
 		var cand []int32
 		for id := 0; id < nScanned; id++ {
 			sf := surfs[id]
-			if sf.kind != Word || sf.count > rmax || user[sf.text] || lx.stop.Has(sf.text) || !lettersOnly(sf.text, true) {
+			if sf.kind != Word || sf.count >= fmin || (sf.count > rmax && ratio < 0) || user[sf.text] || lx.stop.Has(sf.text) || !lettersOnly(sf.text, true) {
 				continue
 			}
 			if _, ok := lx.abbrev.Lookup(sf.text); ok {
 				continue
 			}
-			if len([]rune(sf.text)) < minLen {
+			if utf8.RuneCountInString(sf.text) < minLen {
 				continue
 			}
 			cand = append(cand, int32(id))
@@ -295,7 +319,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		parallelFor(len(cand), func(_, k int) {
 			w := surfs[cand[k]].text
 			limit := maxCost
-			if len([]rune(w)) <= shortLen {
+			if utf8.RuneCountInString(w) <= shortLen {
 				limit = shortCost
 			}
 			if tgt, cost, ok := ix.Best(w, limit); ok {
@@ -306,6 +330,11 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 			tgt := found[k]
 			if tgt == "" {
 				continue
+			}
+			if n := surfs[id].count; n > rmax {
+				if tid, ok := intern[tgt]; !ok || float64(surfs[tid].count) < ratio*float64(n) {
+					continue // not rare enough beside its target
+				}
 			}
 			if !s.Stem.Off && lx.stems.stem(tgt) == lx.stems.stem(surfs[id].text) {
 				continue // an inflection of the target: stemming already merges them
@@ -599,6 +628,22 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 			}
 		}
 	}
+
+	for t, n := range df {
+		if 4*n >= len(docs) && n > 0 {
+			d := disp[t]
+			if d == "" {
+				d = stemStr[t]
+			}
+			c.Common = append(c.Common, TermStat{stemStr[t], d, n})
+		}
+	}
+	sort.Slice(c.Common, func(i, j int) bool {
+		if c.Common[i].Docs != c.Common[j].Docs {
+			return c.Common[i].Docs > c.Common[j].Docs
+		}
+		return c.Common[i].Term < c.Common[j].Term
+	})
 
 	// Vocabulary and counts.
 	keep := weight.Prune(stemStr, df, total, len(docs), s.Vocab)

@@ -340,3 +340,26 @@ func TestBuildCancelled(t *testing.T) {
 		t.Error("cancelled build succeeded")
 	}
 }
+
+func TestSegmentsAndSuggestions(t *testing.T) {
+	docs := genCorpus(300, 11)
+	c, f := build(t, docs, DefaultSettings())
+	for _, d := range docs[:40] {
+		var b strings.Builder
+		for _, seg := range f.Segments(d, nil) {
+			b.WriteString(seg.Text)
+		}
+		if b.String() != d {
+			t.Fatalf("segments do not rebuild %q", d)
+		}
+	}
+	sug := c.SuggestStopwords(0.5)
+	if len(sug) == 0 {
+		t.Fatal("no suggestions on a templated corpus")
+	}
+	for i := 1; i < len(c.Common); i++ {
+		if c.Common[i].Docs > c.Common[i-1].Docs {
+			t.Fatal("Common not sorted")
+		}
+	}
+}

@@ -207,3 +207,34 @@ func (f *Frozen) IDF() []float64 {
 	kind := sc.IDF
 	return weight.IDFWeights(nil, f.DocFreq, f.Docs, kind)
 }
+
+// Segment is a piece of a narrative for highlighting: Text is a stretch of the original
+// narrative and Term the vocabulary id it shows (-1 for text between terms).
+type Segment struct {
+	Text string
+	Term int32
+}
+
+// Segments cuts raw into consecutive segments, one for each vocabulary term found (Transform's
+// spans) for which hit returns true (hit nil: every term), and one for the text between.
+// Overlapping spans (a phrase over its words, an abbreviation's expansions) keep the first.
+// Concatenating the segments' texts gives raw back.
+func (f *Frozen) Segments(raw string, hit func(term int32) bool) []Segment {
+	d := f.Transform(raw)
+	var out []Segment
+	pos := 0
+	for _, sp := range d.Spans {
+		if sp.Start < pos || (hit != nil && !hit(sp.Term)) {
+			continue
+		}
+		if sp.Start > pos {
+			out = append(out, Segment{raw[pos:sp.Start], -1})
+		}
+		out = append(out, Segment{raw[sp.Start:sp.End], sp.Term})
+		pos = sp.End
+	}
+	if pos < len(raw) {
+		out = append(out, Segment{raw[pos:], -1})
+	}
+	return out
+}

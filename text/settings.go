@@ -78,20 +78,25 @@ type StemSettings struct {
 // defaults given.
 type RepairSettings struct {
 	Enabled bool `json:"enabled"` // zero (false): no repair
-	// RareMax: only words seen at most this many times in the corpus are repaired; zero means 2.
+	// RareMax: words seen at most this many times in the corpus may be repaired; zero means 2.
 	RareMax int `json:"rare_max"`
+	// RareRatio: a word seen more often than RareMax (but less than FrequentMin) may be
+	// repaired when its target is seen at least RareRatio times as often (OCR repeats its
+	// mistakes); zero means 50, negative switches this rule off.
+	RareRatio float64 `json:"rare_ratio"`
 	// FrequentMin: targets (and rejoined split words) must be seen at least this many times;
 	// zero means 10.
 	FrequentMin int `json:"frequent_min"`
 	// MaxCost is the largest weighted distance accepted for words longer than ShortLen
 	// characters; zero means 1. At most 1 is useful (package repair finds no candidate
-	// further away).
+	// further away). DefaultSettings uses 0.5, one OCR confusion: on the OSHA abstracts
+	// (typed text) a limit of 1 also "corrected" real words such as overheard → overhead.
 	MaxCost float64 `json:"max_cost"`
 	// ShortMaxCost is the limit for words of at most ShortLen characters; zero means 0.5 (one
 	// OCR confusion), since a short word one plain edit from a frequent word is often a word.
 	ShortMaxCost float64 `json:"short_max_cost"`
 	ShortLen     int     `json:"short_len"` // zero means 8
-	// MinLength: shorter words are never repaired; zero means 5.
+	// MinLength: shorter words are never repaired; zero means 4.
 	MinLength int `json:"min_length"`
 	// Words are extra correct words: targets of repair and never repaired themselves.
 	Words []string `json:"words,omitempty"`
@@ -125,7 +130,7 @@ func DefaultSettings() Settings {
 		Version: SettingsVersion,
 		Tokens:  TokenSettings{Numbers: Drop, Times: Drop, Dates: Drop, Codes: Keep, MinLength: 2},
 		Stop:    StopSettings{Lists: []string{"en", "boilerplate"}},
-		Repair:  RepairSettings{Enabled: true, RareMax: 2, FrequentMin: 10, MaxCost: 1, ShortMaxCost: 0.5, ShortLen: 8, MinLength: 5},
+		Repair:  RepairSettings{Enabled: true, RareMax: 2, RareRatio: 50, FrequentMin: 10, MaxCost: 0.5, ShortMaxCost: 0.5, ShortLen: 8, MinLength: 4},
 		Phrases: PhraseSettings{Enabled: true, Settings: phrase.Settings{MinCount: 5, MinLLR: 10.83}},
 		Vocab:   weight.Pruning{MinDocs: 2, MaxDocShare: 0.95},
 		Weight:  weight.Scheme{TF: weight.TFRaw, IDF: weight.IDFSmooth, Norm: weight.NormL2},
@@ -134,7 +139,7 @@ func DefaultSettings() Settings {
 			Words:      []string{"gone", "arrival", "unable", "locate", "no", "action", "cleared", "clear", "cancelled", "canceled", "negative", "contact", "duplicate", "test"},
 			NearDup:    true,
 			MinGroup:   3,
-			Settings:   routine.Settings{Shingle: 3, Hashes: 64, Bands: 16, Threshold: 0.8, Seed: 1},
+			Settings:   routine.Settings{Shingle: 3, Hashes: 32, Bands: 8, Threshold: 0.8, Seed: 1},
 		},
 	}
 }

@@ -6,7 +6,7 @@
 // substring edited at most once), with costs of our own choosing for OCR confusions:
 //
 //	insert, delete, substitute, transpose adjacent     1
-//	substitute a confusable pair (0/o, 1/l, 1/i, l/i, 5/s)   0.5
+//	substitute a confusable pair (0/o, 1/l, 1/i, l/i, 5/s, e/c)   0.5
 //	replace "rn" by "m", "cl" by "d", "vv" by "w" or back     0.5
 //
 // The confusion pairs are common practice for OCR of typed forms (written from memory).
@@ -26,7 +26,7 @@ func confusable(a, b rune) bool {
 		a, b = b, a
 	}
 	switch [2]rune{a, b} {
-	case [2]rune{'0', 'o'}, [2]rune{'1', 'l'}, [2]rune{'1', 'i'}, [2]rune{'i', 'l'}, [2]rune{'5', 's'}:
+	case [2]rune{'0', 'o'}, [2]rune{'1', 'l'}, [2]rune{'1', 'i'}, [2]rune{'i', 'l'}, [2]rune{'5', 's'}, [2]rune{'c', 'e'}:
 		return true
 	}
 	return false
@@ -42,13 +42,13 @@ func Distance(a, b string) float64 {
 
 func distance(a, b []rune) float64 {
 	n, m := len(a), len(b)
-	d := make([][]float64, n+1)
-	for i := range d {
-		d[i] = make([]float64, m+1)
-		d[i][0] = float64(i)
+	w := m + 1
+	d := make([]float64, (n+1)*w) // d[i*w+j]: distance of a[:i] and b[:j]
+	for i := 0; i <= n; i++ {
+		d[i*w] = float64(i)
 	}
 	for j := 0; j <= m; j++ {
-		d[0][j] = float64(j)
+		d[j] = float64(j)
 	}
 	for i := 1; i <= n; i++ {
 		for j := 1; j <= m; j++ {
@@ -58,43 +58,44 @@ func distance(a, b []rune) float64 {
 			} else if confusable(a[i-1], b[j-1]) {
 				sub = 0.5
 			}
-			v := d[i-1][j-1] + sub
-			if x := d[i-1][j] + 1; x < v {
+			v := d[(i-1)*w+j-1] + sub
+			if x := d[(i-1)*w+j] + 1; x < v {
 				v = x
 			}
-			if x := d[i][j-1] + 1; x < v {
+			if x := d[i*w+j-1] + 1; x < v {
 				v = x
 			}
 			if i > 1 && j > 1 && a[i-1] == b[j-2] && a[i-2] == b[j-1] {
-				if x := d[i-2][j-2] + 1; x < v {
+				if x := d[(i-2)*w+j-2] + 1; x < v {
 					v = x
 				}
 			}
 			for _, t := range twoToOne {
 				if i > 1 && a[i-2] == t[0] && a[i-1] == t[1] && b[j-1] == t[2] {
-					if x := d[i-2][j-1] + 0.5; x < v {
+					if x := d[(i-2)*w+j-1] + 0.5; x < v {
 						v = x
 					}
 				}
 				if j > 1 && b[j-2] == t[0] && b[j-1] == t[1] && a[i-1] == t[2] {
-					if x := d[i-1][j-2] + 0.5; x < v {
+					if x := d[(i-1)*w+j-2] + 0.5; x < v {
 						v = x
 					}
 				}
 			}
-			d[i][j] = v
+			d[i*w+j] = v
 		}
 	}
-	return d[n][m]
+	return d[n*w+m]
 }
 
 // Index finds the closest target word of a query word.
 type Index struct {
 	targets []string
+	runes   [][]rune
 	del     map[string][]int32
 }
 
-// canonical maps a word to its OCR-canonical form: 0→o, 1→l, i→l, 5→s, rn→m, cl→d, vv→w.
+// canonical maps a word to its OCR-canonical form: 0→o, 1→l, i→l, 5→s, e→c, rn→m, cl→d, vv→w.
 // Two words that differ only by OCR confusions have the same canonical form.
 func canonical(w string) []rune {
 	rs := []rune(w)
@@ -125,6 +126,8 @@ func canonical(w string) []rune {
 			r = 'l'
 		case '5':
 			r = 's'
+		case 'e':
+			r = 'c'
 		}
 		out = append(out, r)
 	}
@@ -159,6 +162,7 @@ func NewIndex(targets []string) *Index {
 		seen[t] = true
 		id := int32(len(ix.targets))
 		ix.targets = append(ix.targets, t)
+		ix.runes = append(ix.runes, []rune(t))
 		keys(t, func(s string) {
 			l := ix.del[s]
 			if len(l) == 0 || l[len(l)-1] != id {
@@ -185,11 +189,11 @@ func (ix *Index) Best(w string, maxCost float64) (target string, cost float64, o
 		if k > 0 && cands[k-1] == id {
 			continue
 		}
-		t := ix.targets[id]
-		if t == w {
-			continue
+		t := ix.runes[id]
+		if d := len(t) - len(rw); d > 2 || d < -2 || ix.targets[id] == w {
+			continue // no two edits and confusions of cost <= 1 change the length more
 		}
-		c := distance(rw, []rune(t))
+		c := distance(rw, t)
 		if c < best {
 			second, best, bestID = best, c, id
 		} else if c < second {

@@ -1,0 +1,69 @@
+package text
+
+import (
+	"hash/maphash"
+	"math/bits"
+)
+
+// internTable maps token texts to dense ids, first come first numbered. It is an
+// open-addressing hash table (linear probing, power-of-two size, load at most 1/2) keyed by
+// maphash of the bytes; a lookup of a known text allocates nothing. It exists because the
+// scan loop looks up every token, and this is about twice as fast as a map[string]int32 there.
+type internTable struct {
+	seed  maphash.Seed
+	slots []islot
+	strs  []string
+}
+
+type islot struct {
+	h  uint64
+	id int32 // id+1; 0 marks an empty slot
+}
+
+func newInternTable(sizeHint int) *internTable {
+	n := 1 << bits.Len(uint(2*sizeHint+16))
+	return &internTable{seed: maphash.MakeSeed(), slots: make([]islot, n)}
+}
+
+// reset empties the table, keeping its storage.
+func (t *internTable) reset() {
+	clear(t.slots)
+	t.strs = t.strs[:0]
+}
+
+// id returns the id of b, adding a copy of it when new.
+func (t *internTable) id(b []byte) int32 {
+	h := maphash.Bytes(t.seed, b)
+	mask := uint64(len(t.slots) - 1)
+	for i := h & mask; ; i = (i + 1) & mask {
+		s := &t.slots[i]
+		if s.id == 0 {
+			id := int32(len(t.strs))
+			t.strs = append(t.strs, string(b))
+			s.h, s.id = h, id+1
+			if 2*len(t.strs) > len(t.slots) {
+				t.grow()
+			}
+			return id
+		}
+		if s.h == h && t.strs[s.id-1] == string(b) {
+			return s.id - 1
+		}
+	}
+}
+
+func (t *internTable) grow() {
+	old := t.slots
+	t.slots = make([]islot, 2*len(old))
+	mask := uint64(len(t.slots) - 1)
+	for _, s := range old {
+		if s.id == 0 {
+			continue
+		}
+		i := s.h & mask
+		for t.slots[i].id != 0 {
+			i = (i + 1) & mask
+		}
+		t.slots[i] = s
+	}
+}
