@@ -19,10 +19,13 @@ func TestCPUWard(t *testing.T) {
 		t.Skip()
 	}
 	x := dirichletRows(5000, 20, benchSeed)
-	c0 := cpuTime()
-	w0 := time.Now()
-	LinkVectors(x, nil, Ward, &Settings{Workers: 1})
-	fmt.Println("cpu", cpuTime()-c0, "wall", time.Since(w0))
+	best := time.Hour
+	for r := 0; r < 3; r++ {
+		c0 := cpuTime()
+		LinkVectors(x, nil, Ward, &Settings{Workers: 1})
+		best = min(best, cpuTime()-c0)
+	}
+	fmt.Println("cpu", best)
 }
 
 // TestKernels: the AVX2 kernels agree with the portable code bit for bit

@@ -118,10 +118,11 @@ func (s *Settings) workers() int {
 // ErrDistance is wrapped by the errors returned for an invalid distance.
 var ErrDistance = errors.New("invalid distance")
 
-// DistanceError reports a NaN, infinite or negative input value.
+// DistanceError reports a NaN, infinite or negative distance; I and J
+// are the 0-based points of the pair.
 type DistanceError struct {
-	Index int // index in the condensed matrix, or row for vector input
-	I, J  int // pair (i<j) for condensed input; J is the column for vectors
+	Index int // index in the condensed matrix
+	I, J  int // the pair, i < j
 	Value float64
 	Err   error
 }

@@ -1,6 +1,7 @@
 package cluster
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"math/bits"
@@ -8,6 +9,7 @@ import (
 )
 
 // VectorError reports a NaN or infinite coordinate or an invalid weight.
+// Row and Col are 0-based indices into the caller's rows.
 type VectorError struct {
 	Row, Col int // Col is -1 for a weight
 	Value    float64
@@ -17,10 +19,14 @@ func (e *VectorError) Error() string {
 	if e.Col < 0 {
 		return fmt.Sprintf("cluster: weight %v of row %d is not a positive finite number", e.Value, e.Row)
 	}
-	return fmt.Sprintf("cluster: %v at row %d, column %d: %v", ErrDistance, e.Row, e.Col, e.Value)
+	return fmt.Sprintf("cluster: row %d, column %d: %v is not a finite number", e.Row, e.Col, e.Value)
 }
 
-func (e *VectorError) Unwrap() error { return ErrDistance }
+// Unwrap returns ErrNotFinite.
+func (e *VectorError) Unwrap() error { return ErrNotFinite }
+
+// ErrNotFinite is wrapped by VectorError.
+var ErrNotFinite = errors.New("not a finite number")
 
 // flatten copies x into one row-major slice, checking values and weights.
 func flatten(x [][]float64, weights []float64) (flat []float64, w []float64, d int, err error) {
@@ -172,7 +178,7 @@ func parallelRanges(m, w, minPer int, f func(k, lo, hi int)) int {
 		return 1
 	}
 	var wg sync.WaitGroup
-	for k := 0; k < w; k++ {
+	for k := 1; k < w; k++ {
 		lo, hi := m*k/w, m*(k+1)/w
 		wg.Add(1)
 		go func() {
@@ -180,6 +186,7 @@ func parallelRanges(m, w, minPer int, f func(k, lo, hi int)) int {
 			f(k, lo, hi)
 		}()
 	}
+	f(0, 0, m/w)
 	wg.Wait()
 	return w
 }
@@ -240,19 +247,19 @@ func wardVectors(cent, w []float64, n, d, workers int) *Dendrogram {
 	m := n
 	z := make([]Merge, 0, n-1)
 	chain := make([]int, 0, n) // keys
+	last := -1                 // key of the cluster merged last
 	head := d
 	if d >= 12 {
 		head = 8
 	}
 	best := make([]cand, max(workers, 1))
-	search := func(px int, prevKey int, bound float64) cand {
+	// search scans every cluster for the nearest neighbour of the one at
+	// px, starting from candidate start (the previous chain element, the
+	// cluster merged last, or none), which only tightens the pruning.
+	search := func(px int, prevKey int, start cand) cand {
 		cx := cent[px*d : px*d+d]
 		used := parallelRanges(m, workers, 2048/max(1, d/8), func(k, lo, hi int) {
-			b := cand{v: bound, prev: prevKey >= 0, key: prevKey, pos: -1}
-			if prevKey >= 0 {
-				b.pos = pos[prevKey]
-			}
-			best[k] = scanWard(cent, w, key, cx, w[px], d, head, px, prevKey, lo, hi, b)
+			best[k] = scanWard(cent, w, key, cx, w[px], d, head, px, prevKey, lo, hi, start)
 		})
 		r := best[0]
 		for k := 1; k < used; k++ {
@@ -276,13 +283,17 @@ func wardVectors(cent, w []float64, n, d, workers int) *Dendrogram {
 			kx = chain[len(chain)-1]
 			px := pos[kx]
 			prev := -1
-			bound := math.Inf(1)
+			start := cand{v: math.Inf(1), key: -1, pos: -1}
 			if len(chain) > 1 {
 				prev = chain[len(chain)-2]
 				pp := pos[prev]
-				bound = wardValue(cent[px*d:px*d+d], cent[pp*d:pp*d+d], w[px], w[pp], head)
+				start = cand{v: wardValue(cent[px*d:px*d+d], cent[pp*d:pp*d+d], w[px], w[pp], head), prev: true, key: prev, pos: pp}
+			} else if last >= 0 && last != kx {
+				// The cluster merged last is often the new neighbour.
+				pl := pos[last]
+				start = cand{v: wardValue(cent[px*d:px*d+d], cent[pl*d:pl*d+d], w[px], w[pl], head), key: last, pos: pl}
 			}
-			c := search(px, prev, bound)
+			c := search(px, prev, start)
 			ky, v = c.key, c.v
 			if prev >= 0 && ky == prev {
 				break
@@ -294,6 +305,7 @@ func wardVectors(cent, w []float64, n, d, workers int) *Dendrogram {
 			kx, ky = ky, kx
 		}
 		z = append(z, Merge{A: kx, B: ky, Height: math.Sqrt(v)})
+		last = ky
 		px, py := pos[kx], pos[ky]
 		wx, wy := w[px], w[py]
 		cx, cy := cent[px*d:px*d+d], cent[py*d:py*d+d]
@@ -419,11 +431,12 @@ func genericVectors(cent, w []float64, n, d int, method Linkage, workers int) *D
 
 // scanWard returns the best Ward candidate for the cluster at position px
 // (centroid cx, weight wx) among positions [lo, hi), starting from b.
-// With head == 8 the first eight coordinates are summed first
-// (sumHead8) and the candidate is dropped when that partial value,
-// which can only grow, already exceeds the best one by a relative 1e-12
-// (far above rounding); survivors are evaluated exactly as wardValue
-// does.
+// With head == 8 the first eight coordinates of 256 rows at a time are
+// summed by ward8 (sumHead8's order; AVX2 when present) and a row is
+// dropped when that partial value, which can only grow, already exceeds
+// the best one by a relative 1e-12 (far above rounding), a branch-free
+// test that yields a bit mask; survivors are evaluated exactly as
+// wardValue does.
 func scanWard(cent, w []float64, key []int, cx []float64, wx float64, d, head, px, prevKey, lo, hi int, b cand) cand {
 	ww := 2 * wx
 	cx = cx[:d:d]
@@ -473,6 +486,7 @@ func scanWard(cent, w []float64, key []int, cx []float64, wx float64, d, head, p
 		}
 	}
 	return b
+	}
 }
 
 // sumHead8 is the partial sum of scanWard over the first eight
