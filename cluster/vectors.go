@@ -486,7 +486,6 @@ func scanWard(cent, w []float64, key []int, cx []float64, wx float64, d, head, p
 		}
 	}
 	return b
-	}
 }
 
 // sumHead8 is the partial sum of scanWard over the first eight
