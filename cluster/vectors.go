@@ -76,8 +76,8 @@ func flatten(x [][]float64, weights []float64) (flat []float64, w []float64, d i
 // distance 2·wA·wB/(wA+wB)·‖a−b‖², compared without square roots and
 // pruned by partial sums over the first coordinates); Centroid and
 // Median run the generic algorithm. Single, Complete, Average and
-// Weighted compute the condensed Euclidean matrix (n(n-1)/2 values) and
-// call Link. Distance computations are split over Settings.Workers
+// Weighted compute the condensed Euclidean matrix (n(n-1)/2 values, the
+// only copy: it is then used as Link's working matrix). Distance computations are split over Settings.Workers
 // goroutines and reduced in a fixed order with an associative tie rule,
 // so results do not depend on the number of workers.
 //
@@ -103,7 +103,7 @@ func LinkVectors(x [][]float64, weights []float64, method Linkage, s *Settings) 
 	if weights != nil {
 		panic("cluster: weights need Ward, Centroid or Median linkage")
 	}
-	return Link(EuclideanCondensed(nil, x, s), method, s)
+	return link(EuclideanCondensed(nil, x, s), method, s, true)
 }
 
 // EuclideanCondensed stores the Euclidean distances between the rows of x
