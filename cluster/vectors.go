@@ -248,8 +248,11 @@ func wardVectors(cent, w []float64, n, d, workers int) *Dendrogram {
 	z := make([]Merge, 0, n-1)
 	chain := make([]int, 0, n) // keys
 	last := -1                 // key of the cluster merged last
-	head := d
-	if d >= 12 {
+	head := d // coordinates summed before the pruning test
+	switch {
+	case d >= 16:
+		head = 12
+	case d >= 12:
 		head = 8
 	}
 	best := make([]cand, max(workers, 1))
@@ -440,7 +443,7 @@ func genericVectors(cent, w []float64, n, d int, method Linkage, workers int) *D
 func scanWard(cent, w []float64, key []int, cx []float64, wx float64, d, head, px, prevKey, lo, hi int, b cand) cand {
 	ww := 2 * wx
 	cx = cx[:d:d]
-	if head != 8 {
+	if head != 8 && head != 12 {
 		for p := lo; p < hi; p++ {
 			if p == px {
 				continue
@@ -457,13 +460,16 @@ func scanWard(cent, w []float64, key []int, cx []float64, wx float64, d, head, p
 		return b
 	}
 	lim := b.v * (1 + 1e-12)
-	q := (*[8]float64)(cx[:8])
 	var buf [256]float64
 	var mask [4]uint64
 	for blk := lo; blk < hi; blk += len(buf) {
 		end := min(hi, blk+len(buf))
 		part := buf[:end-blk]
-		ward8(q, cent[blk*d:], d, w[blk:], part, mask[:], ww, lim, lim*wx)
+		if head == 12 {
+			ward12((*[12]float64)(cx[:12]), cent[blk*d:], d, w[blk:], part, mask[:], ww, lim, lim*wx)
+		} else {
+			ward8((*[8]float64)(cx[:8]), cent[blk*d:], d, w[blk:], part, mask[:], ww, lim, lim*wx)
+		}
 		for mi, mw := range mask[:(len(part)+63)/64] {
 			for mw != 0 {
 				k := mi*64 + bits.TrailingZeros64(mw)
@@ -473,7 +479,7 @@ func scanWard(cent, w []float64, key []int, cx []float64, wx float64, d, head, p
 					continue
 				}
 				wp := w[p]
-				s := part[k] + sqdist(cx[8:], cent[p*d+8:p*d+d])
+				s := part[k] + sqdist(cx[head:], cent[p*d+head:p*d+d])
 				v := ww * wp / (wx + wp) * s
 				if v > b.v {
 					continue
@@ -499,6 +505,31 @@ func sumHead8(a, b []float64) float64 {
 		(float64(float64(t1*t1)+float64(t5*t5)) + float64(float64(t3*t3)+float64(t7*t7)))
 }
 
+// sumHead12 is the partial sum over the first twelve coordinates, in the
+// order of the AVX2 kernel:
+//
+//	u_j = (t_j² + t_{j+4}²) + t_{j+8}²,  s = (u0 + u2) + (u1 + u3)
+func sumHead12(a, b []float64) float64 {
+	var u [4]float64
+	for j := range u {
+		t0, t1, t2 := a[j]-b[j], a[j+4]-b[j+4], a[j+8]-b[j+8]
+		u[j] = float64(float64(t0*t0)+float64(t1*t1)) + float64(t2*t2)
+	}
+	return (u[0] + u[2]) + (u[1] + u[3])
+}
+
+// ward12Go is the portable ward12.
+func ward12Go(x *[12]float64, c []float64, d int, w []float64, out []float64, mask []uint64, ww, lim, limwx float64) {
+	clear(mask[:(len(out)+63)/64])
+	for k := range out {
+		s := sumHead12(x[:], c[k*d:k*d+12])
+		out[k] = s
+		if w[k]*(s*ww-lim) <= limwx {
+			mask[k/64] |= 1 << (k % 64)
+		}
+	}
+}
+
 // ward8Go is the portable ward8.
 func ward8Go(x *[8]float64, c []float64, d int, w []float64, out []float64, mask []uint64, ww, lim, limwx float64) {
 	clear(mask[:(len(out)+63)/64])
@@ -522,9 +553,12 @@ func partial8Go(x *[8]float64, c []float64, d int, out []float64) {
 // weights wa and wb, computed exactly as scanWard computes it.
 func wardValue(a, b []float64, wa, wb float64, head int) float64 {
 	var s float64
-	if head == 8 {
+	switch head {
+	case 8:
 		s = sumHead8(a, b) + sqdist(a[8:], b[8:])
-	} else {
+	case 12:
+		s = sumHead12(a, b) + sqdist(a[12:], b[12:])
+	default:
 		s = sqdist(a, b)
 	}
 	return 2 * wa * wb / (wa + wb) * s
