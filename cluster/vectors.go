@@ -248,7 +248,7 @@ func wardVectors(cent, w []float64, n, d, workers int) *Dendrogram {
 	z := make([]Merge, 0, n-1)
 	chain := make([]int, 0, n) // keys
 	last := -1                 // key of the cluster merged last
-	head := d // coordinates summed before the pruning test
+	head := d                  // coordinates summed before the pruning test
 	switch {
 	case d >= 16:
 		head = 12
