@@ -19,13 +19,17 @@ func TestCPUWard(t *testing.T) {
 		t.Skip()
 	}
 	x := dirichletRows(5000, 20, benchSeed)
-	best := time.Hour
+	defer func(v int) { headSplit = v }(headSplit)
+	best := map[int]time.Duration{20: time.Hour, 99: time.Hour}
 	for r := 0; r < 3; r++ {
-		c0 := cpuTime()
-		LinkVectors(x, nil, Ward, &Settings{Workers: 1})
-		best = min(best, cpuTime()-c0)
+		for _, hs := range []int{20, 99} {
+			headSplit = hs
+			c0 := cpuTime()
+			LinkVectors(x, nil, Ward, &Settings{Workers: 1})
+			best[hs] = min(best[hs], cpuTime()-c0)
+		}
 	}
-	fmt.Println("cpu", best)
+	fmt.Println("cpu head16", best[20], "head12", best[99])
 }
 
 // TestKernels: the AVX2 kernels agree with the portable code bit for bit
@@ -150,6 +154,32 @@ func TestKernel12(t *testing.T) {
 	for _, lim := range []float64{0.001, 0.01, 0.05, 1} {
 		ward12(q, c, 20, w, out1, m1, 6, lim, lim*3)
 		ward12Go(q, c, 20, w, out2, m2, 6, lim, lim*3)
+		for k := range out1 {
+			if out1[k] != out2[k] {
+				t.Fatalf("partial %d: %v vs %v", k, out1[k], out2[k])
+			}
+		}
+		for k := range m1 {
+			if m1[k] != m2[k] {
+				t.Fatalf("lim %v mask %d: %x vs %x", lim, k, m1[k], m2[k])
+			}
+		}
+	}
+}
+
+func TestKernel16(t *testing.T) {
+	x := dirichletRows(700, 20, 6)
+	var c, w []float64
+	for i, r := range x {
+		c = append(c, r...)
+		w = append(w, float64(1+i%7))
+	}
+	q := (*[16]float64)(x[3][:16])
+	out1, out2 := make([]float64, 700), make([]float64, 700)
+	m1, m2 := make([]uint64, 11), make([]uint64, 11)
+	for _, lim := range []float64{0.001, 0.01, 0.05, 1} {
+		ward16(q, c, 20, w, out1, m1, 6, lim, lim*3)
+		ward16Go(q, c, 20, w, out2, m2, 6, lim, lim*3)
 		for k := range out1 {
 			if out1[k] != out2[k] {
 				t.Fatalf("partial %d: %v vs %v", k, out1[k], out2[k])

@@ -250,6 +250,8 @@ func wardVectors(cent, w []float64, n, d, workers int) *Dendrogram {
 	last := -1                 // key of the cluster merged last
 	head := d                  // coordinates summed before the pruning test
 	switch {
+	case d >= headSplit:
+		head = 16
 	case d >= 16:
 		head = 12
 	case d >= 12:
@@ -443,7 +445,7 @@ func genericVectors(cent, w []float64, n, d int, method Linkage, workers int) *D
 func scanWard(cent, w []float64, key []int, cx []float64, wx float64, d, head, px, prevKey, lo, hi int, b cand) cand {
 	ww := 2 * wx
 	cx = cx[:d:d]
-	if head != 8 && head != 12 {
+	if head != 8 && head != 12 && head != 16 {
 		for p := lo; p < hi; p++ {
 			if p == px {
 				continue
@@ -465,9 +467,12 @@ func scanWard(cent, w []float64, key []int, cx []float64, wx float64, d, head, p
 	for blk := lo; blk < hi; blk += len(buf) {
 		end := min(hi, blk+len(buf))
 		part := buf[:end-blk]
-		if head == 12 {
+		switch head {
+		case 16:
+			ward16((*[16]float64)(cx[:16]), cent[blk*d:], d, w[blk:], part, mask[:], ww, lim, lim*wx)
+		case 12:
 			ward12((*[12]float64)(cx[:12]), cent[blk*d:], d, w[blk:], part, mask[:], ww, lim, lim*wx)
-		} else {
+		default:
 			ward8((*[8]float64)(cx[:8]), cent[blk*d:], d, w[blk:], part, mask[:], ww, lim, lim*wx)
 		}
 		for mi, mw := range mask[:(len(part)+63)/64] {
@@ -530,6 +535,31 @@ func ward12Go(x *[12]float64, c []float64, d int, w []float64, out []float64, ma
 	}
 }
 
+// sumHead16 is the partial sum over the first sixteen coordinates, in
+// the order of the AVX2 kernel:
+//
+//	u_j = ((t_j² + t_{j+4}²) + t_{j+8}²) + t_{j+12}²,  s = (u0 + u2) + (u1 + u3)
+func sumHead16(a, b []float64) float64 {
+	var u [4]float64
+	for j := range u {
+		t0, t1, t2, t3 := a[j]-b[j], a[j+4]-b[j+4], a[j+8]-b[j+8], a[j+12]-b[j+12]
+		u[j] = float64(float64(float64(t0*t0)+float64(t1*t1))+float64(t2*t2)) + float64(t3*t3)
+	}
+	return (u[0] + u[2]) + (u[1] + u[3])
+}
+
+// ward16Go is the portable ward16.
+func ward16Go(x *[16]float64, c []float64, d int, w []float64, out []float64, mask []uint64, ww, lim, limwx float64) {
+	clear(mask[:(len(out)+63)/64])
+	for k := range out {
+		s := sumHead16(x[:], c[k*d:k*d+16])
+		out[k] = s
+		if w[k]*(s*ww-lim) <= limwx {
+			mask[k/64] |= 1 << (k % 64)
+		}
+	}
+}
+
 // ward8Go is the portable ward8.
 func ward8Go(x *[8]float64, c []float64, d int, w []float64, out []float64, mask []uint64, ww, lim, limwx float64) {
 	clear(mask[:(len(out)+63)/64])
@@ -558,8 +588,14 @@ func wardValue(a, b []float64, wa, wb float64, head int) float64 {
 		s = sumHead8(a, b) + sqdist(a[8:], b[8:])
 	case 12:
 		s = sumHead12(a, b) + sqdist(a[12:], b[12:])
+	case 16:
+		s = sumHead16(a, b) + sqdist(a[16:], b[16:])
 	default:
 		s = sqdist(a, b)
 	}
 	return 2 * wa * wb / (wa + wb) * s
 }
+
+// headSplit is the least d for the sixteen-coordinate stage (a variable
+// for measurements).
+var headSplit = 20
