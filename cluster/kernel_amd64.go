@@ -82,6 +82,7 @@ func ward12(x *[12]float64, c []float64, d int, w []float64, out []float64, mask
 	}
 	ward12Go(x, c, d, w, out, mask, ww, lim, limwx)
 }
+
 //go:noescape
 func ward16AVX2(x *[16]float64, c *float64, d int, w *float64, out []float64, mask *uint64, ww, lim, limwx float64)
 
