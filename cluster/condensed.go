@@ -51,9 +51,14 @@ var minParallel = 8192
 // sorted list of active slots, split over workers; the minimum under the
 // total order (distance, not-previous, index) does not depend on the
 // split.
-func nnChainCondensed(dist []float64, n int, m Linkage, workers int) *Dendrogram {
-	d := make([]float64, len(dist))
-	copy(d, dist)
+//
+// If own is true dist is the caller's scratch copy and is overwritten.
+func nnChainCondensed(dist []float64, n int, m Linkage, workers int, own bool) *Dendrogram {
+	d := dist
+	if !own {
+		d = make([]float64, len(dist))
+		copy(d, dist)
+	}
 	z := make([]Merge, n-1)
 	size := make([]float64, n)
 	act := make([]int, n)
@@ -132,9 +137,12 @@ func nnChainCondensed(dist []float64, n int, m Linkage, workers int) *Dendrogram
 // a binary heap; candidates are recomputed only when they come to the top
 // stale. Heap ties and scans resolve as in scipy 1.10's fast_linkage, so
 // the merge list equals scipy's.
-func genericCondensed(dist []float64, n int, m Linkage) *Dendrogram {
-	d := make([]float64, len(dist))
-	copy(d, dist)
+func genericCondensed(dist []float64, n int, m Linkage, own bool) *Dendrogram {
+	d := dist
+	if !own {
+		d = make([]float64, len(dist))
+		copy(d, dist)
+	}
 	z := make([]Merge, n-1)
 	size := make([]float64, n)
 	id := make([]int, n)

@@ -64,3 +64,39 @@ func sqdist(a, b []float64) float64 {
 	}
 	return sqdistGo(a, b)
 }
+
+//go:noescape
+func ward12AVX2(x *[12]float64, c *float64, d int, w *float64, out []float64, mask *uint64, ww, lim, limwx float64)
+
+// ward12 is ward8 over the first twelve coordinates (sumHead12's order).
+func ward12(x *[12]float64, c []float64, d int, w []float64, out []float64, mask []uint64, ww, lim, limwx float64) {
+	if len(out) == 0 {
+		return
+	}
+	if (len(out)-1)*d+12 > len(c) || len(w) < len(out) || len(mask) < (len(out)+63)/64 {
+		panic("cluster: ward12 out of range")
+	}
+	if haveAVX2 {
+		ward12AVX2(x, &c[0], d, &w[0], out, &mask[0], ww, lim, limwx)
+		return
+	}
+	ward12Go(x, c, d, w, out, mask, ww, lim, limwx)
+}
+
+//go:noescape
+func ward16AVX2(x *[16]float64, c *float64, d int, w *float64, out []float64, mask *uint64, ww, lim, limwx float64)
+
+// ward16 is ward8 over the first sixteen coordinates (sumHead16's order).
+func ward16(x *[16]float64, c []float64, d int, w []float64, out []float64, mask []uint64, ww, lim, limwx float64) {
+	if len(out) == 0 {
+		return
+	}
+	if (len(out)-1)*d+16 > len(c) || len(w) < len(out) || len(mask) < (len(out)+63)/64 {
+		panic("cluster: ward16 out of range")
+	}
+	if haveAVX2 {
+		ward16AVX2(x, &c[0], d, &w[0], out, &mask[0], ww, lim, limwx)
+		return
+	}
+	ward16Go(x, c, d, w, out, mask, ww, lim, limwx)
+}

@@ -150,3 +150,152 @@ sdone:
 	VZEROUPPER
 	MOVSD X0, ret+24(FP)
 	RET
+
+// func ward12AVX2(x *[12]float64, c *float64, d int, w *float64, out []float64, mask *uint64, ww, lim, limwx float64)
+// As ward8AVX2 over the first twelve coordinates, lanes summed as
+// sumHead12: u_j = (t_j² + t_{j+4}²) + t_{j+8}², s = (u0+u2) + (u1+u3).
+TEXT ·ward12AVX2(SB), NOSPLIT, $0-88
+	MOVQ x+0(FP), AX
+	MOVQ c+8(FP), SI
+	MOVQ d+16(FP), DX
+	MOVQ w+24(FP), R8
+	MOVQ out_base+32(FP), DI
+	MOVQ out_len+40(FP), R12
+	MOVQ mask+56(FP), R9
+	VMOVSD ww+64(FP), X5
+	VMOVSD lim+72(FP), X6
+	VMOVSD limwx+80(FP), X7
+	SHLQ $3, DX
+	VMOVUPD (AX), Y0
+	VMOVUPD 32(AX), Y1
+	VMOVUPD 64(AX), Y8
+	XORQ CX, CX
+	XORQ R11, R11
+
+tloop:
+	TESTQ R12, R12
+	JZ    tdone
+	VMOVUPD (SI), Y2
+	VMOVUPD 32(SI), Y3
+	VMOVUPD 64(SI), Y9
+	VSUBPD  Y2, Y0, Y2
+	VSUBPD  Y3, Y1, Y3
+	VSUBPD  Y9, Y8, Y9
+	VMULPD  Y2, Y2, Y2
+	VMULPD  Y3, Y3, Y3
+	VMULPD  Y9, Y9, Y9
+	VADDPD  Y3, Y2, Y2
+	VADDPD  Y9, Y2, Y2         // u_j
+	VEXTRACTF128 $1, Y2, X3
+	VADDPD  X3, X2, X2         // (u0+u2, u1+u3)
+	VPERMILPD $1, X2, X3
+	VADDSD  X3, X2, X2
+	VMOVSD  X2, (DI)
+	VMULSD  X5, X2, X4
+	VSUBSD  X6, X4, X4
+	VMULSD  (R8), X4, X4
+	XORQ    BX, BX
+	VUCOMISD X7, X4
+	SETLS   BX
+	SHLQ    CX, BX
+	ORQ     BX, R11
+	ADDQ    DX, SI
+	ADDQ    $8, DI
+	ADDQ    $8, R8
+	INCQ    CX
+	CMPQ    CX, $64
+	JNE     tnext
+	MOVQ    R11, (R9)
+	ADDQ    $8, R9
+	XORQ    CX, CX
+	XORQ    R11, R11
+
+tnext:
+	DECQ    R12
+	JMP     tloop
+
+tdone:
+	TESTQ   CX, CX
+	JZ      tret
+	MOVQ    R11, (R9)
+
+tret:
+	VZEROUPPER
+	RET
+
+// func ward16AVX2(x *[16]float64, c *float64, d int, w *float64, out []float64, mask *uint64, ww, lim, limwx float64)
+// As ward12AVX2 over the first sixteen coordinates, lanes summed as
+// sumHead16: u_j = ((t_j² + t_{j+4}²) + t_{j+8}²) + t_{j+12}².
+TEXT ·ward16AVX2(SB), NOSPLIT, $0-88
+	MOVQ x+0(FP), AX
+	MOVQ c+8(FP), SI
+	MOVQ d+16(FP), DX
+	MOVQ w+24(FP), R8
+	MOVQ out_base+32(FP), DI
+	MOVQ out_len+40(FP), R12
+	MOVQ mask+56(FP), R9
+	VMOVSD ww+64(FP), X5
+	VMOVSD lim+72(FP), X6
+	VMOVSD limwx+80(FP), X7
+	SHLQ $3, DX
+	VMOVUPD (AX), Y0
+	VMOVUPD 32(AX), Y1
+	VMOVUPD 64(AX), Y8
+	VMOVUPD 96(AX), Y10
+	XORQ CX, CX
+	XORQ R11, R11
+
+qloop:
+	TESTQ R12, R12
+	JZ    qdone
+	VMOVUPD (SI), Y2
+	VMOVUPD 32(SI), Y3
+	VMOVUPD 64(SI), Y9
+	VMOVUPD 96(SI), Y11
+	VSUBPD  Y2, Y0, Y2
+	VSUBPD  Y3, Y1, Y3
+	VSUBPD  Y9, Y8, Y9
+	VSUBPD  Y11, Y10, Y11
+	VMULPD  Y2, Y2, Y2
+	VMULPD  Y3, Y3, Y3
+	VMULPD  Y9, Y9, Y9
+	VMULPD  Y11, Y11, Y11
+	VADDPD  Y3, Y2, Y2
+	VADDPD  Y9, Y2, Y2
+	VADDPD  Y11, Y2, Y2        // u_j
+	VEXTRACTF128 $1, Y2, X3
+	VADDPD  X3, X2, X2         // (u0+u2, u1+u3)
+	VPERMILPD $1, X2, X3
+	VADDSD  X3, X2, X2
+	VMOVSD  X2, (DI)
+	VMULSD  X5, X2, X4
+	VSUBSD  X6, X4, X4
+	VMULSD  (R8), X4, X4
+	XORQ    BX, BX
+	VUCOMISD X7, X4
+	SETLS   BX
+	SHLQ    CX, BX
+	ORQ     BX, R11
+	ADDQ    DX, SI
+	ADDQ    $8, DI
+	ADDQ    $8, R8
+	INCQ    CX
+	CMPQ    CX, $64
+	JNE     qnext
+	MOVQ    R11, (R9)
+	ADDQ    $8, R9
+	XORQ    CX, CX
+	XORQ    R11, R11
+
+qnext:
+	DECQ    R12
+	JMP     qloop
+
+qdone:
+	TESTQ   CX, CX
+	JZ      qret
+	MOVQ    R11, (R9)
+
+qret:
+	VZEROUPPER
+	RET

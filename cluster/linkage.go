@@ -118,10 +118,11 @@ func (s *Settings) workers() int {
 // ErrDistance is wrapped by the errors returned for an invalid distance.
 var ErrDistance = errors.New("invalid distance")
 
-// DistanceError reports a NaN, infinite or negative input value.
+// DistanceError reports a NaN, infinite or negative distance; I and J
+// are the 0-based points of the pair.
 type DistanceError struct {
-	Index int // index in the condensed matrix, or row for vector input
-	I, J  int // pair (i<j) for condensed input; J is the column for vectors
+	Index int // index in the condensed matrix
+	I, J  int // the pair, i < j
 	Value float64
 	Err   error
 }
@@ -207,6 +208,12 @@ func checkCondensed(dist []float64) (int, error) {
 // algorithms is stably sorted by height and relabelled), so results equal
 // scipy's Z matrix whenever the floating-point values agree, ties included.
 func Link(dist []float64, method Linkage, s *Settings) (*Dendrogram, error) {
+	return link(dist, method, s, false)
+}
+
+// link is Link; with own set, dist may be overwritten (LinkVectors passes
+// the matrix it made, saving a copy of n(n-1)/2 values).
+func link(dist []float64, method Linkage, s *Settings, own bool) (*Dendrogram, error) {
 	method.check()
 	n, err := checkCondensed(dist)
 	if err != nil {
@@ -219,9 +226,9 @@ func Link(dist []float64, method Linkage, s *Settings) (*Dendrogram, error) {
 	case Single:
 		return mstSingle(dist, n), nil
 	case Centroid, Median:
-		return genericCondensed(dist, n, method), nil
+		return genericCondensed(dist, n, method, own), nil
 	default:
-		return nnChainCondensed(dist, n, method, s.workers()), nil
+		return nnChainCondensed(dist, n, method, s.workers(), own), nil
 	}
 }
 

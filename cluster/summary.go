@@ -2,6 +2,7 @@ package cluster
 
 import (
 	"math"
+	"math/bits"
 	"math/rand/v2"
 )
 
@@ -274,6 +275,10 @@ func lloyd(x, w []float64, n, d, k int, cent []float64, assign []int, iters, wor
 	half := make([]float64, k)
 	old := make([]float64, k*d)
 	delta := make([]float64, k)
+	ones := make([]float64, k)
+	for j := range ones {
+		ones[j] = 1
+	}
 	for it := 0; it < iters; it++ {
 		// Half the distance from each centre to its nearest other centre.
 		parallelRanges(k, workers, 16, func(_, a, b int) {
@@ -303,15 +308,7 @@ func lloyd(x, w []float64, n, d, k int, cent []float64, assign []int, iters, wor
 							continue
 						}
 					}
-					b1, v1, v2 := -1, math.Inf(1), math.Inf(1)
-					for j := 0; j < k; j++ {
-						v := sqdist(xi, cent[j*d:j*d+d])
-						if v < v1 {
-							b1, v1, v2 = j, v, v1
-						} else if v < v2 {
-							v2 = v
-						}
-					}
+					b1, v1, v2 := nearest2(xi, cent, k, d, ones)
 					up[i], lo[i] = math.Sqrt(v1), math.Sqrt(v2)
 					if b1 != a {
 						assign[i] = b1
@@ -366,4 +363,47 @@ func lloyd(x, w []float64, n, d, k int, cent []float64, assign []int, iters, wor
 			}
 		}
 	}
+}
+
+// nearest2 returns the nearest centre to xi (lowest index on ties) and the
+// squared distances to the nearest and the second nearest. For d ≥ 12 the
+// first eight coordinates of 256 centres at a time are summed by ward8
+// and centres whose partial sum already exceeds the second-best value
+// (by a relative 1e-12, far above rounding) are skipped; the others get
+// their exact squared distance, so the result is that of a full scan.
+func nearest2(xi, cent []float64, k, d int, ones []float64) (int, float64, float64) {
+	b1, v1, v2 := -1, math.Inf(1), math.Inf(1)
+	if d < 12 {
+		for j := 0; j < k; j++ {
+			v := sqdist(xi, cent[j*d:j*d+d])
+			if v < v1 {
+				b1, v1, v2 = j, v, v1
+			} else if v < v2 {
+				v2 = v
+			}
+		}
+		return b1, v1, v2
+	}
+	q := (*[8]float64)(xi[:8])
+	var buf [256]float64
+	var mask [4]uint64
+	for blk := 0; blk < k; blk += len(buf) {
+		end := min(k, blk+len(buf))
+		part := buf[:end-blk]
+		lim := v2 * (1 + 1e-12)
+		ward8(q, cent[blk*d:], d, ones[blk:], part, mask[:], 1, lim, 0)
+		for mi, mw := range mask[:(len(part)+63)/64] {
+			for mw != 0 {
+				j := blk + mi*64 + bits.TrailingZeros64(mw)
+				mw &= mw - 1
+				v := part[j-blk] + sqdist(xi[8:], cent[j*d+8:j*d+d])
+				if v < v1 {
+					b1, v1, v2 = j, v, v1
+				} else if v < v2 {
+					v2 = v
+				}
+			}
+		}
+	}
+	return b1, v1, v2
 }

@@ -1,6 +1,7 @@
 package cluster
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"math/bits"
@@ -8,6 +9,7 @@ import (
 )
 
 // VectorError reports a NaN or infinite coordinate or an invalid weight.
+// Row and Col are 0-based indices into the caller's rows.
 type VectorError struct {
 	Row, Col int // Col is -1 for a weight
 	Value    float64
@@ -17,10 +19,14 @@ func (e *VectorError) Error() string {
 	if e.Col < 0 {
 		return fmt.Sprintf("cluster: weight %v of row %d is not a positive finite number", e.Value, e.Row)
 	}
-	return fmt.Sprintf("cluster: %v at row %d, column %d: %v", ErrDistance, e.Row, e.Col, e.Value)
+	return fmt.Sprintf("cluster: row %d, column %d: %v is not a finite number", e.Row, e.Col, e.Value)
 }
 
-func (e *VectorError) Unwrap() error { return ErrDistance }
+// Unwrap returns ErrNotFinite.
+func (e *VectorError) Unwrap() error { return ErrNotFinite }
+
+// ErrNotFinite is wrapped by VectorError.
+var ErrNotFinite = errors.New("not a finite number")
 
 // flatten copies x into one row-major slice, checking values and weights.
 func flatten(x [][]float64, weights []float64) (flat []float64, w []float64, d int, err error) {
@@ -70,8 +76,8 @@ func flatten(x [][]float64, weights []float64) (flat []float64, w []float64, d i
 // distance 2·wA·wB/(wA+wB)·‖a−b‖², compared without square roots and
 // pruned by partial sums over the first coordinates); Centroid and
 // Median run the generic algorithm. Single, Complete, Average and
-// Weighted compute the condensed Euclidean matrix (n(n-1)/2 values) and
-// call Link. Distance computations are split over Settings.Workers
+// Weighted compute the condensed Euclidean matrix (n(n-1)/2 values, the
+// only copy: it is then used as Link's working matrix). Distance computations are split over Settings.Workers
 // goroutines and reduced in a fixed order with an associative tie rule,
 // so results do not depend on the number of workers.
 //
@@ -97,7 +103,7 @@ func LinkVectors(x [][]float64, weights []float64, method Linkage, s *Settings) 
 	if weights != nil {
 		panic("cluster: weights need Ward, Centroid or Median linkage")
 	}
-	return Link(EuclideanCondensed(nil, x, s), method, s)
+	return link(EuclideanCondensed(nil, x, s), method, s, true)
 }
 
 // EuclideanCondensed stores the Euclidean distances between the rows of x
@@ -172,7 +178,7 @@ func parallelRanges(m, w, minPer int, f func(k, lo, hi int)) int {
 		return 1
 	}
 	var wg sync.WaitGroup
-	for k := 0; k < w; k++ {
+	for k := 1; k < w; k++ {
 		lo, hi := m*k/w, m*(k+1)/w
 		wg.Add(1)
 		go func() {
@@ -180,6 +186,7 @@ func parallelRanges(m, w, minPer int, f func(k, lo, hi int)) int {
 			f(k, lo, hi)
 		}()
 	}
+	f(0, 0, m/w)
 	wg.Wait()
 	return w
 }
@@ -240,19 +247,24 @@ func wardVectors(cent, w []float64, n, d, workers int) *Dendrogram {
 	m := n
 	z := make([]Merge, 0, n-1)
 	chain := make([]int, 0, n) // keys
-	head := d
-	if d >= 12 {
+	last := -1                 // key of the cluster merged last
+	head := d                  // coordinates summed before the pruning test
+	switch {
+	case d >= headSplit:
+		head = 16
+	case d >= 16:
+		head = 12
+	case d >= 12:
 		head = 8
 	}
 	best := make([]cand, max(workers, 1))
-	search := func(px int, prevKey int, bound float64) cand {
+	// search scans every cluster for the nearest neighbour of the one at
+	// px, starting from candidate start (the previous chain element, the
+	// cluster merged last, or none), which only tightens the pruning.
+	search := func(px int, prevKey int, start cand) cand {
 		cx := cent[px*d : px*d+d]
 		used := parallelRanges(m, workers, 2048/max(1, d/8), func(k, lo, hi int) {
-			b := cand{v: bound, prev: prevKey >= 0, key: prevKey, pos: -1}
-			if prevKey >= 0 {
-				b.pos = pos[prevKey]
-			}
-			best[k] = scanWard(cent, w, key, cx, w[px], d, head, px, prevKey, lo, hi, b)
+			best[k] = scanWard(cent, w, key, cx, w[px], d, head, px, prevKey, lo, hi, start)
 		})
 		r := best[0]
 		for k := 1; k < used; k++ {
@@ -276,13 +288,17 @@ func wardVectors(cent, w []float64, n, d, workers int) *Dendrogram {
 			kx = chain[len(chain)-1]
 			px := pos[kx]
 			prev := -1
-			bound := math.Inf(1)
+			start := cand{v: math.Inf(1), key: -1, pos: -1}
 			if len(chain) > 1 {
 				prev = chain[len(chain)-2]
 				pp := pos[prev]
-				bound = wardValue(cent[px*d:px*d+d], cent[pp*d:pp*d+d], w[px], w[pp], head)
+				start = cand{v: wardValue(cent[px*d:px*d+d], cent[pp*d:pp*d+d], w[px], w[pp], head), prev: true, key: prev, pos: pp}
+			} else if last >= 0 && last != kx {
+				// The cluster merged last is often the new neighbour.
+				pl := pos[last]
+				start = cand{v: wardValue(cent[px*d:px*d+d], cent[pl*d:pl*d+d], w[px], w[pl], head), key: last, pos: pl}
 			}
-			c := search(px, prev, bound)
+			c := search(px, prev, start)
 			ky, v = c.key, c.v
 			if prev >= 0 && ky == prev {
 				break
@@ -294,6 +310,7 @@ func wardVectors(cent, w []float64, n, d, workers int) *Dendrogram {
 			kx, ky = ky, kx
 		}
 		z = append(z, Merge{A: kx, B: ky, Height: math.Sqrt(v)})
+		last = ky
 		px, py := pos[kx], pos[ky]
 		wx, wy := w[px], w[py]
 		cx, cy := cent[px*d:px*d+d], cent[py*d:py*d+d]
@@ -419,15 +436,16 @@ func genericVectors(cent, w []float64, n, d int, method Linkage, workers int) *D
 
 // scanWard returns the best Ward candidate for the cluster at position px
 // (centroid cx, weight wx) among positions [lo, hi), starting from b.
-// With head == 8 the first eight coordinates are summed first
-// (sumHead8) and the candidate is dropped when that partial value,
-// which can only grow, already exceeds the best one by a relative 1e-12
-// (far above rounding); survivors are evaluated exactly as wardValue
-// does.
+// With head == 8 the first eight coordinates of 256 rows at a time are
+// summed by ward8 (sumHead8's order; AVX2 when present) and a row is
+// dropped when that partial value, which can only grow, already exceeds
+// the best one by a relative 1e-12 (far above rounding), a branch-free
+// test that yields a bit mask; survivors are evaluated exactly as
+// wardValue does.
 func scanWard(cent, w []float64, key []int, cx []float64, wx float64, d, head, px, prevKey, lo, hi int, b cand) cand {
 	ww := 2 * wx
 	cx = cx[:d:d]
-	if head != 8 {
+	if head != 8 && head != 12 && head != 16 {
 		for p := lo; p < hi; p++ {
 			if p == px {
 				continue
@@ -444,13 +462,19 @@ func scanWard(cent, w []float64, key []int, cx []float64, wx float64, d, head, p
 		return b
 	}
 	lim := b.v * (1 + 1e-12)
-	q := (*[8]float64)(cx[:8])
 	var buf [256]float64
 	var mask [4]uint64
 	for blk := lo; blk < hi; blk += len(buf) {
 		end := min(hi, blk+len(buf))
 		part := buf[:end-blk]
-		ward8(q, cent[blk*d:], d, w[blk:], part, mask[:], ww, lim, lim*wx)
+		switch head {
+		case 16:
+			ward16((*[16]float64)(cx[:16]), cent[blk*d:], d, w[blk:], part, mask[:], ww, lim, lim*wx)
+		case 12:
+			ward12((*[12]float64)(cx[:12]), cent[blk*d:], d, w[blk:], part, mask[:], ww, lim, lim*wx)
+		default:
+			ward8((*[8]float64)(cx[:8]), cent[blk*d:], d, w[blk:], part, mask[:], ww, lim, lim*wx)
+		}
 		for mi, mw := range mask[:(len(part)+63)/64] {
 			for mw != 0 {
 				k := mi*64 + bits.TrailingZeros64(mw)
@@ -460,7 +484,7 @@ func scanWard(cent, w []float64, key []int, cx []float64, wx float64, d, head, p
 					continue
 				}
 				wp := w[p]
-				s := part[k] + sqdist(cx[8:], cent[p*d+8:p*d+d])
+				s := part[k] + sqdist(cx[head:], cent[p*d+head:p*d+d])
 				v := ww * wp / (wx + wp) * s
 				if v > b.v {
 					continue
@@ -486,6 +510,56 @@ func sumHead8(a, b []float64) float64 {
 		(float64(float64(t1*t1)+float64(t5*t5)) + float64(float64(t3*t3)+float64(t7*t7)))
 }
 
+// sumHead12 is the partial sum over the first twelve coordinates, in the
+// order of the AVX2 kernel:
+//
+//	u_j = (t_j² + t_{j+4}²) + t_{j+8}²,  s = (u0 + u2) + (u1 + u3)
+func sumHead12(a, b []float64) float64 {
+	var u [4]float64
+	for j := range u {
+		t0, t1, t2 := a[j]-b[j], a[j+4]-b[j+4], a[j+8]-b[j+8]
+		u[j] = float64(float64(t0*t0)+float64(t1*t1)) + float64(t2*t2)
+	}
+	return (u[0] + u[2]) + (u[1] + u[3])
+}
+
+// ward12Go is the portable ward12.
+func ward12Go(x *[12]float64, c []float64, d int, w []float64, out []float64, mask []uint64, ww, lim, limwx float64) {
+	clear(mask[:(len(out)+63)/64])
+	for k := range out {
+		s := sumHead12(x[:], c[k*d:k*d+12])
+		out[k] = s
+		if w[k]*(s*ww-lim) <= limwx {
+			mask[k/64] |= 1 << (k % 64)
+		}
+	}
+}
+
+// sumHead16 is the partial sum over the first sixteen coordinates, in
+// the order of the AVX2 kernel:
+//
+//	u_j = ((t_j² + t_{j+4}²) + t_{j+8}²) + t_{j+12}²,  s = (u0 + u2) + (u1 + u3)
+func sumHead16(a, b []float64) float64 {
+	var u [4]float64
+	for j := range u {
+		t0, t1, t2, t3 := a[j]-b[j], a[j+4]-b[j+4], a[j+8]-b[j+8], a[j+12]-b[j+12]
+		u[j] = float64(float64(float64(t0*t0)+float64(t1*t1))+float64(t2*t2)) + float64(t3*t3)
+	}
+	return (u[0] + u[2]) + (u[1] + u[3])
+}
+
+// ward16Go is the portable ward16.
+func ward16Go(x *[16]float64, c []float64, d int, w []float64, out []float64, mask []uint64, ww, lim, limwx float64) {
+	clear(mask[:(len(out)+63)/64])
+	for k := range out {
+		s := sumHead16(x[:], c[k*d:k*d+16])
+		out[k] = s
+		if w[k]*(s*ww-lim) <= limwx {
+			mask[k/64] |= 1 << (k % 64)
+		}
+	}
+}
+
 // ward8Go is the portable ward8.
 func ward8Go(x *[8]float64, c []float64, d int, w []float64, out []float64, mask []uint64, ww, lim, limwx float64) {
 	clear(mask[:(len(out)+63)/64])
@@ -509,10 +583,19 @@ func partial8Go(x *[8]float64, c []float64, d int, out []float64) {
 // weights wa and wb, computed exactly as scanWard computes it.
 func wardValue(a, b []float64, wa, wb float64, head int) float64 {
 	var s float64
-	if head == 8 {
+	switch head {
+	case 8:
 		s = sumHead8(a, b) + sqdist(a[8:], b[8:])
-	} else {
+	case 12:
+		s = sumHead12(a, b) + sqdist(a[12:], b[12:])
+	case 16:
+		s = sumHead16(a, b) + sqdist(a[16:], b[16:])
+	default:
 		s = sqdist(a, b)
 	}
 	return 2 * wa * wb / (wa + wb) * s
 }
+
+// headSplit is the least d for the sixteen-coordinate stage (a variable
+// for measurements).
+var headSplit = 20
