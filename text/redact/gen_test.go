@@ -235,7 +235,19 @@ func generate(seed uint64, n int) (docs []genDoc, listed []string) {
 			}
 			g.sentence()
 		}
-		docs = append(docs, genDoc{text: g.b.String(), truth: g.truth})
+		text := g.b.String()
+		if r.IntN(8) == 0 {
+			// an all-capitals narrative, as many CAD exports are; the spans keep their
+			// offsets since upper-casing ASCII keeps lengths.
+			text = strings.ToUpper(text)
+			for k := range g.truth {
+				g.truth[k].Text = text[g.truth[k].Start:g.truth[k].End]
+				if g.truth[k].kind != "" {
+					g.truth[k].kind += "-caps"
+				}
+			}
+		}
+		docs = append(docs, genDoc{text: text, truth: g.truth})
 	}
 	return docs, listed
 }

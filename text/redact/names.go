@@ -174,8 +174,13 @@ func (d *doc) nameToken(i int) bool {
 		return true
 	}
 	if allUpper(w) {
-		// In capitals a dictionary word ("FLED") ends the name unless it is a known name.
-		return !isDictWord(w) || isNameListed(w)
+		// In capitals a dictionary word ("FLED") ends the name unless it is a known name;
+		// so does a verb form the dictionary lacks ("MANEUVERED", "FRACTURING").
+		if isNameListed(w) {
+			return true
+		}
+		lw := strings.ToLower(w)
+		return !isDictWord(w) && !strings.HasSuffix(lw, "ed") && !strings.HasSuffix(lw, "ing") && !strings.HasSuffix(lw, "ly")
 	}
 	return false
 }
@@ -184,6 +189,12 @@ func (d *doc) nameToken(i int) bool {
 // or "LAST, FIRST". It returns the index after the last token used and the name words.
 func (d *doc) nameSeq(i int) (end int, parts []string) {
 	j := i
+	// In capitals a first word that is a dictionary word ("JURA") is taken when a clear
+	// name word follows it ("JURA PRITCHLEY").
+	if !d.nameToken(j) && d.capsSurname(j) && d.nameToken(j+1) && d.toks[j+1].nl == 0 {
+		parts = append(parts, d.lower[j])
+		j++
+	}
 	for len(parts) < 3 && j < len(d.toks) {
 		if d.toks[j].nl > 1 && j > i {
 			break
@@ -192,7 +203,7 @@ func (d *doc) nameSeq(i int) (end int, parts []string) {
 			j += 2
 			continue
 		}
-		if !d.nameToken(j) {
+		if !d.nameToken(j) && !(len(parts) == 1 && d.capsSurname(j)) {
 			break
 		}
 		parts = append(parts, strings.ToLower(d.word(j)))
@@ -278,6 +289,9 @@ func (d *doc) names(cs []cand) []cand {
 			if end, parts := d.nameSeq(j); len(parts) > 0 {
 				cs = d.addName(cs, j, end, parts)
 				i = end - 1
+			} else if d.capsSurname(j) {
+				cs = d.addName(cs, j, j+1, []string{d.lower[j]}) // "MS. STONE"
+				i = j
 			}
 			continue
 		}
@@ -305,8 +319,12 @@ func (d *doc) names(cs []cand) []cand {
 			break
 		}
 	}
-	if !d.r.opt.NoHeuristicNames && !d.caps {
-		cs = d.heuristicNames(cs)
+	if !d.r.opt.NoHeuristicNames {
+		if d.caps {
+			cs = d.capsNames(cs)
+		} else {
+			cs = d.heuristicNames(cs)
+		}
 	}
 	return cs
 }
@@ -703,4 +721,95 @@ func (d *doc) personCalled(i int) bool {
 		return false
 	}
 	return true
+}
+
+// capsNames is the heuristic for narratives written in capitals, where capitalisation says
+// nothing: a known given name followed by one or two words that are not dictionary words
+// or are known surnames ("JOHN QUOSBY", "MARIA T. DELLWICK").
+func (d *doc) capsNames(cs []cand) []cand {
+	for i := 0; i < len(d.toks); i++ {
+		if d.toks[i].kind != tWord || !allUpper(d.word(i)) {
+			continue
+		}
+		if !givenNames[d.lower[i]] {
+			// two neighbouring words of four or more letters, neither in the dictionary
+			// nor an abbreviation: "TAMO QUOSBY".
+			j := i + 1
+			if d.isInitial(j) {
+				j += 2
+			}
+			if j < len(d.toks) && d.capsOdd(i) && d.capsOdd(j) && d.toks[j].nl == 0 && d.personContext(i, j) {
+				cs = d.addName(cs, i, j+1, []string{d.lower[i], d.lower[j]})
+				i = j
+			}
+			continue
+		}
+		j := i + 1
+		if d.isInitial(j) {
+			j += 2
+		}
+		parts := []string{d.lower[i]}
+		end := -1
+		for k := 0; k < 2 && j < len(d.toks); k++ {
+			if d.toks[j].kind != tWord || d.toks[j].nl > 1 {
+				break
+			}
+			w := d.word(j)
+			if !allUpper(w) || len(w) < 2 || stopNames[d.lower[j]] || orgWords[d.lower[j]] {
+				break
+			}
+			if isDictWord(w) && !surnames[d.lower[j]] {
+				break
+			}
+			parts = append(parts, d.lower[j])
+			end = j + 1
+			j++
+		}
+		if end > 0 {
+			cs = d.addName(cs, i, end, parts)
+			i = end - 1
+		}
+	}
+	return cs
+}
+
+// capsSurname reports whether token j, a dictionary word in capitals right after the first
+// word of a cued name, can be taken as the surname ("VICTIM TANELL STONE"): it must not be a
+// stop word, a person's verb, or look like a verb form (-ED, -ING).
+func (d *doc) capsSurname(j int) bool {
+	if j >= len(d.toks) || d.toks[j].kind != tWord || d.toks[j].nl > 0 {
+		return false
+	}
+	w := d.word(j)
+	lw := d.lower[j]
+	if !allUpper(w) || len(w) < 3 || stopNames[lw] || personVerbs[lw] || orgOnly[lw] {
+		return false
+	}
+	return !strings.HasSuffix(lw, "ed") && !strings.HasSuffix(lw, "ing")
+}
+
+// capsOdd reports whether token i is a capitals word of four or more letters, with a vowel,
+// that is neither a dictionary word nor a stop, organisation or place word.
+func (d *doc) capsOdd(i int) bool {
+	if d.toks[i].kind != tWord {
+		return false
+	}
+	w := d.word(i)
+	lw := d.lower[i]
+	if len(w) < 4 || !allUpper(w) || isDictWord(w) || stopNames[lw] || orgWords[lw] {
+		return false
+	}
+	return strings.ContainsAny(lw, "aeiouy")
+}
+
+// personContext reports whether the words before token i or after token j say that
+// tokens i..j are a person: "saw", "told", "asked" ... before, or "said", "told" ... after.
+func (d *doc) personContext(i, j int) bool {
+	if i > 0 && d.toks[i-1].kind == tWord && personBefore[d.lower[i-1]] && d.lower[i-1] != "and" {
+		return true
+	}
+	if i > 1 && d.toks[i-1].kind == tWord && d.lower[i-1] == "to" && d.toks[i-2].kind == tWord && d.lower[i-2] == "belonged" {
+		return true
+	}
+	return j+1 < len(d.toks) && d.toks[j+1].kind == tWord && personVerbs[d.lower[j+1]]
 }
