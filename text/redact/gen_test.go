@@ -430,7 +430,22 @@ func (g *gen) listedName() {
 
 func (g *gen) heuristicName() {
 	full := g.given() + " " + g.surname()
-	switch g.r.IntN(4) {
+	switch g.r.IntN(8) {
+	case 4:
+		g.lit("Neighbours described ")
+		g.pii(Name, kindHeuristic, full)
+		g.lit(" as quiet.")
+	case 5:
+		g.lit("The car was registered to ")
+		g.pii(Name, kindHeuristic, full)
+		g.lit(" of Pell Lane.")
+	case 6:
+		g.pii(Name, kindHeuristic, full)
+		g.lit(" had been drinking since noon.")
+	case 7:
+		g.lit("Messages from ")
+		g.pii(Name, kindHeuristic, full)
+		g.lit(" were shown to officers.")
 	case 0:
 		g.lit("A bystander saw ")
 		g.pii(Name, kindHeuristic, full)

@@ -17,6 +17,7 @@ var namesEN string
 var (
 	listsOnce    sync.Once
 	dict         map[string]bool // ordinary English words
+	common       map[string]bool // dict words also seen in lower case in modern reports
 	givenNames   map[string]bool
 	surnames     map[string]bool
 	stopNames    map[string]bool // capitalised words that never start or continue a name
@@ -27,7 +28,7 @@ var (
 	personBefore = set("told asked and saw called met per")
 	// words before a capitalised run that make it a thing, not a person: "a Timberjack
 	// Feller Buncher", "caused by Myocardial Infarction" is kept out by "of"/"as" ...
-	thingBefore      = set("a an the this that these those his her their its our your my each every any some of as from using into onto for")
+	thingBefore      = set("a an the this that these those his her their its our your my each every any some of as using into onto")
 	usStates         = set("AL AK AZ AR CA CO CT DE DC FL GA HI ID IL IN IA KS KY LA ME MD MA MI MN MS MO MT NE NV NH NJ NM NY NC ND OH OK OR PA RI SC SD TN TX UT VT VA WA WV WI WY PR")
 	placePrepsBefore = map[string]bool{"in": true, "at": true, "near": true, "into": true, "inside": true, "via": true}
 )
@@ -41,12 +42,17 @@ func set(words string) map[string]bool {
 }
 
 func loadLists() {
-	dict = map[string]bool{}
+	dict, common = map[string]bool{}, map[string]bool{}
 	for _, line := range strings.Split(wordsEN, "\n") {
 		if line == "" || line[0] == '#' {
 			continue
 		}
+		if line[0] == '~' {
+			dict[line[1:]] = true
+			continue
+		}
 		dict[line] = true
+		common[line] = true
 	}
 	givenNames, surnames = map[string]bool{}, map[string]bool{}
 	for _, line := range strings.Split(namesEN, "\n") {
@@ -118,6 +124,14 @@ func isDictWord(w string) bool {
 		return true
 	}
 	return false
+}
+
+// isCommonWord reports whether w is a dictionary word also seen in lower case in modern
+// reports (not only in the literary vocabulary, which holds surnames such as "bromley").
+func isCommonWord(w string) bool {
+	lw := strings.ToLower(w)
+	lw = strings.TrimSuffix(strings.TrimSuffix(lw, "'s"), "’s")
+	return common[lw]
 }
 
 func isNameListed(w string) bool {
@@ -444,7 +458,7 @@ func (d *doc) heuristicNames(cs []cand) []cand {
 			// given-name position and surname position must both look like names.
 			fw, lw := d.word(idx[0]), d.word(idx[len(idx)-1])
 			firstOK := givenNames[first] || !isDictWord(fw)
-			lastOK := surnames[strings.ToLower(lw)] || !isDictWord(lw)
+			lastOK := surnames[strings.ToLower(lw)] || !isCommonWord(lw)
 			// a person's context before or a person's verb after vouches for a surname that
 			// is also a dictionary word ("Staff called Tamo Bromley").
 			prev := ""
@@ -813,3 +827,4 @@ func (d *doc) personContext(i, j int) bool {
 	}
 	return j+1 < len(d.toks) && d.toks[j+1].kind == tWord && personVerbs[d.lower[j+1]]
 }
+
