@@ -827,4 +827,3 @@ func (d *doc) personContext(i, j int) bool {
 	}
 	return j+1 < len(d.toks) && d.toks[j+1].kind == tWord && personVerbs[d.lower[j+1]]
 }
-
