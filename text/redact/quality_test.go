@@ -66,13 +66,12 @@ func scoreDocs(t testing.TB, docs []genDoc, listed []string) (sum []Score, kinds
 }
 
 func emit(corpus, typ string, s Score, tokens int) benchLine {
-	l := benchLine{Bench: "redact", System: "undercurrent", Corpus: corpus, Type: typ, Truth: s.Truth, Found: s.Found,
-		Precision: s.Precision(), Recall: s.Recall(), FalsePer: 1000 * float64(s.False) / float64(tokens)}
-	if s.Truth > 0 {
-		l.Covered = float64(s.Covered) / float64(s.Truth)
+	line := BenchLine(corpus, typ, s, tokens)
+	fmt.Println(line)
+	var l benchLine
+	if err := json.Unmarshal([]byte(line), &l); err != nil {
+		panic(err)
 	}
-	b, _ := json.Marshal(l)
-	fmt.Println(string(b))
 	return l
 }
 
