@@ -111,7 +111,7 @@ func (d *doc) addresses(cs []cand) []cand {
 		}
 		// a suffix word must follow within six tokens.
 		for k := i + 2; k < len(d.toks) && k <= i+7; k++ {
-			if d.toks[k].kind == tWord && streetSuffixes[d.lower[k]] != "" {
+			if d.flags[k]&fSuffix != 0 {
 				return true
 			}
 		}
@@ -123,7 +123,7 @@ func (d *doc) addresses(cs []cand) []cand {
 	sub := func(m []int) { cs = append(cs, cand{typ: Address, start: m[2], end: trim(m[2], m[3])}) }
 	// an intersection has a suffix word followed by a joining word or sign.
 	cross := d.triggers(func(i int) bool {
-		if d.toks[i].kind != tWord || streetSuffixes[strings.ToLower(d.word(i))] == "" {
+		if d.flags[i]&fSuffix == 0 {
 			return false
 		}
 		j := i + 1
@@ -137,7 +137,7 @@ func (d *doc) addresses(cs []cand) []cand {
 		return w == "and" || w == "&" || w == "at" || w == "/" || w == "@"
 	})
 	d.scan(crossRe, cross, 64, 80, sub)
-	d.scan(cornerRe, d.triggers(d.wordIn(cornerTrig)), 0, 128, sub)
+	d.scan(cornerRe, d.triggers(d.flagged(fCorner)), 0, 128, sub)
 	d.scan(slashRe, d.triggers(func(i int) bool { return d.isPunct(i, "/") }), 40, 40, func(m []int) {
 		// "AND/OR", "YES/NO" are not streets.
 		listsOnce.Do(loadLists)
