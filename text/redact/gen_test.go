@@ -235,7 +235,19 @@ func generate(seed uint64, n int) (docs []genDoc, listed []string) {
 			}
 			g.sentence()
 		}
-		docs = append(docs, genDoc{text: g.b.String(), truth: g.truth})
+		text := g.b.String()
+		if r.IntN(8) == 0 {
+			// an all-capitals narrative, as many CAD exports are; the spans keep their
+			// offsets since upper-casing ASCII keeps lengths.
+			text = strings.ToUpper(text)
+			for k := range g.truth {
+				g.truth[k].Text = text[g.truth[k].Start:g.truth[k].End]
+				if g.truth[k].kind != "" {
+					g.truth[k].kind += "-caps"
+				}
+			}
+		}
+		docs = append(docs, genDoc{text: text, truth: g.truth})
 	}
 	return docs, listed
 }
@@ -418,7 +430,22 @@ func (g *gen) listedName() {
 
 func (g *gen) heuristicName() {
 	full := g.given() + " " + g.surname()
-	switch g.r.IntN(4) {
+	switch g.r.IntN(8) {
+	case 4:
+		g.lit("Neighbours described ")
+		g.pii(Name, kindHeuristic, full)
+		g.lit(" as quiet.")
+	case 5:
+		g.lit("The car was registered to ")
+		g.pii(Name, kindHeuristic, full)
+		g.lit(" of Pell Lane.")
+	case 6:
+		g.pii(Name, kindHeuristic, full)
+		g.lit(" had been drinking since noon.")
+	case 7:
+		g.lit("Messages from ")
+		g.pii(Name, kindHeuristic, full)
+		g.lit(" were shown to officers.")
 	case 0:
 		g.lit("A bystander saw ")
 		g.pii(Name, kindHeuristic, full)

@@ -17,6 +17,7 @@ var namesEN string
 var (
 	listsOnce    sync.Once
 	dict         map[string]bool // ordinary English words
+	common       map[string]bool // dict words also seen in lower case in modern reports
 	givenNames   map[string]bool
 	surnames     map[string]bool
 	stopNames    map[string]bool // capitalised words that never start or continue a name
@@ -27,7 +28,7 @@ var (
 	personBefore = set("told asked and saw called met per")
 	// words before a capitalised run that make it a thing, not a person: "a Timberjack
 	// Feller Buncher", "caused by Myocardial Infarction" is kept out by "of"/"as" ...
-	thingBefore      = set("a an the this that these those his her their its our your my each every any some of as from using into onto for")
+	thingBefore      = set("a an the this that these those his her their its our your my each every any some of as using into onto")
 	usStates         = set("AL AK AZ AR CA CO CT DE DC FL GA HI ID IL IN IA KS KY LA ME MD MA MI MN MS MO MT NE NV NH NJ NM NY NC ND OH OK OR PA RI SC SD TN TX UT VT VA WA WV WI WY PR")
 	placePrepsBefore = map[string]bool{"in": true, "at": true, "near": true, "into": true, "inside": true, "via": true}
 )
@@ -41,12 +42,17 @@ func set(words string) map[string]bool {
 }
 
 func loadLists() {
-	dict = map[string]bool{}
+	dict, common = map[string]bool{}, map[string]bool{}
 	for _, line := range strings.Split(wordsEN, "\n") {
 		if line == "" || line[0] == '#' {
 			continue
 		}
+		if line[0] == '~' {
+			dict[line[1:]] = true
+			continue
+		}
 		dict[line] = true
+		common[line] = true
 	}
 	givenNames, surnames = map[string]bool{}, map[string]bool{}
 	for _, line := range strings.Split(namesEN, "\n") {
@@ -120,6 +126,14 @@ func isDictWord(w string) bool {
 	return false
 }
 
+// isCommonWord reports whether w is a dictionary word also seen in lower case in modern
+// reports (not only in the literary vocabulary, which holds surnames such as "bromley").
+func isCommonWord(w string) bool {
+	lw := strings.ToLower(w)
+	lw = strings.TrimSuffix(strings.TrimSuffix(lw, "'s"), "’s")
+	return common[lw]
+}
+
 func isNameListed(w string) bool {
 	lw := strings.ToLower(w)
 	return givenNames[lw] || surnames[lw]
@@ -174,8 +188,13 @@ func (d *doc) nameToken(i int) bool {
 		return true
 	}
 	if allUpper(w) {
-		// In capitals a dictionary word ("FLED") ends the name unless it is a known name.
-		return !isDictWord(w) || isNameListed(w)
+		// In capitals a dictionary word ("FLED") ends the name unless it is a known name;
+		// so does a verb form the dictionary lacks ("MANEUVERED", "FRACTURING").
+		if isNameListed(w) {
+			return true
+		}
+		lw := strings.ToLower(w)
+		return !isDictWord(w) && !strings.HasSuffix(lw, "ed") && !strings.HasSuffix(lw, "ing") && !strings.HasSuffix(lw, "ly")
 	}
 	return false
 }
@@ -184,6 +203,12 @@ func (d *doc) nameToken(i int) bool {
 // or "LAST, FIRST". It returns the index after the last token used and the name words.
 func (d *doc) nameSeq(i int) (end int, parts []string) {
 	j := i
+	// In capitals a first word that is a dictionary word ("JURA") is taken when a clear
+	// name word follows it ("JURA PRITCHLEY").
+	if !d.nameToken(j) && d.capsSurname(j) && d.nameToken(j+1) && d.toks[j+1].nl == 0 {
+		parts = append(parts, d.lower[j])
+		j++
+	}
 	for len(parts) < 3 && j < len(d.toks) {
 		if d.toks[j].nl > 1 && j > i {
 			break
@@ -192,7 +217,7 @@ func (d *doc) nameSeq(i int) (end int, parts []string) {
 			j += 2
 			continue
 		}
-		if !d.nameToken(j) {
+		if !d.nameToken(j) && !(len(parts) == 1 && d.capsSurname(j)) {
 			break
 		}
 		parts = append(parts, strings.ToLower(d.word(j)))
@@ -278,6 +303,9 @@ func (d *doc) names(cs []cand) []cand {
 			if end, parts := d.nameSeq(j); len(parts) > 0 {
 				cs = d.addName(cs, j, end, parts)
 				i = end - 1
+			} else if d.capsSurname(j) {
+				cs = d.addName(cs, j, j+1, []string{d.lower[j]}) // "MS. STONE"
+				i = j
 			}
 			continue
 		}
@@ -305,8 +333,12 @@ func (d *doc) names(cs []cand) []cand {
 			break
 		}
 	}
-	if !d.r.opt.NoHeuristicNames && !d.caps {
-		cs = d.heuristicNames(cs)
+	if !d.r.opt.NoHeuristicNames {
+		if d.caps {
+			cs = d.capsNames(cs)
+		} else {
+			cs = d.heuristicNames(cs)
+		}
 	}
 	return cs
 }
@@ -426,7 +458,7 @@ func (d *doc) heuristicNames(cs []cand) []cand {
 			// given-name position and surname position must both look like names.
 			fw, lw := d.word(idx[0]), d.word(idx[len(idx)-1])
 			firstOK := givenNames[first] || !isDictWord(fw)
-			lastOK := surnames[strings.ToLower(lw)] || !isDictWord(lw)
+			lastOK := surnames[strings.ToLower(lw)] || !isCommonWord(lw)
 			// a person's context before or a person's verb after vouches for a surname that
 			// is also a dictionary word ("Staff called Tamo Bromley").
 			prev := ""
@@ -703,4 +735,95 @@ func (d *doc) personCalled(i int) bool {
 		return false
 	}
 	return true
+}
+
+// capsNames is the heuristic for narratives written in capitals, where capitalisation says
+// nothing: a known given name followed by one or two words that are not dictionary words
+// or are known surnames ("JOHN QUOSBY", "MARIA T. DELLWICK").
+func (d *doc) capsNames(cs []cand) []cand {
+	for i := 0; i < len(d.toks); i++ {
+		if d.toks[i].kind != tWord || !allUpper(d.word(i)) {
+			continue
+		}
+		if !givenNames[d.lower[i]] {
+			// two neighbouring words of four or more letters, neither in the dictionary
+			// nor an abbreviation: "TAMO QUOSBY".
+			j := i + 1
+			if d.isInitial(j) {
+				j += 2
+			}
+			if j < len(d.toks) && d.capsOdd(i) && d.capsOdd(j) && d.toks[j].nl == 0 && d.personContext(i, j) {
+				cs = d.addName(cs, i, j+1, []string{d.lower[i], d.lower[j]})
+				i = j
+			}
+			continue
+		}
+		j := i + 1
+		if d.isInitial(j) {
+			j += 2
+		}
+		parts := []string{d.lower[i]}
+		end := -1
+		for k := 0; k < 2 && j < len(d.toks); k++ {
+			if d.toks[j].kind != tWord || d.toks[j].nl > 1 {
+				break
+			}
+			w := d.word(j)
+			if !allUpper(w) || len(w) < 2 || stopNames[d.lower[j]] || orgWords[d.lower[j]] {
+				break
+			}
+			if isDictWord(w) && !surnames[d.lower[j]] {
+				break
+			}
+			parts = append(parts, d.lower[j])
+			end = j + 1
+			j++
+		}
+		if end > 0 {
+			cs = d.addName(cs, i, end, parts)
+			i = end - 1
+		}
+	}
+	return cs
+}
+
+// capsSurname reports whether token j, a dictionary word in capitals right after the first
+// word of a cued name, can be taken as the surname ("VICTIM TANELL STONE"): it must not be a
+// stop word, a person's verb, or look like a verb form (-ED, -ING).
+func (d *doc) capsSurname(j int) bool {
+	if j >= len(d.toks) || d.toks[j].kind != tWord || d.toks[j].nl > 0 {
+		return false
+	}
+	w := d.word(j)
+	lw := d.lower[j]
+	if !allUpper(w) || len(w) < 3 || stopNames[lw] || personVerbs[lw] || orgOnly[lw] {
+		return false
+	}
+	return !strings.HasSuffix(lw, "ed") && !strings.HasSuffix(lw, "ing")
+}
+
+// capsOdd reports whether token i is a capitals word of four or more letters, with a vowel,
+// that is neither a dictionary word nor a stop, organisation or place word.
+func (d *doc) capsOdd(i int) bool {
+	if d.toks[i].kind != tWord {
+		return false
+	}
+	w := d.word(i)
+	lw := d.lower[i]
+	if len(w) < 4 || !allUpper(w) || isDictWord(w) || stopNames[lw] || orgWords[lw] {
+		return false
+	}
+	return strings.ContainsAny(lw, "aeiouy")
+}
+
+// personContext reports whether the words before token i or after token j say that
+// tokens i..j are a person: "saw", "told", "asked" ... before, or "said", "told" ... after.
+func (d *doc) personContext(i, j int) bool {
+	if i > 0 && d.toks[i-1].kind == tWord && personBefore[d.lower[i-1]] && d.lower[i-1] != "and" {
+		return true
+	}
+	if i > 1 && d.toks[i-1].kind == tWord && d.lower[i-1] == "to" && d.toks[i-2].kind == tWord && d.lower[i-2] == "belonged" {
+		return true
+	}
+	return j+1 < len(d.toks) && d.toks[j+1].kind == tWord && personVerbs[d.lower[j+1]]
 }

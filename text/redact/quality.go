@@ -1,6 +1,10 @@
 package redact
 
-import "sort"
+import (
+	"fmt"
+	"sort"
+	"strconv"
+)
 
 // Score is the quality of one type's redactions against ground truth.
 type Score struct {
@@ -107,4 +111,27 @@ func (s *Score) Add(o Score) {
 
 func isAlnumByte(b byte) bool {
 	return b >= '0' && b <= '9' || b >= 'a' && b <= 'z' || b >= 'A' && b <= 'Z'
+}
+
+// BenchLine formats s as one line of the project's benchmark JSON:
+//
+//	{"bench":"redact","system":"undercurrent","corpus":...,"type":...,"truth":...,"found":...,
+//	 "precision":...,"recall":...,"covered":...,"false_per_1k_tokens":...}
+//
+// label names the type (s.Type.String() when empty); tokens is the number of
+// whitespace-separated tokens of the narratives scored, for the false-redaction rate.
+// Covered is the share of truth spans hidden by a redaction of any type.
+func BenchLine(corpus, label string, s Score, tokens int) string {
+	if label == "" {
+		label = s.Type.String()
+	}
+	covered, per := 0.0, 0.0
+	if s.Truth > 0 {
+		covered = float64(s.Covered) / float64(s.Truth)
+	}
+	if tokens > 0 {
+		per = 1000 * float64(s.False) / float64(tokens)
+	}
+	return fmt.Sprintf(`{"bench":"redact","system":"undercurrent","corpus":%s,"type":%s,"truth":%d,"found":%d,"precision":%.4f,"recall":%.4f,"covered":%.4f,"false_per_1k_tokens":%.3f}`,
+		strconv.Quote(corpus), strconv.Quote(label), s.Truth, s.Found, s.Precision(), s.Recall(), covered, per)
 }

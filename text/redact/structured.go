@@ -330,7 +330,7 @@ var (
 )
 
 func (d *doc) dobs(cs []cand) []cand {
-	trig := d.triggers(d.wordIn(dobTrig))
+	trig := d.triggers(d.flagged(fDOB))
 	d.scan(dobRe, trig, 0, 64, func(m []int) {
 		s, e := m[2], m[3]
 		if d.wordAfter(e) {
@@ -375,8 +375,8 @@ func (d *doc) ages(cs []cand) []cand {
 		}
 		cs = append(cs, cand{typ: Age, start: m[0], end: m[1]})
 	}
-	d.scan(ageBeforeRe, d.triggers(d.wordIn(ageTrig1)), 0, 12, add)
-	d.scan(ageAfterRe, d.triggers(d.wordIn(ageTrig2)), 8, 24, add)
+	d.scan(ageBeforeRe, d.triggers(d.flagged(fAge1)), 0, 12, add)
+	d.scan(ageAfterRe, d.triggers(d.flagged(fAge2)), 8, 24, add)
 	return cs
 }
 
@@ -387,7 +387,7 @@ var plateTrig = set("license licence plate plates tag tags registration reg lic 
 var plateRe = regexp.MustCompile(`(?i)\b(?:license\s+plate|licence\s+plate|plates?|tags?|registration|reg|lic|license|licence|lp)\b\.?(?:\s?(?:#|no\.?|num\.?|nbr\.?|number|:|-|reading|of|was|is|displaying|bearing|showing|state)\s?|\s+(?-i:[A-Z]{2})\s+)*\s?(?-i:([A-Z0-9]{1,4}(?:[ -][A-Z0-9]{1,5})?|[A-Z0-9]{5,8}))\b`)
 
 func (d *doc) plates(cs []cand) []cand {
-	d.scan(plateRe, d.triggers(d.wordIn(plateTrig)), 0, 48, func(m []int) {
+	d.scan(plateRe, d.triggers(d.flagged(fPlate)), 0, 48, func(m []int) {
 		s, e := m[2], m[3]
 		v := d.text[s:e]
 		letters, digits := 0, 0
@@ -430,7 +430,7 @@ var caseTrig = set("case incident inc report rpt file complaint cad event ticket
 var caseRe = regexp.MustCompile(`(?i)\b(?:case|incident|inc|report|rpt|file|complaint|cad|event|ticket|citation|warrant|docket|booking|reference|ref|control|ccn|dr|ir|cr|rms)\b\.?((?:\s?(?:#|no\.?|num\.?|nbr\.?|number|:)\s?)*)\s?([A-Z]{0,4}-?[0-9]{2,}(?:[-/][0-9A-Z]+)*)\b`)
 
 func (d *doc) caseNos(cs []cand) []cand {
-	d.scan(caseRe, d.triggers(d.wordIn(caseTrig)), 0, 48, func(m []int) {
+	d.scan(caseRe, d.triggers(d.flagged(fCase)), 0, 48, func(m []int) {
 		marker := strings.TrimSpace(d.text[m[2]:m[3]])
 		s, e := m[4], m[5]
 		v := d.text[s:e]

@@ -58,7 +58,7 @@ func suffixPat() string {
 
 var (
 	// street name words: capitalised words or ordinals ("4th").
-	streetWord  = `(?:[0-9]{1,3}(?:st|nd|rd|th)|[A-Z][A-Za-z'-]*)`
+	streetWord  = `(?:[0-9]{1,3}(?i:st|nd|rd|th)|[A-Z][A-Za-z'-]*)`
 	directional = `(?:(?:[NSEW]|NE|NW|SE|SW|North|South|East|West|NORTH|SOUTH|EAST|WEST)\.?\s)`
 	unitPat     = `(?:,?\s(?i:apt|apartment|unit|suite|ste|rm|room|lot|bldg|#)\.?\s?#?\s?[A-Za-z0-9-]{1,6}\b)`
 	streetPat   = directional + `?(?:` + streetWord + `\s){1,3}` + suffixPat() + `\b\.?`
@@ -67,11 +67,11 @@ var (
 	// "the 100 block of Main St": the block number and street.
 	blockRe = regexp.MustCompile(`\b[0-9]{1,6}\s(?i:block)\s(?i:of)\s` + directional + `?(?:` + streetWord + `\s?){1,3}(?:` + suffixPat() + `\b)?\.?`)
 	// "Elm St and 4th Ave".
-	crossRe = regexp.MustCompile(`(?:^|[^A-Za-z0-9])(` + streetPat + `\s?(?:and|&|at|/|@)\s?` + streetPat + `)`)
+	crossRe = regexp.MustCompile(`(?:^|[^A-Za-z0-9])(` + streetPat + `\s?(?:(?i:and|at)|&|/|@)\s?` + streetPat + `)`)
 	// "the corner of Elm and Oak", "intersection of Main St & 4th Ave".
-	cornerRe = regexp.MustCompile(`(?i:corner|intersection)\s(?i:of)\s(` + streetWord + `(?:\s` + streetWord + `){0,2}(?:\s` + suffixPat() + `\b\.?)?\s?(?:and|&|/)\s?` + streetWord + `(?:\s` + streetWord + `){0,2}(?:\s` + suffixPat() + `\b\.?)?)`)
+	cornerRe = regexp.MustCompile(`(?i:corner|intersection)\s(?i:of)\s(` + streetWord + `(?:\s` + streetWord + `){0,2}(?:\s` + suffixPat() + `\b\.?)?\s?(?:(?i:and)|&|/)\s?` + streetWord + `(?:\s` + streetWord + `){0,2}(?:\s` + suffixPat() + `\b\.?)?)`)
 	// "at Main/Oak".
-	slashRe = regexp.MustCompile(`\b(?i:at|on|near|by|of|from|to|toward|towards)\s((?:[A-Z][a-z]+|[0-9]{1,3}(?:st|nd|rd|th))\s?/\s?(?:[A-Z][a-z]+|[0-9]{1,3}(?:st|nd|rd|th)))\b`)
+	slashRe = regexp.MustCompile(`\b(?i:at|on|near|by|of|from|to|toward|towards)\s((?:[A-Z][A-Za-z]+|[0-9]{1,3}(?i:st|nd|rd|th))\s?/\s?(?:[A-Z][A-Za-z]+|[0-9]{1,3}(?i:st|nd|rd|th)))\b`)
 )
 
 var cornerTrig = set("corner intersection")
@@ -111,7 +111,7 @@ func (d *doc) addresses(cs []cand) []cand {
 		}
 		// a suffix word must follow within six tokens.
 		for k := i + 2; k < len(d.toks) && k <= i+7; k++ {
-			if d.toks[k].kind == tWord && streetSuffixes[d.lower[k]] != "" {
+			if d.flags[k]&fSuffix != 0 {
 				return true
 			}
 		}
@@ -123,7 +123,7 @@ func (d *doc) addresses(cs []cand) []cand {
 	sub := func(m []int) { cs = append(cs, cand{typ: Address, start: m[2], end: trim(m[2], m[3])}) }
 	// an intersection has a suffix word followed by a joining word or sign.
 	cross := d.triggers(func(i int) bool {
-		if d.toks[i].kind != tWord || streetSuffixes[strings.ToLower(d.word(i))] == "" {
+		if d.flags[i]&fSuffix == 0 {
 			return false
 		}
 		j := i + 1
@@ -137,7 +137,16 @@ func (d *doc) addresses(cs []cand) []cand {
 		return w == "and" || w == "&" || w == "at" || w == "/" || w == "@"
 	})
 	d.scan(crossRe, cross, 64, 80, sub)
-	d.scan(cornerRe, d.triggers(d.wordIn(cornerTrig)), 0, 128, sub)
-	d.scan(slashRe, d.triggers(func(i int) bool { return d.isPunct(i, "/") }), 40, 40, sub)
+	d.scan(cornerRe, d.triggers(d.flagged(fCorner)), 0, 128, sub)
+	d.scan(slashRe, d.triggers(func(i int) bool { return d.isPunct(i, "/") }), 40, 40, func(m []int) {
+		// "AND/OR", "YES/NO" are not streets.
+		listsOnce.Do(loadLists)
+		for _, w := range strings.Split(strings.ToLower(d.text[m[2]:m[3]]), "/") {
+			if w = strings.TrimSpace(w); stopNames[w] || w == "or" || w == "yes" || w == "no" {
+				return
+			}
+		}
+		sub(m)
+	})
 	return cs
 }

@@ -27,6 +27,7 @@ type doc struct {
 	masks     [][]int
 	toks      []tok
 	lower     []string         // lower-case text of each word token ("" for others)
+	flags     []lexFlag        // lexicon flags of each word token
 	wordIndex map[string][]int // maximal letter-or-digit runs → their starts; see index
 	runs17    []int            // starts of letter-or-digit runs of exactly 17 bytes (VIN-shaped)
 	caps      bool             // the narrative is written mostly in capitals
@@ -104,9 +105,11 @@ func (d *doc) tokenize() {
 		i = j
 	}
 	d.lower = make([]string, len(d.toks))
+	d.flags = make([]lexFlag, len(d.toks))
 	for i, t := range d.toks {
 		if t.kind == tWord {
 			d.lower[i] = strings.ToLower(text[t.start:t.end])
+			d.flags[i] = lexicon[d.lower[i]]
 		}
 	}
 	d.caps = letters >= 12 && upper*10 >= letters*7
@@ -202,4 +205,36 @@ func (d *doc) index() {
 		d.wordIndex[w] = append(d.wordIndex[w], i)
 		i = j
 	}
+}
+
+// lexFlag marks what a word can start: the triggers of the pattern detectors.
+type lexFlag uint16
+
+const (
+	fDOB    lexFlag = 1 << iota // a date-of-birth cue word
+	fAge1                       // "age", "aged"
+	fAge2                       // "y/o", "yoa", "year-old" ...
+	fPlate                      // a plate cue word
+	fCase                       // a case-number cue word
+	fCorner                     // "corner", "intersection"
+	fSuffix                     // a street suffix
+)
+
+// lexicon maps lower-case words to their flags, so that each word is looked up once.
+var lexicon = func() map[string]lexFlag {
+	m := map[string]lexFlag{}
+	for f, set := range map[lexFlag]map[string]bool{fDOB: dobTrig, fAge1: ageTrig1, fAge2: ageTrig2, fPlate: plateTrig, fCase: caseTrig, fCorner: cornerTrig} {
+		for w := range set {
+			m[w] |= f
+		}
+	}
+	for w := range streetSuffixes {
+		m[w] |= fSuffix
+	}
+	return m
+}()
+
+// flagged returns a trigger test for word tokens with flag f.
+func (d *doc) flagged(f lexFlag) func(i int) bool {
+	return func(i int) bool { return d.flags[i]&f != 0 }
 }
