@@ -295,14 +295,20 @@ func TrendTable(s *Series, labels []string, conf float64, p Publish) *Table {
 //	chisq_expected  count expected if group and dominant theme were independent
 //	adj_residual    adjusted standardised residual (see ChiSquare)
 //	stands_out      true if |adj_residual| exceeds the test's critical value
+//	rest_share      the theme's share among the narratives of all other groups
+//	diff            share − rest_share
+//	diff_low        lower end of the hybrid score interval of diff (NewcombeDiff)
+//	diff_high       upper end
 //
 // Withholding as in SeriesTable; residuals and stands_out of withheld cells are
-// "withheld" and "", and chisq_expected is "withheld" when a total behind it is withheld.
+// "withheld" and "", and chisq_expected, rest_share and the diff columns are "withheld"
+// when the cell or a total behind them is withheld.
 func (g *GroupTable) Table(labels []string, p Publish) *Table {
 	t := newTable("groups", p, Column{"group", Text}, Column{"theme", Number}, Column{"label", Text},
 		Column{"count", Number}, Column{"expected", Number}, Column{"group_total", Number}, Column{"share", Number},
 		Column{"low", Number}, Column{"high", Number}, Column{"chisq_expected", Number},
-		Column{"adj_residual", Number}, Column{"stands_out", Bool})
+		Column{"adj_residual", Number}, Column{"stands_out", Bool}, Column{"rest_share", Number},
+		Column{"diff", Number}, Column{"diff_low", Number}, Column{"diff_high", Number})
 	m := SuppressGroups(g, p)
 	for i, name := range g.Groups {
 		for k := 0; k < g.Themes; k++ {
@@ -313,6 +319,10 @@ func (g *GroupTable) Table(labels []string, p Publish) *Table {
 				withheld(m.Share[i][k], Hidden, fmtFloat(g.Share[i][k])),
 				withheld(m.Share[i][k], Hidden, fmtFloat(g.Low[i][k])),
 				withheld(m.Share[i][k], Hidden, fmtFloat(g.High[i][k])), "", "", ""}
+			margins := m.RowTotal[i] || m.ThemeCount[k] || m.Grand
+			for _, v := range []float64{g.Rest[i][k], g.Diff[i][k], g.DiffLow[i][k], g.DiffHigh[i][k]} {
+				row = append(row, withheld(margins || m.Count[i][k], Hidden, fmtFloat(v)))
+			}
 			if g.Test != nil {
 				row[9] = withheld(m.RowTotal[i] || m.ThemeCount[k] || m.Grand, Hidden, fmtFloat(g.Test.Expected[i][k]))
 				row[10] = withheld(m.Share[i][k], Hidden, fmtFloat(g.Test.Residual[i][k]))
