@@ -15,16 +15,19 @@
 //     the expected count (sum of θ), the share of the month's narratives with a Wilson
 //     score interval (Wilson). Months without narratives are gaps, not zeros; the first
 //     and last months are marked partial when the data cover only part of them.
-//   - Changes / EARS: months whose share is unusually high against a trailing baseline,
-//     by the EARS C1, C2 and C3 statistics (Hutwagner et al. 2003) on monthly shares,
-//     each flag with a plain-words explanation.
+//   - Changes / EARS / FarringtonLimits: months whose share is unusually high against a
+//     trailing baseline, by the EARS C1, C2 and C3 statistics (Hutwagner et al. 2003) on
+//     monthly shares, and months whose count is above a seasonal quasi-Poisson limit
+//     with the month's total as exposure (Farrington et al. 1996); each flag with a
+//     plain-words explanation.
 //   - Poisson, MannKendallShare: long-run trend of a theme, as a rate ratio per year
 //     from a Poisson regression with the month's total as exposure (Wald,
 //     likelihood-ratio and quasi-Poisson tests) and as the Mann–Kendall test with the
 //     Theil–Sen slope of the share.
-//   - Groups / ChiSquareTest: shares per group with Wilson intervals; Pearson's
-//     chi-square test of group × dominant theme with adjusted standardised residuals
-//     (Agresti) marking cells that stand out, Bonferroni-adjusted by default.
+//   - Groups / ChiSquareTest: shares per group with Wilson intervals, each group's
+//     difference from the rest with Newcombe's hybrid score interval (NewcombeDiff);
+//     Pearson's chi-square test of group × dominant theme with adjusted standardised
+//     residuals (Agresti) marking cells that stand out, Bonferroni-adjusted by default.
 //   - LogOdds / GroupWords: words distinctive of one group against another or against
 //     the rest, by weighted log-odds with an informative Dirichlet prior (Monroe,
 //     Colaresi & Quinn 2008).

@@ -34,6 +34,8 @@ type Method int
 //     sqrt(q(1−q)/total_t), with q = (Σ baseline counts + 1)/(Σ baseline totals + 2). It
 //     keeps a flat baseline from dividing by zero and keeps a month with few narratives,
 //     whose share is noisy, from being flagged for that noise alone.
+//   - Changes flags a month only when the theme's count is at least
+//     ChangeSettings.MinCount (3 by default).
 const (
 	C1 Method = iota + 1
 	C2

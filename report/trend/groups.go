@@ -33,7 +33,12 @@ type GroupTable struct {
 	Totals   []int
 	// Share[g][k] = Counts[g][k]/Totals[g], with Wilson interval Low, High.
 	Share, Low, High [][]float64
-	Confidence       float64
+	// Rest[g][k] is the share of theme k among the narratives of all other groups, and
+	// Diff = Share − Rest with its hybrid score interval DiffLow, DiffHigh (see
+	// NewcombeDiff): "group g has more of theme k than the rest" when DiffLow > 0.
+	// NaN when there is no other group.
+	Rest, Diff, DiffLow, DiffHigh [][]float64
+	Confidence                    float64
 	// Test is the chi-square test of Counts; nil when fewer than two groups or two
 	// themes have narratives.
 	Test *ChiSquare
@@ -75,6 +80,10 @@ func Groups(docs []Doc, gs GroupSettings) (*GroupTable, error) {
 		t.Counts[g], t.Expected[g] = make([]int, themes), make([]float64, themes)
 		t.Share[g], t.Low[g], t.High[g] = make([]float64, themes), make([]float64, themes), make([]float64, themes)
 	}
+	t.Rest, t.Diff, t.DiffLow, t.DiffHigh = make([][]float64, G), make([][]float64, G), make([][]float64, G), make([][]float64, G)
+	for g := range t.Groups {
+		t.Rest[g], t.Diff[g], t.DiffLow[g], t.DiffHigh[g] = make([]float64, themes), make([]float64, themes), make([]float64, themes), make([]float64, themes)
+	}
 	for _, d := range docs {
 		g := index[d.Group]
 		t.Totals[g]++
@@ -83,10 +92,22 @@ func Groups(docs []Doc, gs GroupSettings) (*GroupTable, error) {
 			t.Expected[g][k] += v
 		}
 	}
+	themeTotal := make([]int, themes)
+	for g := range t.Groups {
+		for k := 0; k < themes; k++ {
+			themeTotal[k] += t.Counts[g][k]
+		}
+	}
 	for g := range t.Groups {
 		for k := 0; k < themes; k++ {
 			t.Share[g][k] = float64(t.Counts[g][k]) / float64(t.Totals[g])
 			t.Low[g][k], t.High[g][k] = Wilson(t.Counts[g][k], t.Totals[g], conf)
+			rx, rn := themeTotal[k]-t.Counts[g][k], len(docs)-t.Totals[g]
+			t.Rest[g][k] = math.NaN()
+			if rn > 0 {
+				t.Rest[g][k] = float64(rx) / float64(rn)
+			}
+			t.Diff[g][k], t.DiffLow[g][k], t.DiffHigh[g][k] = NewcombeDiff(t.Counts[g][k], t.Totals[g], rx, rn, conf)
 		}
 	}
 	t.Test, err = ChiSquareTest(t.Counts, gs.Alpha, gs.Unadjusted)

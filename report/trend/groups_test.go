@@ -135,3 +135,33 @@ func TestGroupsBadSettings(t *testing.T) {
 		t.Error("no docs: no error")
 	}
 }
+
+func TestGroupsAgainstRest(t *testing.T) {
+	// 56 of 70 narratives of "north" against 48 of the other 80: the NewcombeDiff
+	// example (statsmodels fixture in TestNewcombeDiff).
+	var docs []Doc
+	add := func(g string, n int, theta []float64) {
+		for i := 0; i < n; i++ {
+			docs = append(docs, Doc{Group: g, Theta: theta})
+		}
+	}
+	add("north", 56, []float64{1, 0})
+	add("north", 14, []float64{0, 1})
+	add("south", 30, []float64{1, 0})
+	add("south", 20, []float64{0, 1})
+	add("west", 18, []float64{1, 0})
+	add("west", 12, []float64{0, 1})
+	g, err := Groups(docs, GroupSettings{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	i := 0 // north
+	d, l, h := NewcombeDiff(56, 70, 48, 80, 0.95)
+	if g.Groups[i] != "north" || g.Rest[i][0] != 48.0/80 || g.Diff[i][0] != d || g.DiffLow[i][0] != l || g.DiffHigh[i][0] != h {
+		t.Errorf("north against the rest: %v %v [%v, %v]", g.Rest[i][0], g.Diff[i][0], g.DiffLow[i][0], g.DiffHigh[i][0])
+	}
+	row := g.Table(nil, Publish{}).Rows[0]
+	if len(row) != 16 || row[13] != fmtFloat(d) || row[14] != fmtFloat(l) {
+		t.Errorf("row %v", row)
+	}
+}

@@ -43,6 +43,13 @@ type PoissonTrend struct {
 	// RateRatio is exp(β1), Low and High its Wald interval exp(β1 ∓ z·se) at the
 	// requested level, using the quasi-Poisson se when φ > 1 and the Poisson se otherwise.
 	RateRatio, Low, High float64
+	// First and Last are the first and last months with data; FirstShare and LastShare
+	// the model's fitted share in them, exp(β0 + β1·x), with Wald intervals
+	// exp(η ∓ z·sqrt(xᵀVx)) on the log scale (V the covariance of β, times φ when
+	// φ > 1): "the share went from about FirstShare to about LastShare".
+	First, Last                     Month
+	FirstShare, FirstLow, FirstHigh float64
+	LastShare, LastLow, LastHigh    float64
 }
 
 // ErrNoTrend is returned when a trend cannot be estimated: fewer than three months with
@@ -153,6 +160,25 @@ func Poisson(s *Series, theme int, conf float64) (*PoissonTrend, error) {
 	}
 	r.RateRatio = math.Exp(beta[1])
 	r.Low, r.High = math.Exp(beta[1]-z*se), math.Exp(beta[1]+z*se)
+	scale := 1.0
+	if r.Dispersion > 1 {
+		scale = r.Dispersion
+	}
+	fitted := func(x float64) (share, low, high float64) {
+		eta := beta[0] + beta[1]*x
+		sd := math.Sqrt(scale * (cov[0][0] + 2*x*cov[0][1] + x*x*cov[1][1]))
+		return math.Exp(eta), math.Exp(eta - z*sd), math.Exp(eta + z*sd)
+	}
+	for _, mi := range s.Months {
+		if !mi.Gap {
+			if r.First == 0 && r.Last == 0 {
+				r.First = mi.Month
+			}
+			r.Last = mi.Month
+		}
+	}
+	r.FirstShare, r.FirstLow, r.FirstHigh = fitted(x[0])
+	r.LastShare, r.LastLow, r.LastHigh = fitted(x[n-1])
 	return r, nil
 }
 

@@ -10,7 +10,7 @@ import (
 func TestLongRunFixture(t *testing.T) {
 	// Expected values: testdata/longrun.json, made by testdata/gen_longrun.py with
 	// Debian's python3-statsmodels (GLM Poisson with log(total) offset; scale="X2" for
-	// the quasi-Poisson se) and python3-scipy (kendalltau, theilslopes), plus a hand
+	// the quasi-Poisson se; get_prediction for the fitted first and last shares) and python3-scipy (kendalltau, theilslopes), plus a hand
 	// Mann–Kendall with tie and continuity corrections.
 	var fx struct {
 		Cases []struct {
@@ -21,6 +21,7 @@ func TestLongRunFixture(t *testing.T) {
 			Lr_p, Dispersion, Quasi_se        float64
 			Quasi_p, Mk_s, Mk_var, Mk_z, Mk_p float64
 			Scipy_tau, Sen_slope              float64
+			Fitted_first, Fitted_last         []float64
 		}
 	}
 	readFixture(t, "longrun.json", &fx)
@@ -53,6 +54,9 @@ func TestLongRunFixture(t *testing.T) {
 			{"LR p", r.LRP, c.Lr_p}, {"dispersion", r.Dispersion, c.Dispersion},
 			{"quasi se", r.QuasiSE, c.Quasi_se}, {"quasi p", r.QuasiP, c.Quasi_p},
 			{"rate ratio", r.RateRatio, math.Exp(c.Beta[1])},
+			{"first share", r.FirstShare, c.Fitted_first[0]}, {"first low", r.FirstLow, c.Fitted_first[1]},
+			{"first high", r.FirstHigh, c.Fitted_first[2]}, {"last share", r.LastShare, c.Fitted_last[0]},
+			{"last low", r.LastLow, c.Fitted_last[1]}, {"last high", r.LastHigh, c.Fitted_last[2]},
 		} {
 			if !close(chk.got, chk.want, tol) {
 				t.Errorf("%s %s = %v, statsmodels %v", c.Name, chk.name, chk.got, chk.want)

@@ -68,6 +68,9 @@ func inSeasonalBaseline(t, m Month, b, w int) bool {
 	return d >= 12-w && d <= 12*b+w && ((d+w)%12) <= 2*w
 }
 
+// pct0 formats a share as a whole percentage, "12%".
+func pct0(x float64) string { return strconv.FormatFloat(100*x, 'f', 0, 64) + "%" }
+
 // pBand returns the band of p-value x: "<0.001", "<0.01", "<0.05" or ">=0.05".
 func pBand(x float64) string {
 	switch {
@@ -187,6 +190,11 @@ func FlagTable(s *Series, flags []Flag, cs ChangeSettings, labels []string, p Pu
 //	mk_s, mk_z, mk_p    Mann–Kendall S, Z and two-sided p on the monthly share
 //	kendall_tau         Kendall's τ_b of share against time
 //	sen_slope           Theil–Sen slope of the share per year
+//	first_share         the Poisson model's fitted share in the first month with data
+//	first_low           lower end of its interval
+//	first_high          upper end
+//	last_share          fitted share in the last month with data
+//	last_low, last_high its interval
 //	explanation         the result in plain words, or why there is none
 //
 // p-values below 0.0001 are in e notation. A theme whose total count is withheld has
@@ -205,7 +213,10 @@ func TrendTable(s *Series, labels []string, conf float64, p Publish) *Table {
 		Column{"rate_ratio_high", Number}, Column{"wald_z", Number}, Column{"wald_p", Number},
 		Column{"lr_stat", Number}, Column{"lr_p", Number}, Column{"dispersion", Number},
 		Column{"quasi_z", Number}, Column{"quasi_p", Number}, Column{"mk_s", Number}, Column{"mk_z", Number},
-		Column{"mk_p", Number}, Column{"kendall_tau", Number}, Column{"sen_slope", Number}, Column{"explanation", Text})
+		Column{"mk_p", Number}, Column{"kendall_tau", Number}, Column{"sen_slope", Number},
+		Column{"first_share", Number}, Column{"first_low", Number}, Column{"first_high", Number},
+		Column{"last_share", Number}, Column{"last_low", Number}, Column{"last_high", Number},
+		Column{"explanation", Text})
 	m := SuppressSeries(s, p)
 	if conf == 0 {
 		conf = 0.95
@@ -230,7 +241,7 @@ func TrendTable(s *Series, labels []string, conf float64, p Publish) *Table {
 		row[0], row[1], row[2] = strconv.Itoa(k), label(labels, k), strconv.Itoa(months)
 		if m.ThemeCount[k] {
 			row[3] = p.mark(float64(total))
-			row[19] = "Withheld: the theme's count is below the publication threshold or withheld with one."
+			row[len(row)-1] = "Withheld: the theme's count is below the publication threshold or withheld with one."
 			t.Rows = append(t.Rows, row)
 			continue
 		}
@@ -260,8 +271,11 @@ func TrendTable(s *Series, labels []string, conf float64, p Publish) *Table {
 			if pt.Dispersion > 1 {
 				test, pv = "quasi-Poisson Wald", pt.QuasiP
 			}
-			ex = append(ex, fmt.Sprintf("From %s to %s this theme's share of narratives changed by a factor of %.2f per year (%g%% interval %.2f to %.2f; %s test p %s).",
-				first, last, pt.RateRatio, 100*conf, pt.Low, pt.High, test, pText(pval(pv))))
+			row[19], row[20], row[21] = num(pt.FirstShare), num(pt.FirstLow), num(pt.FirstHigh)
+			row[22], row[23], row[24] = num(pt.LastShare), num(pt.LastLow), num(pt.LastHigh)
+			ex = append(ex, fmt.Sprintf("From %s to %s this theme's fitted share of narratives went from about %s (%g%% interval %s to %s) to about %s (%s to %s), a factor of %.2f per year (%.2f to %.2f; %s test p %s).",
+				first, last, pct0(pt.FirstShare), 100*conf, pct0(pt.FirstLow), pct0(pt.FirstHigh),
+				pct0(pt.LastShare), pct0(pt.LastLow), pct0(pt.LastHigh), pt.RateRatio, pt.Low, pt.High, test, pText(pval(pv))))
 		}
 		if err2 == nil {
 			row[14], row[15], row[16] = mkS(mk.S), stat(mk.Z), pval(mk.P)
@@ -276,7 +290,7 @@ func TrendTable(s *Series, labels []string, conf float64, p Publish) *Table {
 			ex = append(ex, "Some monthly counts of this theme are withheld, so these results are rounded.")
 		}
 		ex = append(ex, "This describes what the narratives were written about, not how often anything happened.")
-		row[19] = strings.Join(ex, " ")
+		row[len(row)-1] = strings.Join(ex, " ")
 		t.Rows = append(t.Rows, row)
 	}
 	return t
@@ -295,14 +309,20 @@ func TrendTable(s *Series, labels []string, conf float64, p Publish) *Table {
 //	chisq_expected  count expected if group and dominant theme were independent
 //	adj_residual    adjusted standardised residual (see ChiSquare)
 //	stands_out      true if |adj_residual| exceeds the test's critical value
+//	rest_share      the theme's share among the narratives of all other groups
+//	diff            share − rest_share
+//	diff_low        lower end of the hybrid score interval of diff (NewcombeDiff)
+//	diff_high       upper end
 //
 // Withholding as in SeriesTable; residuals and stands_out of withheld cells are
-// "withheld" and "", and chisq_expected is "withheld" when a total behind it is withheld.
+// "withheld" and "", and chisq_expected, rest_share and the diff columns are "withheld"
+// when the cell or a total behind them is withheld.
 func (g *GroupTable) Table(labels []string, p Publish) *Table {
 	t := newTable("groups", p, Column{"group", Text}, Column{"theme", Number}, Column{"label", Text},
 		Column{"count", Number}, Column{"expected", Number}, Column{"group_total", Number}, Column{"share", Number},
 		Column{"low", Number}, Column{"high", Number}, Column{"chisq_expected", Number},
-		Column{"adj_residual", Number}, Column{"stands_out", Bool})
+		Column{"adj_residual", Number}, Column{"stands_out", Bool}, Column{"rest_share", Number},
+		Column{"diff", Number}, Column{"diff_low", Number}, Column{"diff_high", Number})
 	m := SuppressGroups(g, p)
 	for i, name := range g.Groups {
 		for k := 0; k < g.Themes; k++ {
@@ -313,6 +333,10 @@ func (g *GroupTable) Table(labels []string, p Publish) *Table {
 				withheld(m.Share[i][k], Hidden, fmtFloat(g.Share[i][k])),
 				withheld(m.Share[i][k], Hidden, fmtFloat(g.Low[i][k])),
 				withheld(m.Share[i][k], Hidden, fmtFloat(g.High[i][k])), "", "", ""}
+			margins := m.RowTotal[i] || m.ThemeCount[k] || m.Grand
+			for _, v := range []float64{g.Rest[i][k], g.Diff[i][k], g.DiffLow[i][k], g.DiffHigh[i][k]} {
+				row = append(row, withheld(margins || m.Count[i][k], Hidden, fmtFloat(v)))
+			}
 			if g.Test != nil {
 				row[9] = withheld(m.RowTotal[i] || m.ThemeCount[k] || m.Grand, Hidden, fmtFloat(g.Test.Expected[i][k]))
 				row[10] = withheld(m.Share[i][k], Hidden, fmtFloat(g.Test.Residual[i][k]))

@@ -55,3 +55,27 @@ func zFor(conf float64) float64 {
 	}
 	return distuv.UnitNormal.Quantile(1 - (1-conf)/2)
 }
+
+// NewcombeDiff returns the difference p1 − p2 of two independent proportions x1/n1 and
+// x2/n2 and its hybrid score interval (Newcombe 1998, "Interval estimation for the
+// difference between independent proportions: comparison of eleven methods",
+// Statistics in Medicine 17:873–890, method 10), built from the two Wilson intervals
+// (l1, u1) and (l2, u2) at level conf (0 means 0.95):
+//
+//	d    = p1 − p2
+//	low  = d − sqrt((p1 − l1)² + (u2 − p2)²)
+//	high = d + sqrt((u1 − p1)² + (p2 − l2)²)
+//
+// It returns NaN for all three if n1 or n2 is 0, and panics as Wilson does.
+func NewcombeDiff(x1, n1, x2, n2 int, conf float64) (diff, low, high float64) {
+	l1, u1 := Wilson(x1, n1, conf)
+	l2, u2 := Wilson(x2, n2, conf)
+	if n1 == 0 || n2 == 0 {
+		return math.NaN(), math.NaN(), math.NaN()
+	}
+	p1, p2 := float64(x1)/float64(n1), float64(x2)/float64(n2)
+	diff = p1 - p2
+	low = diff - math.Sqrt((p1-l1)*(p1-l1)+(u2-p2)*(u2-p2))
+	high = diff + math.Sqrt((u1-p1)*(u1-p1)+(p2-l2)*(p2-l2))
+	return diff, low, high
+}

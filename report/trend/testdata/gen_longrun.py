@@ -50,6 +50,11 @@ for name, (totals, counts) in series.items():
     fit = model.fit(start_params=fit.params)
     quasi = model.fit(scale="X2", start_params=fit.params)
     null = sm.GLM(y, np.ones((len(y), 1)), family=sm.families.Poisson(), offset=np.log(n)).fit()
+    best = quasi if fit.pearson_chi2 / fit.df_resid > 1 else fit
+    fitted = []
+    for x0 in (t[0], t[-1]):
+        f = best.get_prediction(np.array([[1.0, x0]]), offset=np.zeros(1)).summary_frame(alpha=0.05)
+        fitted.append([float(f["mean"].iloc[0]), float(f["mean_ci_lower"].iloc[0]), float(f["mean_ci_upper"].iloc[0])])
     share = y / n
     tau = st.kendalltau(t, share, method="asymptotic")
     S = 0
@@ -74,5 +79,6 @@ for name, (totals, counts) in series.items():
         "mk_s": float(S), "mk_var": float(var), "mk_z": float(z), "mk_p": float(p),
         "scipy_tau": float(tau.correlation), "scipy_tau_p_no_cc": float(tau.pvalue),
         "sen_slope": float(sen[0]),
+        "fitted_first": fitted[0], "fitted_last": fitted[1],
     })
 print(json.dumps(out, indent=1))
