@@ -114,3 +114,21 @@ func TestEscaping(t *testing.T) {
 		t.Error("label not found escaped as HTML text and as JS string")
 	}
 }
+
+// An empty Data still renders a whole page (with the cautions), and a theme without
+// months, groups or examples does not break it.
+func TestRenderSparse(t *testing.T) {
+	for name, d := range map[string]*Data{
+		"empty":       {},
+		"bare themes": {Themes: []Theme{{ID: 0, Label: "a"}, {ID: 1, Label: "b", Months: []MonthPoint{{Month: "2024-01", Gap: true}}}}},
+	} {
+		var buf bytes.Buffer
+		if err := Render(&buf, d); err != nil {
+			t.Errorf("%s: %v", name, err)
+			continue
+		}
+		if !strings.Contains(buf.String(), "check with counsel") || !strings.Contains(buf.String(), "</html>") {
+			t.Errorf("%s: page incomplete", name)
+		}
+	}
+}
