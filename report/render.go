@@ -228,6 +228,9 @@ func Validate(d *Data) error {
 			return invalid(fmt.Sprintf("Themes[%d].ID", i), "theme %d appears twice", t.ID)
 		}
 		seen[t.ID] = true
+		if strings.TrimSpace(t.Label) == "" {
+			return invalid(fmt.Sprintf("Themes[%d].Label", i), "theme %d has no label", t.ID)
+		}
 		for j, p := range t.Months {
 			for _, v := range []float64{p.Share, p.Low, p.High} {
 				if math.IsNaN(v) || math.IsInf(v, 0) {
