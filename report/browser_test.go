@@ -401,11 +401,11 @@ func TestBrowser(t *testing.T) {
 		}
 		time.Sleep(50 * time.Millisecond)
 	}
-	open := filepath.Join(t.TempDir(), "canary-open.html")
-	if err := os.WriteFile(open, []byte(`<!DOCTYPE html><img src="http://192.0.2.1/open.png">`), 0o644); err != nil {
+	openPage := filepath.Join(t.TempDir(), "canary-open.html")
+	if err := os.WriteFile(openPage, []byte(`<!DOCTYPE html><img src="http://192.0.2.1/open.png">`), 0o644); err != nil {
 		t.Fatal(err)
 	}
-	if err := chromedp.Do(ctx, chromedp.Navigate("file://"+open)); err != nil {
+	if err := chromedp.Do(ctx, chromedp.Navigate("file://"+openPage)); err != nil {
 		t.Fatal(err)
 	}
 	for deadline = time.Now().Add(5 * time.Second); ; time.Sleep(50 * time.Millisecond) {

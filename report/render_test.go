@@ -2,6 +2,7 @@ package report
 
 import (
 	"bytes"
+	"encoding/json"
 	"errors"
 	"math"
 	"os"
@@ -110,6 +111,12 @@ func TestEscaping(t *testing.T) {
 	}
 	if n := strings.Count(strings.ToLower(page), "<script"); n != 3 {
 		t.Errorf("%d script elements, want 3 (runtime, our script, the JSON block)", n)
+	}
+	// The chart options block is valid JSON.
+	_, rest, _ := strings.Cut(page, `<script type="application/json" id="uc-charts">`)
+	block, _, _ := strings.Cut(rest, "</script>")
+	if !json.Valid([]byte(block)) {
+		t.Error("chart options block is not valid JSON")
 	}
 	if !strings.Contains(page, "&lt;svg onload=alert(1)&gt;") || !strings.Contains(page, `\u003csvg onload=alert(1)\u003e`) {
 		t.Error("label not found escaped as HTML text and as JS string")
