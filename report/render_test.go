@@ -58,6 +58,8 @@ func TestValidate(t *testing.T) {
 		{"merge of a future cluster", func(d *Data) { d.Tree.Merges[0].Left = len(d.Tree.Leaves) + 3 }, "does not exist yet"},
 		{"cluster merged twice", func(d *Data) { d.Tree.Merges[1] = d.Tree.Merges[0]; d.Tree.Merges[1].Height = d.Tree.Merges[2].Height }, "merged twice"},
 		{"height falls", func(d *Data) { d.Tree.Merges[2].Height = -1 }, "below the previous merge"},
+		{"bad month", func(d *Data) { d.Themes[0].Months[2].Month = "2023-13" }, `"2023-13" is not YYYY-MM`},
+		{"months out of order", func(d *Data) { d.Themes[0].Months[2].Month = "2023-01" }, "2023-01 does not come after 2023-02"},
 		{"no label", func(d *Data) { d.Themes[2].Label = " " }, "has no label"},
 		{"NaN share", func(d *Data) { d.Themes[0].Months[3].Share = math.NaN() }, "not finite"},
 	} {
