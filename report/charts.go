@@ -6,7 +6,6 @@ import (
 
 	"github.com/go-echarts/go-echarts/v2/charts"
 	"github.com/go-echarts/go-echarts/v2/opts"
-	"github.com/go-echarts/go-echarts/v2/types"
 )
 
 // Palette is the colour-blind-safe palette of Okabe and Ito (2008, "Color Universal
@@ -22,7 +21,6 @@ var (
 	colFlag   = Palette[6] // vermillion: flagged months
 	colAccent = Palette[1] // orange: recommended K, partial months
 	colInk    = "#1f2a36"
-	colMuted  = "#6b7380"
 )
 
 // chartSpec is one chart: the id of its container, its height in pixels and the echarts
@@ -325,5 +323,3 @@ func kChart(kc *KChoice) chartSpec {
 	line.Validate()
 	return chartSpec{ID: id, Height: 300, Label: "Choosing the number of themes", Option: line.JSON()}
 }
-
-var _ = types.ChartLine
