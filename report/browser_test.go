@@ -385,7 +385,7 @@ func TestBrowser(t *testing.T) {
 	if err := chromedp.Do(ctx, chromedp.Navigate("file://"+canary)); err != nil {
 		t.Fatal(err)
 	}
-	deadline := time.Now().Add(5 * time.Second)
+	deadline := time.Now().Add(10 * time.Second)
 	for {
 		console, _ = ev.snapshot()
 		var sawCSP, sawError bool
@@ -408,7 +408,7 @@ func TestBrowser(t *testing.T) {
 	if err := chromedp.Do(ctx, chromedp.Navigate("file://"+openPage)); err != nil {
 		t.Fatal(err)
 	}
-	for deadline = time.Now().Add(5 * time.Second); ; time.Sleep(50 * time.Millisecond) {
+	for deadline = time.Now().Add(10 * time.Second); ; time.Sleep(50 * time.Millisecond) {
 		_, requests = ev.snapshot()
 		if slices.Contains(requests, "http://192.0.2.1/open.png") {
 			break

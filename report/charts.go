@@ -188,6 +188,20 @@ func treeChart(tr *Tree) (chartSpec, []int) {
 	sc.AddSeries("themes", leaves,
 		charts.WithLabelOpts(opts.Label{Show: opts.Bool(true), Position: "left", Formatter: "{b}", Color: colInk}),
 		charts.WithItemStyleOpts(opts.ItemStyle{Color: colLine}))
+	// Themes in a suggested pair get a vermillion diamond beside their dot.
+	inPair := map[int]bool{}
+	for _, sg := range tr.Suggestions {
+		inPair[sg.A], inPair[sg.B] = true, true
+	}
+	var marks []opts.ScatterData
+	for rank, leaf := range order {
+		if inPair[tr.Leaves[leaf].Theme] {
+			marks = append(marks, opts.ScatterData{Name: shortLabel(tr.Leaves[leaf].Label), Value: []float64{0, float64(rank)}, Symbol: "diamond", SymbolSize: 12})
+		}
+	}
+	if len(marks) > 0 {
+		sc.AddSeries("in a suggested pair", marks, charts.WithItemStyleOpts(opts.ItemStyle{Color: colFlag}))
+	}
 	line.Overlap(sc)
 	line.Validate()
 	return chartSpec{ID: id, Height: 40 + 26*max(n, 4), Label: "Theme tree", Option: line.JSON()}, order
