@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"os"
 	"path/filepath"
+	"slices"
 	"strings"
 	"sync"
 	"testing"
@@ -372,6 +373,50 @@ func TestBrowser(t *testing.T) {
 		t.Error("no request seen at all: the network listener is not working")
 	}
 	t.Logf("requests: %v; browser test took %v", requests, time.Since(start))
+
+	// Negative control: the listeners do see a page that tries the network, with and
+	// without a CSP that blocks it. 192.0.2.1 is TEST-NET-1 (RFC 5737): never routed.
+	canary := filepath.Join(t.TempDir(), "canary.html")
+	page := `<!DOCTYPE html><html><head><meta charset="utf-8"><meta http-equiv="Content-Security-Policy" content="img-src data:"></head>` +
+		`<body><img src="http://192.0.2.1/blocked.png"><script>console.error("canary")</script></body></html>`
+	if err := os.WriteFile(canary, []byte(page), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if err := chromedp.Do(ctx, chromedp.Navigate("file://"+canary)); err != nil {
+		t.Fatal(err)
+	}
+	deadline := time.Now().Add(10 * time.Second)
+	for {
+		console, _ = ev.snapshot()
+		var sawCSP, sawError bool
+		for _, c := range console {
+			sawCSP = sawCSP || strings.Contains(c, "192.0.2.1")
+			sawError = sawError || strings.Contains(c, "canary")
+		}
+		if sawCSP && sawError {
+			break
+		}
+		if time.Now().After(deadline) {
+			t.Fatalf("negative control: the listeners missed the blocked request or the console error: %q", console)
+		}
+		time.Sleep(50 * time.Millisecond)
+	}
+	openPage := filepath.Join(t.TempDir(), "canary-open.html")
+	if err := os.WriteFile(openPage, []byte(`<!DOCTYPE html><img src="http://192.0.2.1/open.png">`), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if err := chromedp.Do(ctx, chromedp.Navigate("file://"+openPage)); err != nil {
+		t.Fatal(err)
+	}
+	for deadline = time.Now().Add(10 * time.Second); ; time.Sleep(50 * time.Millisecond) {
+		_, requests = ev.snapshot()
+		if slices.Contains(requests, "http://192.0.2.1/open.png") {
+			break
+		}
+		if time.Now().After(deadline) {
+			t.Fatalf("negative control: the network listener missed a request: %q", requests)
+		}
+	}
 }
 
 func writeArtifact(tb testing.TB, dir, name string, b []byte) {

@@ -6,7 +6,6 @@ import (
 
 	"github.com/go-echarts/go-echarts/v2/charts"
 	"github.com/go-echarts/go-echarts/v2/opts"
-	"github.com/go-echarts/go-echarts/v2/types"
 )
 
 // Palette is the colour-blind-safe palette of Okabe and Ito (2008, "Color Universal
@@ -22,7 +21,6 @@ var (
 	colFlag   = Palette[6] // vermillion: flagged months
 	colAccent = Palette[1] // orange: recommended K, partial months
 	colInk    = "#1f2a36"
-	colMuted  = "#6b7380"
 )
 
 // chartSpec is one chart: the id of its container, its height in pixels and the echarts
@@ -190,6 +188,20 @@ func treeChart(tr *Tree) (chartSpec, []int) {
 	sc.AddSeries("themes", leaves,
 		charts.WithLabelOpts(opts.Label{Show: opts.Bool(true), Position: "left", Formatter: "{b}", Color: colInk}),
 		charts.WithItemStyleOpts(opts.ItemStyle{Color: colLine}))
+	// Themes in a suggested pair get a vermillion diamond beside their dot.
+	inPair := map[int]bool{}
+	for _, sg := range tr.Suggestions {
+		inPair[sg.A], inPair[sg.B] = true, true
+	}
+	var marks []opts.ScatterData
+	for rank, leaf := range order {
+		if inPair[tr.Leaves[leaf].Theme] {
+			marks = append(marks, opts.ScatterData{Name: shortLabel(tr.Leaves[leaf].Label), Value: []float64{0, float64(rank)}, Symbol: "diamond", SymbolSize: 12})
+		}
+	}
+	if len(marks) > 0 {
+		sc.AddSeries("in a suggested pair", marks, charts.WithItemStyleOpts(opts.ItemStyle{Color: colFlag}))
+	}
 	line.Overlap(sc)
 	line.Validate()
 	return chartSpec{ID: id, Height: 40 + 26*max(n, 4), Label: "Theme tree", Option: line.JSON()}, order
@@ -325,5 +337,3 @@ func kChart(kc *KChoice) chartSpec {
 	line.Validate()
 	return chartSpec{ID: id, Height: 300, Label: "Choosing the number of themes", Option: line.JSON()}
 }
-
-var _ = types.ChartLine

@@ -12,6 +12,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"regexp"
 	"slices"
 	"strconv"
 	"strings"
@@ -209,6 +210,8 @@ type ValidationError struct {
 func (e *ValidationError) Error() string { return "report: " + e.Field + ": " + e.Err.Error() }
 func (e *ValidationError) Unwrap() error { return e.Err }
 
+var monthRE = regexp.MustCompile(`^[0-9]{4}-(0[1-9]|1[0-2])$`)
+
 // ErrInvalid is wrapped by every ValidationError.
 var ErrInvalid = errors.New("invalid report data")
 
@@ -228,7 +231,16 @@ func Validate(d *Data) error {
 			return invalid(fmt.Sprintf("Themes[%d].ID", i), "theme %d appears twice", t.ID)
 		}
 		seen[t.ID] = true
+		if strings.TrimSpace(t.Label) == "" {
+			return invalid(fmt.Sprintf("Themes[%d].Label", i), "theme %d has no label", t.ID)
+		}
 		for j, p := range t.Months {
+			if !monthRE.MatchString(p.Month) {
+				return invalid(fmt.Sprintf("Themes[%d].Months[%d].Month", i, j), "%q is not YYYY-MM", p.Month)
+			}
+			if j > 0 && p.Month <= t.Months[j-1].Month {
+				return invalid(fmt.Sprintf("Themes[%d].Months[%d].Month", i, j), "%s does not come after %s", p.Month, t.Months[j-1].Month)
+			}
 			for _, v := range []float64{p.Share, p.Low, p.High} {
 				if math.IsNaN(v) || math.IsInf(v, 0) {
 					return invalid(fmt.Sprintf("Themes[%d].Months[%d]", i, j), "share or interval not finite")

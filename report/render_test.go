@@ -2,6 +2,7 @@ package report
 
 import (
 	"bytes"
+	"encoding/json"
 	"errors"
 	"math"
 	"os"
@@ -57,6 +58,9 @@ func TestValidate(t *testing.T) {
 		{"merge of a future cluster", func(d *Data) { d.Tree.Merges[0].Left = len(d.Tree.Leaves) + 3 }, "does not exist yet"},
 		{"cluster merged twice", func(d *Data) { d.Tree.Merges[1] = d.Tree.Merges[0]; d.Tree.Merges[1].Height = d.Tree.Merges[2].Height }, "merged twice"},
 		{"height falls", func(d *Data) { d.Tree.Merges[2].Height = -1 }, "below the previous merge"},
+		{"bad month", func(d *Data) { d.Themes[0].Months[2].Month = "2023-13" }, `"2023-13" is not YYYY-MM`},
+		{"months out of order", func(d *Data) { d.Themes[0].Months[2].Month = "2023-01" }, "2023-01 does not come after 2023-02"},
+		{"no label", func(d *Data) { d.Themes[2].Label = " " }, "has no label"},
 		{"NaN share", func(d *Data) { d.Themes[0].Months[3].Share = math.NaN() }, "not finite"},
 	} {
 		d := Sample(SampleSettings{Themes: 5, Seed: 2})
@@ -110,7 +114,31 @@ func TestEscaping(t *testing.T) {
 	if n := strings.Count(strings.ToLower(page), "<script"); n != 3 {
 		t.Errorf("%d script elements, want 3 (runtime, our script, the JSON block)", n)
 	}
+	// The chart options block is valid JSON.
+	_, rest, _ := strings.Cut(page, `<script type="application/json" id="uc-charts">`)
+	block, _, _ := strings.Cut(rest, "</script>")
+	if !json.Valid([]byte(block)) {
+		t.Error("chart options block is not valid JSON")
+	}
 	if !strings.Contains(page, "&lt;svg onload=alert(1)&gt;") || !strings.Contains(page, `\u003csvg onload=alert(1)\u003e`) {
 		t.Error("label not found escaped as HTML text and as JS string")
+	}
+}
+
+// An empty Data still renders a whole page (with the cautions), and a theme without
+// months, groups or examples does not break it.
+func TestRenderSparse(t *testing.T) {
+	for name, d := range map[string]*Data{
+		"empty":       {},
+		"bare themes": {Themes: []Theme{{ID: 0, Label: "a"}, {ID: 1, Label: "b", Months: []MonthPoint{{Month: "2024-01", Gap: true}}}}},
+	} {
+		var buf bytes.Buffer
+		if err := Render(&buf, d); err != nil {
+			t.Errorf("%s: %v", name, err)
+			continue
+		}
+		if !strings.Contains(buf.String(), "check with counsel") || !strings.Contains(buf.String(), "</html>") {
+			t.Errorf("%s: page incomplete", name)
+		}
 	}
 }

@@ -312,9 +312,24 @@ func wilson(c, n int, z float64) (lo, hi float64) {
 	return math.Max(0, mid-half), math.Min(1, mid+half)
 }
 
+// sampleSentences are invented narrative sentences; each %s takes one of the theme's
+// words, which become highlighted segments.
+var sampleSentences = []string{
+	"Reporting party stated there was a problem with %s and %s again this week.",
+	"On arrival units spoke with [NAME], who said the %s started after the %s.",
+	"[NAME] advised that %s had been an issue before and asked about %s.",
+	"Officers checked the area for %s; nothing further about %s was found.",
+	"Caller described %s near the corner and wanted someone to look at the %s.",
+	"Per [NAME] the %s was reported to the manager, who mentioned %s.",
+	"Advised both parties; %s noted in the log together with %s.",
+}
+
 func sampleNarrative(rng *rand.Rand, words []string) []Segment {
 	var segs []Segment
 	add := func(text string, hit bool) {
+		if text == "" {
+			return
+		}
 		if !hit && len(segs) > 0 && !segs[len(segs)-1].Hit {
 			segs[len(segs)-1].Text += text
 			return
@@ -322,13 +337,16 @@ func sampleNarrative(rng *rand.Rand, words []string) []Segment {
 		segs = append(segs, Segment{Text: text, Hit: hit})
 	}
 	add(fmt.Sprintf("At about %02d%02d hrs units attended %d %s. ", rng.IntN(24), rng.IntN(60), 1+rng.IntN(200), sampleStreets[rng.IntN(len(sampleStreets))]), false)
-	n := 3 + rng.IntN(3)
+	n := 2 + rng.IntN(3)
 	for i := 0; i < n; i++ {
-		add("The "+sampleFiller[rng.IntN(len(sampleFiller))]+" ", false)
-		add(words[rng.IntN(len(words))], true)
-		add(" "+sampleFiller[rng.IntN(len(sampleFiller))]+" [NAME] ", false)
-		add(words[rng.IntN(len(words))], true)
-		add(". ", false)
+		parts := strings.Split(sampleSentences[rng.IntN(len(sampleSentences))], "%s")
+		for j, part := range parts {
+			add(part, false)
+			if j < len(parts)-1 {
+				add(words[rng.IntN(len(words))], true)
+			}
+		}
+		add(" ", false)
 	}
 	add("Call back on 555-0142 if needed.", false)
 	return segs

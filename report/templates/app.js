@@ -84,7 +84,7 @@
     }
     function apply() {
       var q = input.value.trim().toLowerCase();
-      var shown = 0, visible = {};
+      var shown = 0, visible = {}, exMatched = 0;
       for (var i = 0; i < themes.length; i++) {
         var th = themes[i];
         var exs = th.querySelectorAll(".uc-example");
@@ -92,7 +92,7 @@
         var exHits = 0;
         for (var e = 0; e < exs.length; e++) {
           var hit = q === "" || exs[e].textContent.toLowerCase().indexOf(q) >= 0;
-          if (hit) { exHits++; }
+          if (hit) { exHits++; exMatched++; }
           exs[e].hidden = !(hit || headHit);
         }
         var show = headHit || exHits > 0;
@@ -102,7 +102,8 @@
         if (show) { shown++; visible[th.getAttribute("data-theme")] = true; }
       }
       for (var r = 0; r < rows.length; r++) { rows[r].hidden = !visible[rows[r].getAttribute("data-theme")]; }
-      count.textContent = shown + " of " + themes.length + " themes shown";
+      count.textContent = shown + " of " + themes.length + " themes shown" +
+        (q === "" ? "" : "; " + exMatched + " example" + (exMatched === 1 ? "" : "s") + " contain it");
       none.hidden = shown > 0;
     }
     input.addEventListener("input", apply);
