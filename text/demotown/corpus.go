@@ -60,8 +60,8 @@ type NoiseEvent struct {
 
 // HTMLEvent is one piece of planted HTML residue: Narrative[Start:End] == Residue, which
 // decodes to Decoded ("" for <p> and </p>, "\n" for <br />, U+00A0 for &nbsp;, "&" for
-// &amp;, U+2019 for &rsquo; and itself) and replaced Original, the clean text (" ", "",
-// "and" or "'").
+// &amp;, U+2019 for &rsquo; and itself) and replaced Original, the clean text ("", "and",
+// "'", or the space, two spaces or line break between two words or sentences).
 type HTMLEvent struct {
 	Start    int    `json:"start"`
 	End      int    `json:"end"`

@@ -22,7 +22,8 @@
 // a dispatch-log line carrying the incident's own date ("On 3/4/2024 at 2130 hrs I was
 // dispatched to ..."), a date that is not PII; MixRate of the non-routine narratives take one
 // or more body sentences from a second theme (Truth.Themes counts the sentences of each).
-// Monthly volumes vary (MonthCounts): summer months are busier. The
+// Monthly volumes vary (MonthCounts): summer months are busier. Writers' layout habits vary
+// too: a tenth put two spaces between sentences and a tenth break some lines or paragraphs. The
 // district column favours a theme's district (60% of its narratives) and the call type
 // agrees with the theme 65% of the time (Truth.CallTypeMatches).
 //

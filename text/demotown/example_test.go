@@ -19,15 +19,20 @@ func ExampleGenerate() {
 		}
 	}
 	// Output:
-	// QM23-000001 1/9/2023 5:12 AM Lantern Hill | TRESPASS | trespass
-	// RP reported subjects camping behind the warehouse on Corriden Ave. A trespass notice was signed by the business owner. The subject was GOA. A lady named Anthony U. Merriwold told me she was waiting for a friend. I advised the individual of shelter options and gave her a bus pass. There was trash and a tent behind the building. Subject arrested for trespass.
-	//   name "Anthony U. Merriwold" at [153,173)
-	// QM23-000002 2/13/2023 1:38 PM Cobble Flats | VEHICLE STOP | mental_health_crisis
-	// On 2/13/2023 at approx 1338 hours I was dispatched to Larkmoor Market reference a suicidal subject. Counselor at the Eastwater boat launch requested help w/ a person who was threatening self harm. A vehicle was parked in front of the home w/ the engine running. The subject did not meet the criteria for an emergency hold. The individual said he had not slept in a month. Family asked for a welfare check after he stopped answering the phone. The individual was very anxious and did not want to be touched. Emergency hold placed, report to follow.
-	// QM23-000003 3/18/2023 6:08 AM Millrace | WARRANT ARREST | theft_from_vehicle
-	// RP stated her silver work van was rummaged through and a backpack was missing. I arrived around 0655 and spoke w/ the comp. The victim explained she locked the vehicle but the door was found open. I checked the vicinity for the susp with negative results. The VIN 82JGN4FE36J85N807 was recorded for the report. The victim will check with the bank about the stolen cards. The suspect was described as a WF wearing a green backpack. Victim Teresa Dellacort stated she did not see anyone in the area. No suspect information. Report taken.
-	//   vin "82JGN4FE36J85N807" at [264,281)
-	//   name "Teresa Dellacort" at [438,454)
+	// QM23-000001 1/9/2023 5:12 AM Sorrel Park | SUSPICIOUS PERSON | trespass
+	// The property manager at Hallowmere Apartments asked for a woman to be removed from the laundry room. I spoke with the lady, identified as Brittany Okonkwele, dob 3/5/87. The alarm at the vacant building had been going off all night. A female named Carrowby, Ana stated she was waiting for a friend. The subject was advised that she was trespassed from the property for one year. I checked the building and found an open window in the back. Subject trespassed and left. Cleared.
+	//   name "Brittany Okonkwele" at [138,156)
+	//   dob "3/5/87" at [162,168)
+	//   name "Carrowby, Ana" at [248,261)
+	// QM23-000002 2/2/2023 1:11 AM Sorrel Park | TRESPASS | trespass
+	// Unwanted person at 5443 Gorsebury Ter, subject refusing to leave. I met with the individual, identified as Teresa Okonkwele, DOB 08/20/1992. RP's email is tokonkwele31@example.org. The alarm at the vacant building had been going off all night. The manager said the subject had been asked to leave twice today. Ms. Okonkwele gathered her belongings and departed without problems. Subject escorted off the property. Returned to service, 10-8.
+	//   address "5443 Gorsebury Ter" at [19,37)
+	//   name "Teresa Okonkwele" at [107,123)
+	//   dob "08/20/1992" at [129,139)
+	//   email "tokonkwele31@example.org" at [155,179)
+	//   name "Okonkwele" at [314,323)
+	// QM23-000003 3/16/2023 3:43 AM Cobble Flats | ABANDONED VEHICLE | parking_complaint
+	// Report of a veh with no plates parked in the alley behind Gorsebury Ter. The comp reported this happens every weekend. I told everyone involved to stay away from each other. The veh alarm was going off and had drained the battery. Owner moved the vehicle. Call cleared.
 }
 
 // StreamDir writes incidents.csv and truth.jsonl for any N in flat memory.

@@ -194,6 +194,7 @@ type generator struct {
 	sent     int // index of the first piece of the current sentence
 	capNext  bool
 	female   bool
+	layout   int
 	animal   string
 	date     []byte  // the incident's date, for {date}
 	ihhmm    [4]byte // the incident's time, for {ihhmm}
@@ -491,6 +492,16 @@ func (g *generator) narrative(ti int, t time.Time, tr *Truth) {
 			force = 0
 		}
 	}
+	// Layout habits of the writer: most put one space between sentences, some two
+	// (typewriter style), some break lines or paragraphs.
+	switch k := g.r.IntN(20); {
+	case k < 2:
+		g.layout = layoutTwoSpaces
+	case k < 4:
+		g.layout = layoutLines
+	default:
+		g.layout = layoutOneSpace
+	}
 	// A dispatch-log preamble in front of a fifth of the non-routine narratives.
 	if !routine && L < 12 && g.r.IntN(5) == 0 {
 		g.date = t.AppendFormat(g.date[:0], "1/2/2006")
@@ -500,7 +511,7 @@ func (g *generator) narrative(ti int, t time.Time, tr *Truth) {
 		g.capNext = true
 		g.sent = 0
 		g.expand(preambles[g.r.IntN(len(preambles))], 0)
-		g.add(" ", pkSent)
+		g.add(g.sep(), pkSent)
 		L0++
 	}
 	var used [5]uint64
@@ -537,7 +548,7 @@ func (g *generator) narrative(ti int, t time.Time, tr *Truth) {
 		}
 		used[plan[i]] |= 1 << k
 		if i > 0 {
-			g.add(" ", pkSent)
+			g.add(g.sep(), pkSent)
 		}
 		g.capNext = true
 		g.sent = len(g.pieces)
@@ -553,6 +564,29 @@ func (g *generator) narrative(ti int, t time.Time, tr *Truth) {
 	if nSecond > 0 {
 		tr.Themes = append(tr.Themes, ThemeShare{Theme: themes[si].def.name, Sentences: nSecond})
 	}
+}
+
+// Sentence separators by writer habit.
+const (
+	layoutOneSpace = iota
+	layoutTwoSpaces
+	layoutLines // "\n" or a blank line between some sentences
+)
+
+// sep returns the separator before the next sentence.
+func (g *generator) sep() string {
+	switch g.layout {
+	case layoutTwoSpaces:
+		return "  "
+	case layoutLines:
+		switch g.r.IntN(4) {
+		case 0:
+			return "\n"
+		case 1:
+			return "\n\n"
+		}
+	}
+	return " "
 }
 
 func (g *generator) add(s string, kind pieceKind) {
@@ -1031,9 +1065,9 @@ func (g *generator) render(tr *Truth) string {
 		case pkSent:
 			if html && g.hr.IntN(3) == 0 {
 				out = append(out, "<br />"...)
-				event(start, "<br />", "\n", " ")
+				event(start, "<br />", "\n", p.s)
 			} else {
-				out = append(out, ' ')
+				out = append(out, p.s...)
 			}
 		case pkWord:
 			switch {
