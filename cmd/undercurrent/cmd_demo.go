@@ -17,8 +17,9 @@ func init() {
 		short: "generate the invented demo town's narratives and run the whole job on them",
 		long: `Demo writes an invented town's incident narratives (about 6,000 over 36 months, with
 planted themes, trends, abbreviations, OCR noise, HTML residue and invented personal
-information) into <out>/input/incidents.csv, with the ground truth beside it in
-<out>/input/truth.jsonl, and then runs the whole job ('undercurrent report') on it, with the
+information) into <out>/private-input/incidents.csv, with the ground truth beside it in
+<out>/private-input/truth.jsonl (both hold the raw, unredacted invented text, hence the
+folder's name), and then runs the whole job ('undercurrent report') on it, with the
 district and call_type columns as groups. Everything in it is invented: the town, its
 streets, its people; phone numbers are in the 555-0100..555-0199 range reserved for fiction.
 
@@ -40,7 +41,7 @@ Example:
 				if f.out == "out" {
 					f.out = filepath.Join("out", "demo")
 				}
-				inDir := filepath.Join(f.out, "input")
+				inDir := filepath.Join(f.out, "private-input")
 				if err := os.MkdirAll(inDir, 0o755); err != nil {
 					return err
 				}
