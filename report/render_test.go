@@ -41,6 +41,27 @@ func TestRenderSample(t *testing.T) {
 			t.Errorf("page contains %q", bad)
 		}
 	}
+	// Every hit segment of a shown example is marked, and only those; every label a
+	// person chose carries the badge.
+	hits, people := 0, 0
+	for _, th := range d.Themes {
+		for _, e := range th.Examples[:min(5, len(th.Examples))] {
+			for _, s := range e.Segments {
+				if s.Hit {
+					hits++
+				}
+			}
+		}
+		if th.LabelByPerson {
+			people++
+		}
+	}
+	if n := strings.Count(page, "<mark>"); n != hits {
+		t.Errorf("%d <mark> elements, want %d hit segments", n, hits)
+	}
+	if n := strings.Count(page, `<span class="uc-badge uc-person">named by a person</span>`); n != people {
+		t.Errorf("%d person badges on theme sections, want %d", n, people)
+	}
 	path := filepath.Join(artifactDir(t), "sample-report.html")
 	if err := WriteFile(path, d); err != nil {
 		t.Fatal(err)
