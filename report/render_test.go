@@ -150,9 +150,9 @@ func TestEscaping(t *testing.T) {
 // months, groups or examples does not break it.
 func TestRenderSparse(t *testing.T) {
 	for name, d := range map[string]*Data{
-		"empty":       {},
+		"empty":                        {},
 		"suggestion of unknown themes": {Tree: Tree{Leaves: []TreeLeaf{{Theme: 0, Label: "a"}}, Suggestions: []MergeSuggestion{{A: 5, B: 6}}}},
-		"bare themes": {Themes: []Theme{{ID: 0, Label: "a"}, {ID: 1, Label: "b", Months: []MonthPoint{{Month: "2024-01", Gap: true}}}}},
+		"bare themes":                  {Themes: []Theme{{ID: 0, Label: "a"}, {ID: 1, Label: "b", Months: []MonthPoint{{Month: "2024-01", Gap: true}}}}},
 	} {
 		var buf bytes.Buffer
 		if err := Render(&buf, d); err != nil {
