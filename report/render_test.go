@@ -81,6 +81,8 @@ func TestValidate(t *testing.T) {
 		{"height falls", func(d *Data) { d.Tree.Merges[2].Height = -1 }, "below the previous merge"},
 		{"bad month", func(d *Data) { d.Themes[0].Months[2].Month = "2023-13" }, `"2023-13" is not YYYY-MM`},
 		{"months out of order", func(d *Data) { d.Themes[0].Months[2].Month = "2023-01" }, "2023-01 does not come after 2023-02"},
+		{"NaN group", func(d *Data) { d.Themes[1].Groups[0].High = math.Inf(1) }, "Groups[0]: invalid report data: share or interval not finite"},
+		{"NaN K measure", func(d *Data) { d.KChoice.Rows[1].NPMI = math.NaN() }, "KChoice.Rows[1]"},
 		{"no label", func(d *Data) { d.Themes[2].Label = " " }, "has no label"},
 		{"NaN share", func(d *Data) { d.Themes[0].Months[3].Share = math.NaN() }, "not finite"},
 	} {
