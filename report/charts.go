@@ -19,7 +19,7 @@ var (
 	colLine   = Palette[5] // blue: a theme's share
 	colBand   = Palette[2] // sky blue: its interval
 	colFlag   = Palette[6] // vermillion: flagged months
-	colAccent = Palette[1] // orange: recommended K, partial months
+	colAccent = Palette[1] // orange: recommended K, groups that stand out
 	colInk    = "#1f2a36"
 )
 
@@ -93,30 +93,34 @@ func trendChart(t *Theme) chartSpec {
 		charts.WithGridOpts(opts.Grid{Left: "8", Right: "16", Top: "30", Bottom: "8", ContainLabel: opts.Bool(true)}),
 		charts.WithYAxisOpts(opts.YAxis{Type: "value", Name: "% of month", Scale: opts.Bool(false)}),
 	)
+	// Three series only (each series costs drawing time in a report with many themes):
+	// the band's lower end, its width stacked on it, and the share. Partly covered months
+	// are hollow circles on the share line; flagged months are vermillion diamonds,
+	// drawn as mark points of the share series.
 	months := make([]string, len(t.Months))
 	share := make([]opts.LineData, len(t.Months))
 	low := make([]opts.LineData, len(t.Months))
 	width := make([]opts.LineData, len(t.Months))
-	flags := make([]opts.LineData, len(t.Months))
-	partial := make([]opts.LineData, len(t.Months))
+	var flags []opts.MarkPointNameCoordItem
 	for i, p := range t.Months {
 		months[i] = p.Month
 		if p.Gap || p.Withheld {
-			for _, s := range [][]opts.LineData{share, low, width, flags, partial} {
-				s[i] = opts.LineData{Value: "-"}
-			}
+			share[i], low[i], width[i] = opts.LineData{Value: "-"}, opts.LineData{Value: "-"}, opts.LineData{Value: "-"}
 			continue
 		}
 		share[i] = opts.LineData{Value: pct(p.Share)}
+		if p.Partial {
+			share[i].Symbol, share[i].SymbolSize = "emptyCircle", 9
+		}
 		low[i] = opts.LineData{Value: pct(p.Low)}
 		width[i] = opts.LineData{Value: math.Round((pct(p.High)-pct(p.Low))*100) / 100}
-		flags[i] = opts.LineData{Value: "-"}
 		if p.Flag != "" {
-			flags[i] = opts.LineData{Value: pct(p.Share)}
-		}
-		partial[i] = opts.LineData{Value: "-"}
-		if p.Partial {
-			partial[i] = opts.LineData{Value: pct(p.Share)}
+			flags = append(flags, opts.MarkPointNameCoordItem{
+				Name: "flagged month", Coordinate: []any{p.Month, pct(p.Share)}, Value: p.Flag,
+				Symbol: "diamond", SymbolSize: 16,
+				ItemStyle: &opts.ItemStyle{Color: colFlag},
+				Label:     &opts.Label{Show: opts.Bool(false)},
+			})
 		}
 	}
 	line.SetXAxis(months)
@@ -129,18 +133,15 @@ func trendChart(t *Theme) chartSpec {
 	line.AddSeries("95% interval, width (%)", width, noSym,
 		charts.WithLineStyleOpts(opts.LineStyle{Opacity: opts.Float(0)}),
 		charts.WithAreaStyleOpts(opts.AreaStyle{Color: colBand, Opacity: opts.Float(0.4)}))
-	line.AddSeries("share (%)", share,
+	shareOpts := []charts.SeriesOpts{
 		charts.WithLineChartOpts(opts.LineChart{Symbol: "circle", SymbolSize: 6}),
 		charts.WithLineStyleOpts(opts.LineStyle{Color: colLine, Width: 2}),
-		charts.WithItemStyleOpts(opts.ItemStyle{Color: colLine}))
-	line.AddSeries("flagged month", flags,
-		charts.WithLineChartOpts(opts.LineChart{Symbol: "diamond", SymbolSize: 14}),
-		charts.WithLineStyleOpts(opts.LineStyle{Opacity: opts.Float(0)}),
-		charts.WithItemStyleOpts(opts.ItemStyle{Color: colFlag}))
-	line.AddSeries("partly covered month", partial,
-		charts.WithLineChartOpts(opts.LineChart{Symbol: "emptyCircle", SymbolSize: 9}),
-		charts.WithLineStyleOpts(opts.LineStyle{Opacity: opts.Float(0)}),
-		charts.WithItemStyleOpts(opts.ItemStyle{Color: colAccent}))
+		charts.WithItemStyleOpts(opts.ItemStyle{Color: colLine}),
+	}
+	if len(flags) > 0 {
+		shareOpts = append(shareOpts, charts.WithMarkPointNameCoordItemOpts(flags...))
+	}
+	line.AddSeries("share (%)", share, shareOpts...)
 	line.Validate()
 	return chartSpec{ID: id, Height: 240, Label: "Monthly share of " + t.Label, Option: line.JSON()}
 }

@@ -395,7 +395,7 @@ func (m ThemeMap) Fold(dst, theta []float64) []float64 {
 		dst = make([]float64, len(theta))
 	} else if len(dst) != len(theta) {
 		panic("report: ThemeMap.Fold: slice lengths do not match")
-	} else if &dst[0] == &theta[0] {
+	} else if len(dst) > 0 && &dst[0] == &theta[0] {
 		panic("report: ThemeMap.Fold: dst and theta are the same slice")
 	}
 	clear(dst)

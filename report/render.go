@@ -234,6 +234,19 @@ func Validate(d *Data) error {
 		if strings.TrimSpace(t.Label) == "" {
 			return invalid(fmt.Sprintf("Themes[%d].Label", i), "theme %d has no label", t.ID)
 		}
+		if !finite(t.Size.Expected, t.Size.Share) {
+			return invalid(fmt.Sprintf("Themes[%d].Size", i), "size not finite")
+		}
+		for j, g := range t.Groups {
+			if !finite(g.Share, g.Low, g.High) {
+				return invalid(fmt.Sprintf("Themes[%d].Groups[%d]", i, j), "share or interval not finite")
+			}
+		}
+		for j, e := range t.Examples {
+			if !finite(e.Share) {
+				return invalid(fmt.Sprintf("Themes[%d].Examples[%d].Share", i, j), "not finite")
+			}
+		}
 		for j, p := range t.Months {
 			if !monthRE.MatchString(p.Month) {
 				return invalid(fmt.Sprintf("Themes[%d].Months[%d].Month", i, j), "%q is not YYYY-MM", p.Month)
@@ -246,6 +259,11 @@ func Validate(d *Data) error {
 					return invalid(fmt.Sprintf("Themes[%d].Months[%d]", i, j), "share or interval not finite")
 				}
 			}
+		}
+	}
+	for i, r := range d.KChoice.Rows {
+		if !finite(r.HeldOutLL, r.NPMI, r.UMass, r.Stability) {
+			return invalid(fmt.Sprintf("KChoice.Rows[%d]", i), "measure not finite")
 		}
 	}
 	n := len(d.Tree.Leaves)
@@ -273,6 +291,15 @@ func Validate(d *Data) error {
 		prev = m.Height
 	}
 	return nil
+}
+
+func finite(vs ...float64) bool {
+	for _, v := range vs {
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			return false
+		}
+	}
+	return true
 }
 
 func render(w *bytes.Buffer, d *Data) error {

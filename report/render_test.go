@@ -41,6 +41,27 @@ func TestRenderSample(t *testing.T) {
 			t.Errorf("page contains %q", bad)
 		}
 	}
+	// Every hit segment of a shown example is marked, and only those; every label a
+	// person chose carries the badge.
+	hits, people := 0, 0
+	for _, th := range d.Themes {
+		for _, e := range th.Examples[:min(5, len(th.Examples))] {
+			for _, s := range e.Segments {
+				if s.Hit {
+					hits++
+				}
+			}
+		}
+		if th.LabelByPerson {
+			people++
+		}
+	}
+	if n := strings.Count(page, "<mark>"); n != hits {
+		t.Errorf("%d <mark> elements, want %d hit segments", n, hits)
+	}
+	if n := strings.Count(page, `<span class="uc-badge uc-person">named by a person</span>`); n != people {
+		t.Errorf("%d person badges on theme sections, want %d", n, people)
+	}
 	path := filepath.Join(artifactDir(t), "sample-report.html")
 	if err := WriteFile(path, d); err != nil {
 		t.Fatal(err)
@@ -60,6 +81,8 @@ func TestValidate(t *testing.T) {
 		{"height falls", func(d *Data) { d.Tree.Merges[2].Height = -1 }, "below the previous merge"},
 		{"bad month", func(d *Data) { d.Themes[0].Months[2].Month = "2023-13" }, `"2023-13" is not YYYY-MM`},
 		{"months out of order", func(d *Data) { d.Themes[0].Months[2].Month = "2023-01" }, "2023-01 does not come after 2023-02"},
+		{"NaN group", func(d *Data) { d.Themes[1].Groups[0].High = math.Inf(1) }, "Groups[0]: invalid report data: share or interval not finite"},
+		{"NaN K measure", func(d *Data) { d.KChoice.Rows[1].NPMI = math.NaN() }, "KChoice.Rows[1]"},
 		{"no label", func(d *Data) { d.Themes[2].Label = " " }, "has no label"},
 		{"NaN share", func(d *Data) { d.Themes[0].Months[3].Share = math.NaN() }, "not finite"},
 	} {
@@ -129,8 +152,9 @@ func TestEscaping(t *testing.T) {
 // months, groups or examples does not break it.
 func TestRenderSparse(t *testing.T) {
 	for name, d := range map[string]*Data{
-		"empty":       {},
-		"bare themes": {Themes: []Theme{{ID: 0, Label: "a"}, {ID: 1, Label: "b", Months: []MonthPoint{{Month: "2024-01", Gap: true}}}}},
+		"empty":                        {},
+		"suggestion of unknown themes": {Tree: Tree{Leaves: []TreeLeaf{{Theme: 0, Label: "a"}}, Suggestions: []MergeSuggestion{{A: 5, B: 6}}}},
+		"bare themes":                  {Themes: []Theme{{ID: 0, Label: "a"}, {ID: 1, Label: "b", Months: []MonthPoint{{Month: "2024-01", Gap: true}}}}},
 	} {
 		var buf bytes.Buffer
 		if err := Render(&buf, d); err != nil {
