@@ -50,7 +50,8 @@ type Settings struct {
 	// synchronised merges (AD-LDA, Newman et al. 2009). The result depends on Partitions but
 	// not on GOMAXPROCS. Zero means 2; 1 gives the exact sequential sampler.
 	Partitions int
-	// Chains is the number of independent chains (seeds Seed, Seed+1, ...). The chain with
+	// Chains is the number of independent chains (chain c is seeded with
+	// Seed + c·0x9E3779B97F4A7C15, so chains of neighbouring seeds do not coincide). The chain with
 	// the highest final log p(w|z) is kept and the matched top-word Jaccard agreement of the
 	// others with it is reported as Model.Stability. Zero means 1.
 	Chains int
