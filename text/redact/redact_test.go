@@ -95,8 +95,9 @@ func TestSSN(t *testing.T) {
 	})
 }
 
-// 49 CFR 565.15(c) check digit. Worked example: 1M8GDM9AXKP042788 (a commonly quoted
-// example VIN, from memory) has check digit X: sum of value*weight = 351, 351 mod 11 = 10.
+// 49 CFR 565.15 check digit (common practice, from memory). Worked example:
+// 1M8GDM9AXKP042788 (a commonly quoted example VIN) has check digit X: the sum of
+// value*weight is 351 (checked by hand with the table in structured.go), 351 mod 11 = 10.
 func TestVINCheckDigit(t *testing.T) {
 	for _, c := range []struct {
 		vin  string
@@ -104,7 +105,7 @@ func TestVINCheckDigit(t *testing.T) {
 	}{
 		{"1M8GDM9AXKP042788", 'X'},
 		{"11111111111111111", '1'}, // all ones: sum of weights 89, 89 mod 11 = 1
-		{"1HGCM82633A004352", '3'}, // a commonly quoted valid VIN (from memory)
+		{"1HGCM82633A004352", '3'}, // a commonly quoted valid VIN (from memory): sum 311, mod 11 = 3
 	} {
 		got, ok := VINCheckDigit(c.vin)
 		if !ok || got != c.want {
