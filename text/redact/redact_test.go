@@ -97,7 +97,8 @@ func TestSSN(t *testing.T) {
 
 // 49 CFR 565.15 check digit (common practice, from memory). Worked example:
 // 1M8GDM9AXKP042788 (a commonly quoted example VIN) has check digit X: the sum of
-// value*weight is 351 (checked by hand with the table in structured.go), 351 mod 11 = 10.
+// value*weight is 351 (checked independently with a one-line Python sum over the table in
+// structured.go), 351 mod 11 = 10.
 func TestVINCheckDigit(t *testing.T) {
 	for _, c := range []struct {
 		vin  string
@@ -300,5 +301,44 @@ func TestTypes(t *testing.T) {
 	}
 	if _, err := New(Options{Names: []string{"  "}}); err == nil {
 		t.Error("empty name accepted")
+	}
+}
+
+func TestAllowAndTypes(t *testing.T) {
+	r := mustNew(t, Options{Allow: []string{"Ostrander", "Pell Creek Market"}})
+	in := "Caller Tamo Quosby said Ostrander was closed; staff at Pell Creek Market saw Quosby. Call 555-555-0142."
+	want := "Caller [NAME-1] said Ostrander was closed; staff at Pell Creek Market saw [NAME-1]. Call [PHONE]."
+	if got, _ := r.Redact(in); got != want {
+		t.Errorf("allow:\n got %q\nwant %q", got, want)
+	}
+	// Allow wins over every name detector, cues included.
+	if got, _ := r.Redact("Mr. Ostrander left."); got != "Mr. Ostrander left." {
+		t.Errorf("allow over cue: %q", got)
+	}
+	only := mustNew(t, Options{Types: Types(Phone)})
+	if got, _ := only.Redact(in); got != "Caller Tamo Quosby said Ostrander was closed; staff at Pell Creek Market saw Quosby. Call [PHONE]." {
+		t.Errorf("Types(Phone): %q", got)
+	}
+	noHeur := mustNew(t, Options{NoHeuristicNames: true})
+	if got, _ := noHeur.Redact("A bystander saw Corvin Ashvley near the gate."); got != "A bystander saw Corvin Ashvley near the gate." {
+		t.Errorf("NoHeuristicNames: %q", got)
+	}
+}
+
+// TestMergeSpans checks that finds of a later pass are mapped back to the input: "[NAME-2]"
+// in the input raises the numbering, and spans always name input text.
+func TestMergeSpans(t *testing.T) {
+	prev := []Span{{Type: Phone, Start: 5, End: 17, Placeholder: "[PHONE]"}}
+	text := "call 555-555-0123 Mr. Quosby"
+	out := render(text, prev) // "call [PHONE] Mr. Quosby"
+	found := []Span{{Type: Name, Start: strings.Index(out, "Quosby"), End: len(out), Placeholder: "[NAME-1]"}}
+	got := mergeSpans(prev, found, text)
+	if len(got) != 2 || got[1].Text != "Quosby" || got[1].Start != strings.Index(text, "Quosby") {
+		t.Fatalf("mergeSpans: %+v", got)
+	}
+	r := mustNew(t, Options{})
+	o, spans := r.Redact("[NAME-2] met Mr. Quosby.")
+	if o != "[NAME-2] met Mr. [NAME-3]." || len(spans) != 1 || spans[0].Text != "Quosby" {
+		t.Errorf("numbering after existing placeholders: %q %+v", o, spans)
 	}
 }
