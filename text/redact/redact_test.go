@@ -171,6 +171,7 @@ func TestAddress(t *testing.T) {
 		{"met at Main/Oak today", []string{"Main/Oak"}},
 		{"fell 20 feet onto the road", nil},
 		{"and/or", nil},
+		{"a call on Air/Ground from", nil}, // a radio channel (SAFENET), not a corner
 	})
 }
 
@@ -181,6 +182,8 @@ func TestCaseNo(t *testing.T) {
 		{"report 21-3456", []string{"21-3456"}},
 		{"the incident 2017", nil},
 		{"a Case 1150 bulldozer", nil},
+		{"the Paradise fire incident 10/21/2000, the", nil}, // a date, not a number
+		{"ticket #2105006 for", []string{"2105006"}},
 	})
 }
 

@@ -430,6 +430,8 @@ func (d *doc) plates(cs []cand) []cand {
 
 // Case numbers: a cue word, optional "#", "no.", "number", then an identifier with at least
 // four digits ("24-001234", "2021-00012", "R21-3456").
+var dateRe = regexp.MustCompile(`^(?:[0-9]{1,2}[/-][0-9]{1,2}[/-][0-9]{2,4}|[0-9]{4}-[0-9]{2}-[0-9]{2})$`)
+
 var caseTrig = set("case incident inc report rpt file complaint cad event ticket citation warrant docket booking reference ref control ccn dr ir cr rms")
 
 var caseRe = regexp.MustCompile(`(?i)\b(?:case|incident|inc|report|rpt|file|complaint|cad|event|ticket|citation|warrant|docket|booking|reference|ref|control|ccn|dr|ir|cr|rms)\b\.?((?:\s?(?:#|no\.?|num\.?|nbr\.?|number|:)\s?)*)\s?([A-Z]{0,4}-?[0-9]{2,}(?:[-/][0-9A-Z]+)*)\b`)
@@ -445,8 +447,8 @@ func (d *doc) caseNos(cs []cand) []cand {
 				digits++
 			}
 		}
-		if digits < 4 {
-			return
+		if digits < 4 || dateRe.MatchString(v) {
+			return // too short, or a date ("incident 10/21/2000")
 		}
 		if marker == "" {
 			if y, err := strconv.Atoi(v); err == nil && len(v) == 4 && y >= 1900 && y <= 2099 {

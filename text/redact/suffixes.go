@@ -70,8 +70,9 @@ var (
 	crossRe = regexp.MustCompile(`(?:^|[^A-Za-z0-9])(` + streetPat + `\s?(?:(?i:and|at)|&|/|@)\s?` + streetPat + `)`)
 	// "the corner of Elm and Oak", "intersection of Main St & 4th Ave".
 	cornerRe = regexp.MustCompile(`(?i:corner|intersection)\s(?i:of)\s(` + streetWord + `(?:\s` + streetWord + `){0,2}(?:\s` + suffixPat() + `\b\.?)?\s?(?:(?i:and)|&|/)\s?` + streetWord + `(?:\s` + streetWord + `){0,2}(?:\s` + suffixPat() + `\b\.?)?)`)
-	// "at Main/Oak".
-	slashRe = regexp.MustCompile(`\b(?i:at|on|near|by|of|from|to|toward|towards)\s((?:[A-Z][A-Za-z]+|[0-9]{1,3}(?i:st|nd|rd|th))\s?/\s?(?:[A-Z][A-Za-z]+|[0-9]{1,3}(?i:st|nd|rd|th)))\b`)
+	// "at Main/Oak", "near 4th/Elm" (only after "at" or "near": "on Air/Ground" and
+	// "from Bendix/King" are not places).
+	slashRe = regexp.MustCompile(`\b(?i:at|near)\s((?:[A-Z][A-Za-z]+|[0-9]{1,3}(?i:st|nd|rd|th))\s?/\s?(?:[A-Z][A-Za-z]+|[0-9]{1,3}(?i:st|nd|rd|th)))\b`)
 )
 
 var cornerTrig = set("corner intersection")
