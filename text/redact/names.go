@@ -100,7 +100,9 @@ func loadLists() {
 	dispatch helibase helitack heliport airbase base forest forests butte peak mesa canyon
 	ranger rangers rappellers rappel crew crews engine division div ops operations fire fires
 	camp fort armory mountain mtn lookout repeater zone team hotshots smokejumpers wilderness
-	monument refuge reservation field`)
+	monument refuge reservation field hardware diner storage laundromat pool launch transit
+	motors auto garage salon barber bakery liquor mart depot shop shops supply tavern lounge
+	cinema gym fitness laundry cleaners rental rentals lot yard towing wash elementary`)
 	orgOnly = map[string]bool{}
 	for k := range orgWords {
 		orgOnly[k] = true

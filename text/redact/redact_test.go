@@ -151,6 +151,8 @@ func TestPlate(t *testing.T) {
 		{"plate 7ABC123", []string{"7ABC123"}},
 		{"CA plate 7ABC123", []string{"7ABC123"}},
 		{"tag ABC-1234 was", []string{"ABC-1234"}},
+		{"plate AB 12345 was", []string{"AB 12345"}}, // AB is no state code
+		{"plate TX 12345 was", []string{"12345"}},    // TX is
 		{"Lic# 4KJ8822", []string{"4KJ8822"}},
 		{"registration XYZ 1234", []string{"XYZ 1234"}},
 		{"on the tag out board", nil},
@@ -172,6 +174,11 @@ func TestAddress(t *testing.T) {
 		{"fell 20 feet onto the road", nil},
 		{"and/or", nil},
 		{"a call on Air/Ground from", nil}, // a radio channel (SAFENET), not a corner
+		{"stopped at Marrowell and Quennel for", []string{"Marrowell and Quennel"}},
+		{"stopped at 4th and Quennel.", []string{"4th and Quennel"}},
+		{"met at Smith and Jones", nil},           // ordinary words and surnames: not taken
+		{"at Tarrowby and Quennel Hardware", nil}, // a business name follows
+		{"plate AB 12345 was", nil},               // (Plate type only below)
 	})
 }
 

@@ -389,7 +389,7 @@ func (d *doc) ages(cs []cand) []cand {
 // letters and digits with at least one digit, in one or two groups.
 var plateTrig = set("license licence plate plates tag tags registration reg lic lp")
 
-var plateRe = regexp.MustCompile(`(?i)\b(?:license\s+plate|licence\s+plate|plates?|tags?|registration|reg|lic|license|licence|lp)\b\.?(?:\s?(?:#|no\.?|num\.?|nbr\.?|number|:|-|reading|of|was|is|displaying|bearing|showing|state)\s?|\s+(?-i:[A-Z]{2})\s+)*\s?(?-i:([A-Z0-9]{1,4}(?:[ -][A-Z0-9]{1,5})?|[A-Z0-9]{5,8}))\b`)
+var plateRe = regexp.MustCompile(`(?i)\b(?:license\s+plate|licence\s+plate|plates?|tags?|registration|reg|lic|license|licence|lp)\b\.?(?:\s?(?:#|no\.?|num\.?|nbr\.?|number|:|-|reading|of|was|is|displaying|bearing|showing|state)\s?|\s+(?-i:A[LKZR]|C[AOT]|D[EC]|FL|GA|HI|I[DLNA]|K[SY]|LA|M[EDAINSOT]|N[EVHJMYCD]|O[HKR]|PA|RI|S[CD]|T[NX]|UT|V[TA]|W[AVIY]|PR)\s+)*\s?(?-i:([A-Z0-9]{1,4}(?:[ -][A-Z0-9]{1,5})?|[A-Z0-9]{5,8}))\b`)
 
 func (d *doc) plates(cs []cand) []cand {
 	d.scan(plateRe, d.triggers(d.flagged(fPlate)), 0, 48, func(m []int) {
