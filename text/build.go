@@ -481,6 +481,15 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 	// Phrases.
 	var phrasePairs [][2]string
 	if s.Phrases.Enabled {
+		// A pair cannot occur more often than its rarer word: pairs with a word seen fewer
+		// than MinCount times are counted in the margins only.
+		minCount := orInt(s.Phrases.MinCount, 5)
+		occur := make([]int, len(stemStr))
+		for _, t := range out {
+			if t >= 0 {
+				occur[t]++
+			}
+		}
 		pairCount := make(map[uint64]int, len(stemStr)*4)
 		left, right := make([]int, len(stemStr)), make([]int, len(stemStr))
 		n := 0
@@ -490,14 +499,15 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 				if a < 0 || b < 0 || stemProt[a] || stemProt[b] {
 					continue
 				}
-				pairCount[uint64(a)<<32|uint64(b)]++
+				if occur[a] >= minCount && occur[b] >= minCount {
+					pairCount[uint64(a)<<32|uint64(b)]++
+				}
 				left[a]++
 				right[b]++
 				n++
 			}
 		}
 		pc := make(map[[2]int32]int, len(pairCount)/4)
-		minCount := orInt(s.Phrases.MinCount, 5)
 		for k, v := range pairCount {
 			if v >= minCount {
 				pc[[2]int32{int32(k >> 32), int32(uint32(k))}] = v
@@ -613,7 +623,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 				bufs[w] = buf
 			}
 		})
-		g := h.Groups(sigs)
+		g := h.GroupsParallel(sigs, func(n int, f func(int)) { parallelFor(n, func(_, b int) { f(b) }) })
 		size := make([]int, len(docs))
 		for _, r := range g {
 			size[r]++
