@@ -38,6 +38,17 @@ func (r RoutineReason) String() string {
 // MarshalText writes the reason's name ("" for NotRoutine).
 func (r RoutineReason) MarshalText() ([]byte, error) { return []byte(r.String()), nil }
 
+// UnmarshalText reads a reason's name.
+func (r *RoutineReason) UnmarshalText(b []byte) error {
+	for i, n := range routineNames {
+		if n == string(b) {
+			*r = RoutineReason(i)
+			return nil
+		}
+	}
+	return fmt.Errorf("text: unknown routine reason %q", b)
+}
+
 // Expansion counts one abbreviation's expansions in a corpus.
 type Expansion struct {
 	Abbrev    string `json:"abbrev"`
