@@ -363,3 +363,13 @@ func TestSegmentsAndSuggestions(t *testing.T) {
 		}
 	}
 }
+
+// The frozen pipeline weights the training narratives exactly as Corpus.Weights does.
+func TestFrozenWeights(t *testing.T) {
+	docs := genCorpus(200, 13)
+	c, f := build(t, docs, DefaultSettings())
+	w, _ := c.Weights()
+	if got := f.Weights(docs); !reflect.DeepEqual(got.Dense(), w.Dense()) {
+		t.Error("Frozen.Weights differs from Corpus.Weights on the training narratives")
+	}
+}

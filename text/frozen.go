@@ -214,9 +214,13 @@ func (f *Frozen) Counts(docs []string) *sparse.Matrix {
 // IDF returns the training idf of each term under the frozen weighting scheme, so new
 // narratives are weighted as the training narratives were.
 func (f *Frozen) IDF() []float64 {
-	sc := f.Settings.Weight
-	kind := sc.IDF
-	return weight.IDFWeights(nil, f.DocFreq, f.Docs, kind)
+	return weight.IDFWeights(nil, f.DocFreq, f.Docs, f.Settings.Weight.IDF)
+}
+
+// Weights returns the TF-IDF weights of new narratives under the frozen vocabulary, scheme
+// and training idf.
+func (f *Frozen) Weights(docs []string) *sparse.Matrix {
+	return weight.TFIDFWith(f.Counts(docs), f.Settings.Weight, f.IDF())
 }
 
 // Segment is a piece of a narrative for highlighting: Text is a stretch of the original
