@@ -304,13 +304,13 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 				targets = append(targets, w)
 			}
 		}
-		ix := repair.NewIndex(targets)
 		minLen, shortLen := orInt(rs.MinLength, 4), orInt(rs.ShortLen, 8)
 		ratio := rs.RareRatio
 		if ratio == 0 {
 			ratio = 50
 		}
-		maxCost, shortCost := orFloat(rs.MaxCost, 1), orFloat(rs.ShortMaxCost, 0.5)
+		maxCost, shortCost := min(orFloat(rs.MaxCost, 1), 1), min(orFloat(rs.ShortMaxCost, 0.5), 1)
+		ix := repair.NewIndexLimit(targets, max(maxCost, shortCost))
 		var cand []int32
 		for id := 0; id < nScanned; id++ {
 			sf := surfs[id]
