@@ -40,6 +40,10 @@ func newLexer(s *Settings) (*lexer, error) {
 	}, nil
 }
 
+// Set builds the stopword set s describes: the named lists plus user words, minus keep
+// words. It returns an error for an unknown list name.
+func (s StopSettings) Set() (*stopwords.Set, error) { return stopSet(s) }
+
 // stopSet builds the stopword set of s: the named lists plus user words, minus keep words.
 func stopSet(s StopSettings) (*stopwords.Set, error) {
 	set := stopwords.New()
