@@ -168,12 +168,12 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 	// Pass 1: tokenize, intern surfaces, count. Chunks of narratives are scanned in parallel
 	// with chunk-local surface tables, then merged in chunk order, so surface ids are numbered
 	// by first occurrence exactly as a sequential scan would number them.
-	intern := make(map[string]int32)
-	var surfs []surface
 	nbytes := 0
 	for _, raw := range docs {
 		nbytes += len(raw)
 	}
+	intern := make(map[string]int32, min(nbytes/100, 1<<20)+64)
+	var surfs []surface
 	c.Bytes = nbytes
 	stream := make([]int32, 0, nbytes/5+16)
 	docOff := make([]int, len(docs)+1)
@@ -255,6 +255,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 
 	// Stems of every scanned word, in parallel, seeded into the lexer's cache.
 	if !s.Stem.Off {
+		lx.stems = make(stemCache, len(surfs))
 		stems := make([]string, len(surfs))
 		const per = 512
 		parallelFor((len(surfs)+per-1)/per, func(_, k int) {
@@ -382,7 +383,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 	}
 
 	// Pass 2: join, repair, lex → stem stream.
-	stemID := make(map[string]int32)
+	stemID := make(map[string]int32, len(surfs)/2+64)
 	var stemStr []string
 	var stemProt []bool
 	internStem := func(st string, prot bool) int32 {
