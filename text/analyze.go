@@ -69,11 +69,11 @@ func (f *StopFilter) Filter(tokens []Token) []Token {
 // StemFilter replaces the Text of unprotected tokens by its Snowball English stem (StemWord),
 // memoised. It is not safe for concurrent use.
 type StemFilter struct {
-	cache stemCache
+	cache *stemCache
 }
 
 // NewStemFilter returns a StemFilter with an empty cache.
-func NewStemFilter() *StemFilter { return &StemFilter{cache: make(stemCache)} }
+func NewStemFilter() *StemFilter { return &StemFilter{cache: newStemCache(0)} }
 
 // Filter stems tokens in place.
 func (f *StemFilter) Filter(tokens []Token) []Token {

@@ -255,7 +255,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 
 	// Stems of every scanned word, in parallel, seeded into the lexer's cache.
 	if !s.Stem.Off {
-		lx.stems = make(stemCache, len(surfs))
+		lx.stems = newStemCache(len(surfs))
 		stems := make([]string, len(surfs))
 		const per = 512
 		parallelFor((len(surfs)+per-1)/per, func(_, k int) {
@@ -267,7 +267,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		})
 		for id, st := range stems {
 			if surfs[id].kind == Word {
-				lx.stems[surfs[id].text] = st
+				lx.stems.own[surfs[id].text] = st
 			}
 		}
 	}
@@ -396,21 +396,44 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		stemProt = append(stemProt, prot)
 		return id
 	}
-	lexCache := make([][]lexEntry, len(surfs))
-	lexDone := make([]bool, len(surfs))
+	// Per-surface results of the token steps (policy, abbreviations, stopwords, stems),
+	// computed in parallel with forked lexers, then given stem ids in surface order.
+	lexWords := make([][]lexWord, len(surfs))
 	lexExp := make([]bool, len(surfs))
-	lexOf := func(id int32) []lexEntry {
-		if lexDone[id] {
-			return lexCache[id]
+	{
+		forks := make([]*lexer, workers())
+		for w := range forks {
+			forks[w] = lx.fork()
 		}
-		words, exp := lx.lex(surfs[id].text, surfs[id].kind)
-		var le []lexEntry
-		for _, w := range words {
-			le = append(le, lexEntry{internStem(w.stem, w.protected), w.word, w.protected})
+		const per = 512
+		parallelFor((len(surfs)+per-1)/per, func(w, k int) {
+			for id := k * per; id < min((k+1)*per, len(surfs)); id++ {
+				words, exp := forks[w].lex(surfs[id].text, surfs[id].kind)
+				if len(words) > 0 {
+					lexWords[id] = append([]lexWord(nil), words...)
+				}
+				lexExp[id] = exp
+			}
+		})
+		for _, f := range forks {
+			for k, v := range f.stems.own {
+				lx.stems.own[k] = v // stems of expansion words, for later lookups
+			}
 		}
-		lexCache[id], lexDone[id], lexExp[id] = le, true, exp
-		return le
 	}
+	lexCache := make([][]lexEntry, len(surfs))
+	for id, words := range lexWords {
+		if len(words) == 0 {
+			continue
+		}
+		le := make([]lexEntry, len(words))
+		for k, w := range words {
+			le[k] = lexEntry{internStem(w.stem, w.protected), w.word, w.protected}
+		}
+		lexCache[id] = le
+	}
+	lexWords = nil
+	lexOf := func(id int32) []lexEntry { return lexCache[id] }
 	occ := make([]int, len(surfs))
 	repairCount := make([]int, nScanned)
 	out := make([]int32, 0, len(stream))
