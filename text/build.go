@@ -21,7 +21,7 @@ type RoutineReason uint8
 
 const (
 	NotRoutine   RoutineReason = iota
-	ShortContent               // at most Routine.MaxContent content tokens
+	ShortContent               // no content tokens, or at most Routine.MaxContent
 	RoutineWords               // every content token is a routine word
 	Duplicate                  // one of Routine.MinGroup or more exact or near duplicates
 )
@@ -631,7 +631,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		c.Terms += content
 		c.DupGroup[d] = -1
 		switch {
-		case s.Routine.MaxContent > 0 && content <= s.Routine.MaxContent:
+		case content == 0 || content <= s.Routine.MaxContent:
 			c.Routine[d] = ShortContent
 		case allRoutine && content > 0:
 			c.Routine[d] = RoutineWords

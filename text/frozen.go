@@ -194,7 +194,7 @@ func (f *Frozen) Transform(raw string) Doc {
 		}
 	}
 	switch {
-	case s.Routine.MaxContent > 0 && d.Content <= s.Routine.MaxContent:
+	case d.Content == 0 || d.Content <= s.Routine.MaxContent:
 		d.Routine = ShortContent
 	case allRoutine && d.Content > 0:
 		d.Routine = RoutineWords
