@@ -3,6 +3,7 @@ package intake
 import (
 	"bytes"
 	"context"
+	"encoding/json"
 	"errors"
 	"os"
 	"path/filepath"
@@ -547,5 +548,41 @@ func TestHugeField(t *testing.T) {
 	}
 	if len(s.Records) != 3 || len(s.Records[0].Text) != len(big)-1 || len(s.Records[1].Text) != len(mid) || s.Records[2].Line != 4 {
 		t.Errorf("%s", s.Summary())
+	}
+}
+
+// TestAgainstPythonCSV reads testdata/tricky.csv, written by Python's csv module, and
+// compares every record with Python's csv.reader (testdata/tricky_expected.json, from
+// testdata/gen_tricky_csv.py). One documented difference: encoding/csv turns a CRLF
+// inside a quoted field into LF, where Python keeps CRLF.
+func TestAgainstPythonCSV(t *testing.T) {
+	b, err := os.ReadFile(filepath.Join("testdata", "tricky_expected.json"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var want []struct {
+		Line   int
+		Fields []string
+	}
+	if err := json.Unmarshal(b, &want); err != nil {
+		t.Fatal(err)
+	}
+	s, err := Read(context.Background(), []string{filepath.Join("testdata", "tricky.csv")}, nil, Options{Now: testNow})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s.Files[0].Delimiter != "," || s.IDName != "Report No" || s.DateName != "Occurred" || s.TextNames[0] != "Narrative" {
+		t.Fatalf("%+v %q %q %q", s.Files[0], s.IDName, s.DateName, s.TextNames)
+	}
+	want = want[1:] // header
+	if len(s.Records) != len(want) || s.Read != len(want) {
+		t.Fatalf("%s; want %d rows", s.Summary(), len(want))
+	}
+	for i, r := range s.Records {
+		w := want[i].Fields
+		text := strings.TrimSpace(strings.ReplaceAll(w[2], "\r\n", "\n"))
+		if r.ID != w[0] || r.Text != text || r.Extra[0] != w[3] || r.Line != want[i].Line {
+			t.Errorf("record %d: %q %q %q line %d; want %q %q %q line %d", i, r.ID, r.Text, r.Extra[0], r.Line, w[0], text, w[3], want[i].Line)
+		}
 	}
 }
