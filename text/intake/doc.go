@@ -13,6 +13,7 @@
 //
 //   - "PK\x03\x04" with an xl/ entry inside is an XLSX workbook (github.com/xuri/excelize/v2),
 //     read from Options.Sheet or the first sheet, raw cell values, row 1 the header;
+//   - gzip files (1F 8B) are decompressed to a temporary file and read as what they hold;
 //   - other zip archives and OLE2 (.xls) files are errors;
 //   - text starting with '[' is a JSON array of objects; with '{', JSON Lines when the
 //     first line is a whole object, else one object whose first array-valued key holds

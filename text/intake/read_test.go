@@ -2,6 +2,7 @@ package intake
 
 import (
 	"bytes"
+	"compress/gzip"
 	"context"
 	"encoding/json"
 	"errors"
@@ -253,6 +254,20 @@ func TestPreamble(t *testing.T) {
 	// Explicit: SkipLines -1 takes line 1 as the header.
 	if s, err = readOne(t, "p.csv", in, Options{SkipLines: -1}); err != nil || len(s.Records) != 0 {
 		t.Errorf("SkipLines -1: %v %s", err, s.Summary())
+	}
+}
+
+func TestGzip(t *testing.T) {
+	var b bytes.Buffer
+	zw := gzip.NewWriter(&b)
+	zw.Write([]byte("id,narrative\n1,compressed export\n"))
+	zw.Close()
+	s, err := readOne(t, "g.csv.gz", b.String(), Options{})
+	if err != nil || s.Records[0].Text != "compressed export" || !strings.Contains(s.Notes[0], "gzip") {
+		t.Errorf("%v %+v", err, s)
+	}
+	if _, err := readOne(t, "bad.gz", "\x1f\x8bnot really", Options{}); !errors.Is(err, ErrBinary) {
+		t.Errorf("damaged gzip: %v", err)
 	}
 }
 
