@@ -257,6 +257,13 @@ func TestPreamble(t *testing.T) {
 	}
 }
 
+func TestSingleColumn(t *testing.T) {
+	s, err := readOne(t, "one.csv", "narrative\nHe said, hello; then left\n\"quoted, too\"\n", Options{})
+	if err != nil || len(s.Records) != 2 || s.Records[0].Text != "He said, hello; then left" || s.Records[1].Text != "quoted, too" || s.Files[0].Delimiter != "" {
+		t.Errorf("%v %+v", err, s)
+	}
+}
+
 func TestGzip(t *testing.T) {
 	var b bytes.Buffer
 	zw := gzip.NewWriter(&b)
