@@ -23,7 +23,8 @@
 //     element or line that is not an object is rejected ("bad json");
 //   - anything else is delimited text. The delimiter is sniffed among ',' tab ';' '|',
 //     plus ", " (comma and space, as in the safenet exports; encoding/csv's
-//     TrimLeadingSpace then drops leading blanks of fields). A preamble before the
+//     TrimLeadingSpace then drops leading blanks of fields); a header without any of
+//     them makes a single-column file. A preamble before the
 //     header (a report title, a generation date) is detected and skipped with a note
 //     (Options.SkipLines overrides); line numbers stay those of the file. Lines ending
 //     in a bare CR are read as lines. Quoting is RFC 4180 through
