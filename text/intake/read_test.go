@@ -364,6 +364,11 @@ func TestDayFirstColumn(t *testing.T) {
 	if s.Records[0].Date.Month() != 4 || s.DateRead != "layout 02/01/2006" {
 		t.Errorf("explicit format: %q %v", s.DateRead, s.Records[0].Date)
 	}
+	// A format no automatic reading knows still finds its column.
+	s, err = readOne(t, "e.csv", "id,when,narrative\n1,2020y01m05d,a\n2,2020y02m06d,b\n", Options{DateFormat: "2006y01m02d"})
+	if err != nil || s.DateName != "when" || s.Records[1].Date.Month() != 2 {
+		t.Errorf("explicit layout column: %v %q", err, s.DateName)
+	}
 	_, err = readOne(t, "d.csv", in, Options{DateFormat: "dd/mm"})
 	if !errors.Is(err, ErrDateFormat) {
 		t.Errorf("bad format option: %v", err)
