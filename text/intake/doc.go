@@ -131,5 +131,7 @@
 // Survey describes a Set without modelling: encodings, columns, rows kept and rejected
 // by reason, date span and counts per month (empty months included), narrative length
 // distribution, share of exact-duplicate narratives, common opening words and bigrams,
-// and words found in a large share of narratives (stopword candidates).
+// words found in a large share of narratives (stopword candidates), the values of the
+// group columns, and passed-through columns that could serve as groups (2 to 50
+// distinct values, at most a tenth empty).
 package intake
