@@ -8,7 +8,9 @@ import (
 	"slices"
 	"strconv"
 	"strings"
+	"syscall"
 	"testing"
+	"time"
 )
 
 // splitmix64 is a tiny generator that testdata/bench_ref.py reproduces
@@ -53,6 +55,7 @@ func benchmarkLink(b *testing.B, n int, m Linkage) {
 	x := dirichletRows(n, 20, benchSeed)
 	var t *Dendrogram
 	var err error
+	c0 := processCPU()
 	b.ResetTimer()
 	for b.Loop() {
 		if t, err = LinkVectors(x, nil, m, nil); err != nil {
@@ -60,8 +63,17 @@ func benchmarkLink(b *testing.B, n int, m Linkage) {
 		}
 	}
 	b.StopTimer()
+	b.ReportMetric((processCPU()-c0).Seconds()/float64(b.N), "cpu_s/op")
 	b.ReportMetric(peakMB(), "peak_MB")
 	compareRef(b, t, m, n)
+}
+
+// processCPU returns the user + system time of this process so far, less
+// disturbed than wall time on a shared machine.
+func processCPU() time.Duration {
+	var r syscall.Rusage
+	syscall.Getrusage(syscall.RUSAGE_SELF, &r)
+	return time.Duration(r.Utime.Nano() + r.Stime.Nano())
 }
 
 // peakMB returns the peak resident memory of this process (VmHWM), which
@@ -132,6 +144,7 @@ func BenchmarkAverage(b *testing.B) {
 // micro-clusters (seeded k-means++, Lloyd) and exact weighted Ward.
 func BenchmarkSummary100k(b *testing.B) {
 	x := dirichletRows(100000, 20, benchSeed)
+	c0 := processCPU()
 	b.ResetTimer()
 	for b.Loop() {
 		if _, err := Summarize(x, nil, &SummarySettings{Seed: 1}); err != nil {
@@ -139,6 +152,7 @@ func BenchmarkSummary100k(b *testing.B) {
 		}
 	}
 	b.StopTimer()
+	b.ReportMetric((processCPU()-c0).Seconds()/float64(b.N), "cpu_s/op")
 	b.ReportMetric(peakMB(), "peak_MB")
 }
 

@@ -4,30 +4,11 @@ package cluster
 
 import "golang.org/x/sys/cpu"
 
+// haveAVX2 selects the assembly kernels (kernel_amd64.s). They compute
+// the same bits as the portable code (no fused multiply–add; the same
+// order of additions), which the tests check, so results do not depend on
+// the machine. Build with -tags purego to use the portable code only.
 var haveAVX2 = cpu.X86.HasAVX2
-
-// partial8AVX2 stores in out[k] the sum over j < 8 of (x[j] − c[k*d+j])²
-// for k < len(out), summed as sumHead8 sums (no fused multiply–add), so
-// the values are bit-identical to the portable code.
-//
-//go:noescape
-func partial8AVX2(x *[8]float64, c *float64, d int, out []float64)
-
-// partial8 is the batch form of sumHead8 over len(out) rows of c with
-// stride d, starting at c[0].
-func partial8(x *[8]float64, c []float64, d int, out []float64) {
-	if len(out) == 0 {
-		return
-	}
-	if (len(out)-1)*d+8 > len(c) {
-		panic("cluster: partial8 out of range")
-	}
-	if haveAVX2 {
-		partial8AVX2(x, &c[0], d, out)
-		return
-	}
-	partial8Go(x, c, d, out)
-}
 
 //go:noescape
 func ward8AVX2(x *[8]float64, c *float64, d int, w *float64, out []float64, mask *uint64, ww, lim, limwx float64)

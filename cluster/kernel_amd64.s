@@ -2,41 +2,6 @@
 
 #include "textflag.h"
 
-// func partial8AVX2(x *[8]float64, c *float64, d int, out []float64)
-TEXT ·partial8AVX2(SB), NOSPLIT, $0-48
-	MOVQ x+0(FP), AX
-	MOVQ c+8(FP), SI
-	MOVQ d+16(FP), DX
-	MOVQ out_base+24(FP), DI
-	MOVQ out_len+32(FP), CX
-	SHLQ $3, DX
-	VMOVUPD (AX), Y0
-	VMOVUPD 32(AX), Y1
-
-loop:
-	TESTQ CX, CX
-	JZ    done
-	VMOVUPD (SI), Y2
-	VMOVUPD 32(SI), Y3
-	VSUBPD  Y2, Y0, Y2
-	VSUBPD  Y3, Y1, Y3
-	VMULPD  Y2, Y2, Y2
-	VMULPD  Y3, Y3, Y3
-	VADDPD  Y3, Y2, Y2         // (t0²+t4², t1²+t5², t2²+t6², t3²+t7²)
-	VEXTRACTF128 $1, Y2, X3
-	VADDPD  X3, X2, X2         // ((t0²+t4²)+(t2²+t6²), (t1²+t5²)+(t3²+t7²))
-	VPERMILPD $1, X2, X3
-	VADDSD  X3, X2, X2
-	VMOVSD  X2, (DI)
-	ADDQ    DX, SI
-	ADDQ    $8, DI
-	DECQ    CX
-	JMP     loop
-
-done:
-	VZEROUPPER
-	RET
-
 // func ward8AVX2(x *[8]float64, c *float64, d int, w *float64, out []float64, mask *uint64, ww, lim, limwx float64)
 // For k < len(out): out[k] is the partial sum as above, and bit k%64 of
 // mask[k/64] is set when w[k]·(out[k]·ww − lim) ≤ limwx, i.e. when the

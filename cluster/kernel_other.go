@@ -2,10 +2,6 @@
 
 package cluster
 
-func partial8(x *[8]float64, c []float64, d int, out []float64) {
-	partial8Go(x, c, d, out)
-}
-
 func ward8(x *[8]float64, c []float64, d int, w []float64, out []float64, mask []uint64, ww, lim, limwx float64) {
 	ward8Go(x, c, d, w, out, mask, ww, lim, limwx)
 }

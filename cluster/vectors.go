@@ -572,13 +572,6 @@ func ward8Go(x *[8]float64, c []float64, d int, w []float64, out []float64, mask
 	}
 }
 
-// partial8Go is the portable partial8.
-func partial8Go(x *[8]float64, c []float64, d int, out []float64) {
-	for k := range out {
-		out[k] = sumHead8(x[:], c[k*d:k*d+8])
-	}
-}
-
 // wardValue is the squared Ward distance between centroids a and b with
 // weights wa and wb, computed exactly as scanWard computes it.
 func wardValue(a, b []float64, wa, wb float64, head int) float64 {

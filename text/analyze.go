@@ -6,8 +6,8 @@ import (
 
 // Analyze normalises and tokenizes one narrative and applies the token policies and the
 // abbreviation table of s (no stopwords, stemming, repair or phrases: those are corpus-level,
-// see Build and Frozen). Every token's Start and End index raw. It panics if s names an
-// unknown stopword list (never: Analyze does not use stopwords) and never on any input.
+// see Build and Frozen). Every token's Start and End index raw. It never panics, whatever
+// the input (see FuzzAnalyze).
 func Analyze(raw string, s Settings) []Token {
 	var sc scanner
 	return analyze(&sc, NewAbbrev(!s.Abbrev.NoShipped, s.Abbrev.User), s.Tokens, raw, nil)
@@ -69,11 +69,11 @@ func (f *StopFilter) Filter(tokens []Token) []Token {
 // StemFilter replaces the Text of unprotected tokens by its Snowball English stem (StemWord),
 // memoised. It is not safe for concurrent use.
 type StemFilter struct {
-	cache stemCache
+	cache *stemCache
 }
 
 // NewStemFilter returns a StemFilter with an empty cache.
-func NewStemFilter() *StemFilter { return &StemFilter{cache: make(stemCache)} }
+func NewStemFilter() *StemFilter { return &StemFilter{cache: newStemCache(0)} }
 
 // Filter stems tokens in place.
 func (f *StemFilter) Filter(tokens []Token) []Token {

@@ -17,7 +17,7 @@ import (
 // or places), seeded, with abbreviations, times, codes and some OCR noise.
 func genCorpus(n int, seed uint64) []string {
 	r := rand.New(rand.NewPCG(seed, 2))
-	subj := []string{"RP", "subj", "susp", "the vic", "Ofc Lindqvist", "the caller", "a juv", "the driver"}
+	subj := []string{"RP", "subj", "susp", "the vic", "Ofc Quarrendel", "the caller", "a juv", "the driver"}
 	verbs := []string{"reported", "stated", "observed", "advised", "located", "contacted", "struck", "fled from", "argued with", "followed"}
 	objs := []string{"a blue veh", "the res on Alder Ct", "a neighbor", "the store clerk", "a bicycle", "the traffic stop", "an unknown male", "the apt door", "mental health staff", "a parked vehicle"}
 	tails := []string{"GOA.", "UTL.", "10-50 no inj.", "w/ minor damage.", "approx 20 min later.", "per dispatch.", "and left NB on Birch St.", "0fficer cleared.", "see supplemental.", "resi-\ndence checked."}

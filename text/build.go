@@ -21,7 +21,7 @@ type RoutineReason uint8
 
 const (
 	NotRoutine   RoutineReason = iota
-	ShortContent               // at most Routine.MaxContent content tokens
+	ShortContent               // no content tokens, or at most Routine.MaxContent
 	RoutineWords               // every content token is a routine word
 	Duplicate                  // one of Routine.MinGroup or more exact or near duplicates
 )
@@ -37,6 +37,17 @@ func (r RoutineReason) String() string {
 
 // MarshalText writes the reason's name ("" for NotRoutine).
 func (r RoutineReason) MarshalText() ([]byte, error) { return []byte(r.String()), nil }
+
+// UnmarshalText reads a reason's name.
+func (r *RoutineReason) UnmarshalText(b []byte) error {
+	for i, n := range routineNames {
+		if n == string(b) {
+			*r = RoutineReason(i)
+			return nil
+		}
+	}
+	return fmt.Errorf("text: unknown routine reason %q", b)
+}
 
 // Expansion counts one abbreviation's expansions in a corpus.
 type Expansion struct {
@@ -157,12 +168,12 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 	// Pass 1: tokenize, intern surfaces, count. Chunks of narratives are scanned in parallel
 	// with chunk-local surface tables, then merged in chunk order, so surface ids are numbered
 	// by first occurrence exactly as a sequential scan would number them.
-	intern := make(map[string]int32)
-	var surfs []surface
 	nbytes := 0
 	for _, raw := range docs {
 		nbytes += len(raw)
 	}
+	intern := make(map[string]int32, min(nbytes/100, 1<<20)+64)
+	var surfs []surface
 	c.Bytes = nbytes
 	stream := make([]int32, 0, nbytes/5+16)
 	docOff := make([]int, len(docs)+1)
@@ -244,6 +255,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 
 	// Stems of every scanned word, in parallel, seeded into the lexer's cache.
 	if !s.Stem.Off {
+		lx.stems = newStemCache(len(surfs))
 		stems := make([]string, len(surfs))
 		const per = 512
 		parallelFor((len(surfs)+per-1)/per, func(_, k int) {
@@ -255,7 +267,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		})
 		for id, st := range stems {
 			if surfs[id].kind == Word {
-				lx.stems[surfs[id].text] = st
+				lx.stems.own[surfs[id].text] = st
 			}
 		}
 	}
@@ -293,13 +305,13 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 				targets = append(targets, w)
 			}
 		}
-		ix := repair.NewIndex(targets)
 		minLen, shortLen := orInt(rs.MinLength, 4), orInt(rs.ShortLen, 8)
 		ratio := rs.RareRatio
 		if ratio == 0 {
 			ratio = 50
 		}
-		maxCost, shortCost := orFloat(rs.MaxCost, 1), orFloat(rs.ShortMaxCost, 0.5)
+		maxCost, shortCost := min(orFloat(rs.MaxCost, 1), 1), min(orFloat(rs.ShortMaxCost, 0.5), 1)
+		ix := repair.NewIndexLimit(targets, max(maxCost, shortCost))
 		var cand []int32
 		for id := 0; id < nScanned; id++ {
 			sf := surfs[id]
@@ -371,7 +383,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 	}
 
 	// Pass 2: join, repair, lex → stem stream.
-	stemID := make(map[string]int32)
+	stemID := make(map[string]int32, len(surfs)/2+64)
 	var stemStr []string
 	var stemProt []bool
 	internStem := func(st string, prot bool) int32 {
@@ -384,21 +396,44 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		stemProt = append(stemProt, prot)
 		return id
 	}
-	lexCache := make([][]lexEntry, len(surfs))
-	lexDone := make([]bool, len(surfs))
+	// Per-surface results of the token steps (policy, abbreviations, stopwords, stems),
+	// computed in parallel with forked lexers, then given stem ids in surface order.
+	lexWords := make([][]lexWord, len(surfs))
 	lexExp := make([]bool, len(surfs))
-	lexOf := func(id int32) []lexEntry {
-		if lexDone[id] {
-			return lexCache[id]
+	{
+		forks := make([]*lexer, workers())
+		for w := range forks {
+			forks[w] = lx.fork()
 		}
-		words, exp := lx.lex(surfs[id].text, surfs[id].kind)
-		var le []lexEntry
-		for _, w := range words {
-			le = append(le, lexEntry{internStem(w.stem, w.protected), w.word, w.protected})
+		const per = 512
+		parallelFor((len(surfs)+per-1)/per, func(w, k int) {
+			for id := k * per; id < min((k+1)*per, len(surfs)); id++ {
+				words, exp := forks[w].lex(surfs[id].text, surfs[id].kind)
+				if len(words) > 0 {
+					lexWords[id] = append([]lexWord(nil), words...)
+				}
+				lexExp[id] = exp
+			}
+		})
+		for _, f := range forks {
+			for k, v := range f.stems.own {
+				lx.stems.own[k] = v // stems of expansion words, for later lookups
+			}
 		}
-		lexCache[id], lexDone[id], lexExp[id] = le, true, exp
-		return le
 	}
+	lexCache := make([][]lexEntry, len(surfs))
+	for id, words := range lexWords {
+		if len(words) == 0 {
+			continue
+		}
+		le := make([]lexEntry, len(words))
+		for k, w := range words {
+			le[k] = lexEntry{internStem(w.stem, w.protected), w.word, w.protected}
+		}
+		lexCache[id] = le
+	}
+	lexWords = nil
+	lexOf := func(id int32) []lexEntry { return lexCache[id] }
 	occ := make([]int, len(surfs))
 	repairCount := make([]int, nScanned)
 	out := make([]int32, 0, len(stream))
@@ -481,6 +516,15 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 	// Phrases.
 	var phrasePairs [][2]string
 	if s.Phrases.Enabled {
+		// A pair cannot occur more often than its rarer word: pairs with a word seen fewer
+		// than MinCount times are counted in the margins only.
+		minCount := orInt(s.Phrases.MinCount, 5)
+		occur := make([]int, len(stemStr))
+		for _, t := range out {
+			if t >= 0 {
+				occur[t]++
+			}
+		}
 		pairCount := make(map[uint64]int, len(stemStr)*4)
 		left, right := make([]int, len(stemStr)), make([]int, len(stemStr))
 		n := 0
@@ -490,14 +534,15 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 				if a < 0 || b < 0 || stemProt[a] || stemProt[b] {
 					continue
 				}
-				pairCount[uint64(a)<<32|uint64(b)]++
+				if occur[a] >= minCount && occur[b] >= minCount {
+					pairCount[uint64(a)<<32|uint64(b)]++
+				}
 				left[a]++
 				right[b]++
 				n++
 			}
 		}
 		pc := make(map[[2]int32]int, len(pairCount)/4)
-		minCount := orInt(s.Phrases.MinCount, 5)
 		for k, v := range pairCount {
 			if v >= minCount {
 				pc[[2]int32{int32(k >> 32), int32(uint32(k))}] = v
@@ -586,7 +631,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		c.Terms += content
 		c.DupGroup[d] = -1
 		switch {
-		case s.Routine.MaxContent > 0 && content <= s.Routine.MaxContent:
+		case content == 0 || content <= s.Routine.MaxContent:
 			c.Routine[d] = ShortContent
 		case allRoutine && content > 0:
 			c.Routine[d] = RoutineWords
@@ -613,7 +658,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 				bufs[w] = buf
 			}
 		})
-		g := h.Groups(sigs)
+		g := h.GroupsParallel(sigs, func(n int, f func(int)) { parallelFor(n, func(_, b int) { f(b) }) })
 		size := make([]int, len(docs))
 		for _, r := range g {
 			size[r]++

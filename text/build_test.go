@@ -322,9 +322,11 @@ func TestRoutine(t *testing.T) {
 		"UTL, GOA, cleared, no contact.",
 		long, long, long + " nothing further",
 		"an officer found the side gate open and a dog loose in the alley behind the bakery on elm street",
+		"Shots fired.", // short but not routine
+		"At 10:15 on 3/4/2026.",
 	}
 	c, _ := build(t, docs, DefaultSettings())
-	want := []RoutineReason{ShortContent, ShortContent, RoutineWords, Duplicate, Duplicate, Duplicate, NotRoutine}
+	want := []RoutineReason{RoutineWords, RoutineWords, RoutineWords, Duplicate, Duplicate, Duplicate, NotRoutine, NotRoutine, ShortContent}
 	if !reflect.DeepEqual(c.Routine, want) {
 		t.Errorf("routine %v, want %v", c.Routine, want)
 	}
@@ -361,5 +363,32 @@ func TestSegmentsAndSuggestions(t *testing.T) {
 		if c.Common[i].Docs > c.Common[i-1].Docs {
 			t.Fatal("Common not sorted")
 		}
+	}
+}
+
+// The frozen pipeline weights the training narratives exactly as Corpus.Weights does.
+func TestFrozenWeights(t *testing.T) {
+	docs := genCorpus(200, 13)
+	c, f := build(t, docs, DefaultSettings())
+	w, _ := c.Weights()
+	if got := f.Weights(docs); !reflect.DeepEqual(got.Dense(), w.Dense()) {
+		t.Error("Frozen.Weights differs from Corpus.Weights on the training narratives")
+	}
+}
+
+// Degenerate corpora build without error or panic.
+func TestBuildDegenerate(t *testing.T) {
+	for _, docs := range [][]string{nil, {""}, {"", "  ", "<br />"}, {"the a of", "12 34"}, {"\xff\xfe"}} {
+		c, f := build(t, docs, DefaultSettings())
+		if c.Counts.Rows != len(docs) || len(c.Routine) != len(docs) {
+			t.Errorf("%q: rows %d routine %d", docs, c.Counts.Rows, len(c.Routine))
+		}
+		f.Transform("anything at all")
+		c.Weights()
+	}
+	s := DefaultSettings()
+	s.Stop.Lists = []string{"klingon"}
+	if _, _, err := Build(context.Background(), []string{"a"}, s); err == nil {
+		t.Error("unknown stopword list accepted")
 	}
 }

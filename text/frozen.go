@@ -30,6 +30,7 @@ type Frozen struct {
 	vocabID  map[string]int32
 	phraseOf map[[2]string]string
 	lexMemo  map[string][]lexWord
+	joinLeft map[string]bool
 	items    []item
 	routine  map[string]bool
 }
@@ -77,6 +78,11 @@ func (f *Frozen) Prepare() error {
 		f.phraseOf[p] = p[0] + "_" + p[1]
 	}
 	f.lexMemo = make(map[string][]lexWord)
+	f.joinLeft = make(map[string]bool, len(f.Joins))
+	for k := range f.Joins {
+		a, _, _ := strings.Cut(k, " ")
+		f.joinLeft[a] = true
+	}
 	f.routine = make(map[string]bool)
 	for _, w := range f.Settings.Routine.Words {
 		w = strings.ToLower(strings.TrimSpace(w))
@@ -130,23 +136,28 @@ func (f *Frozen) Transform(raw string) Doc {
 			brk()
 		}
 		start, end := sc.nb.rawSpan(int(t.s), int(t.e))
-		text := string(sc.text[t.a:t.b])
-		kind := t.kind
-		joined := false
-		if joinOn && i+1 < len(toks) && !toks[i+1].brk {
+		b := sc.text[t.a:t.b]
+		var le []lexWord
+		replaced := false
+		if joinOn && i+1 < len(toks) && !toks[i+1].brk && f.joinLeft[string(b)] {
 			n := toks[i+1]
-			if j, ok := f.Joins[text+" "+string(sc.text[n.a:n.b])]; ok {
-				text, kind, joined = j, Word, true
+			if j, ok := f.Joins[string(b)+" "+string(sc.text[n.a:n.b])]; ok {
+				le, replaced = f.lex(j, Word), true
 				_, end = sc.nb.rawSpan(int(n.s), int(n.e))
 				i++
 			}
 		}
-		if !joined {
-			if r, ok := f.Repairs[text]; ok {
-				text, kind = r, Word
+		if !replaced {
+			if r, ok := f.Repairs[string(b)]; ok {
+				le, replaced = f.lex(r, Word), true
 			}
 		}
-		le := f.lex(text, kind)
+		if !replaced {
+			var ok bool
+			if le, ok = f.lexMemo[string(b)]; !ok {
+				le = f.lex(string(b), t.kind)
+			}
+		}
 		if len(le) == 0 {
 			brk()
 			continue
@@ -183,7 +194,7 @@ func (f *Frozen) Transform(raw string) Doc {
 		}
 	}
 	switch {
-	case s.Routine.MaxContent > 0 && d.Content <= s.Routine.MaxContent:
+	case d.Content == 0 || d.Content <= s.Routine.MaxContent:
 		d.Routine = ShortContent
 	case allRoutine && d.Content > 0:
 		d.Routine = RoutineWords
@@ -203,9 +214,13 @@ func (f *Frozen) Counts(docs []string) *sparse.Matrix {
 // IDF returns the training idf of each term under the frozen weighting scheme, so new
 // narratives are weighted as the training narratives were.
 func (f *Frozen) IDF() []float64 {
-	sc := f.Settings.Weight
-	kind := sc.IDF
-	return weight.IDFWeights(nil, f.DocFreq, f.Docs, kind)
+	return weight.IDFWeights(nil, f.DocFreq, f.Docs, f.Settings.Weight.IDF)
+}
+
+// Weights returns the TF-IDF weights of new narratives under the frozen vocabulary, scheme
+// and training idf.
+func (f *Frozen) Weights(docs []string) *sparse.Matrix {
+	return weight.TFIDFWith(f.Counts(docs), f.Settings.Weight, f.IDF())
 }
 
 // Segment is a piece of a narrative for highlighting: Text is a stretch of the original

@@ -14,6 +14,7 @@ func FuzzAnalyze(f *testing.F) {
 		"w/", "w/o", "n/a/b", "don't'", "''s", "x's", "\xff\xfe", "e\u0301", "\u0301x", "ﬁ", "ｆ",
 		"\u00ad\u200b", "“Don’t” — x", "A\u2028B", "RP's veh w/ GOA&nbsp;<br />OK",
 		"At 9:00 a.m. on August 10, 2017, an employee's hand was caught.",
+		"ﬁw/:<ṕ-&é:", // once panicked: the NFKC iterator emitted a segment without advancing
 	}
 	for _, s := range seeds {
 		f.Add(s)

@@ -30,4 +30,3 @@ func TestInternTable(t *testing.T) {
 		t.Fatal("reset")
 	}
 }
-

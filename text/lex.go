@@ -22,7 +22,7 @@ type lexer struct {
 	stemOff bool
 	abbrev  *Abbrev
 	stop    *stopwords.Set
-	stems   stemCache
+	stems   *stemCache
 	buf     []lexWord
 }
 
@@ -36,8 +36,25 @@ func newLexer(s *Settings) (*lexer, error) {
 		stemOff: s.Stem.Off,
 		abbrev:  NewAbbrev(!s.Abbrev.NoShipped, s.Abbrev.User),
 		stop:    stop,
-		stems:   make(stemCache),
+		stems:   newStemCache(0),
 	}, nil
+}
+
+// Set builds the stopword set s describes: the named lists plus user words, minus keep
+// words. It returns an error for an unknown list name.
+func (s StopSettings) Set() (*stopwords.Set, error) { return stopSet(s) }
+
+// fork returns a lexer for another goroutine: it shares lx's tables, reads lx's stem cache
+// as a base (lx must not be used until the forks are done) and keeps its own additions.
+func (lx *lexer) fork() *lexer {
+	c := *lx
+	c.buf = nil
+	base := lx.stems.own
+	if lx.stems.base != nil {
+		panic("text: fork of a forked lexer")
+	}
+	c.stems = &stemCache{base: base, own: make(map[string]string)}
+	return &c
 }
 
 // stopSet builds the stopword set of s: the named lists plus user words, minus keep words.

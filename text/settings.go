@@ -113,10 +113,13 @@ type PhraseSettings struct {
 // RoutineSettings say which narratives are set aside as routine.
 type RoutineSettings struct {
 	// MaxContent: a narrative with at most this many content tokens (after stopwords) is
-	// routine; zero: this rule is off.
+	// routine, whatever they are. A narrative with none is always routine. Zero: only those.
+	// Beware that short narratives can matter ("shots fired"): DefaultSettings uses zero and
+	// relies on Words.
 	MaxContent int `json:"max_content"`
-	// Words are routine words (as written, e.g. "gone", "arrival"); a narrative whose content
-	// tokens are all routine words is routine. Nil: this rule is off.
+	// Words are routine words (as written, e.g. "gone", "arrival"; compared by stem after
+	// abbreviation expansion and stopwords); a narrative whose content tokens are all routine
+	// words is routine ("GOA", "UTL, area checked, all quiet"). Nil: this rule is off.
 	Words []string `json:"words,omitempty"`
 	// NearDup sets aside groups of at least MinGroup exact or near-duplicate narratives.
 	NearDup  bool `json:"near_dup"`
@@ -135,11 +138,14 @@ func DefaultSettings() Settings {
 		Vocab:   weight.Pruning{MinDocs: 2, MaxDocShare: 0.95},
 		Weight:  weight.Scheme{TF: weight.TFRaw, IDF: weight.IDFSmooth, Norm: weight.NormL2},
 		Routine: RoutineSettings{
-			MaxContent: 3,
-			Words:      []string{"gone", "arrival", "unable", "locate", "no", "action", "cleared", "clear", "cancelled", "canceled", "negative", "contact", "duplicate", "test"},
-			NearDup:    true,
-			MinGroup:   3,
-			Settings:   routine.Settings{Shingle: 3, Hashes: 32, Bands: 8, Threshold: 0.8, Seed: 1},
+			// Dispositions that say nothing happened (common practice, written from memory).
+			Words: []string{"gone", "arrival", "unable", "locate", "located", "action", "cleared", "clear", "cancelled",
+				"canceled", "cancel", "negative", "contact", "duplicate", "test", "checked", "check", "area", "secure",
+				"secured", "quiet", "okay", "ok", "nothing", "found", "unfounded", "answer", "voicemail", "message",
+				"callback", "disregard", "handled", "referred"},
+			NearDup:  true,
+			MinGroup: 3,
+			Settings: routine.Settings{Shingle: 3, Hashes: 32, Bands: 8, Threshold: 0.8, Seed: 1},
 		},
 	}
 }

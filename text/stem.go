@@ -17,15 +17,24 @@ func StemWord(w string) string {
 	return english.Stem(w, true)
 }
 
-// stemCache memoises StemWord. It is not safe for concurrent use.
-type stemCache map[string]string
+// stemCache memoises StemWord: base is a shared read-only table (may be nil), own the
+// cache's private additions. Forks share base, so stemming may run on several goroutines,
+// each with its own stemCache.
+type stemCache struct {
+	base, own map[string]string
+}
 
-func (c stemCache) stem(w string) string {
-	if s, ok := c[w]; ok {
+func newStemCache(size int) *stemCache { return &stemCache{own: make(map[string]string, size)} }
+
+func (c *stemCache) stem(w string) string {
+	if s, ok := c.base[w]; ok {
+		return s
+	}
+	if s, ok := c.own[w]; ok {
 		return s
 	}
 	s := StemWord(w)
-	c[w] = s
+	c.own[w] = s
 	return s
 }
 

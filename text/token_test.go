@@ -137,7 +137,7 @@ func TestNormalize(t *testing.T) {
 
 func TestStopAndStemFilters(t *testing.T) {
 	s := DefaultSettings()
-	set, err := stopSet(s.Stop)
+	set, err := s.Stop.Set()
 	if err != nil {
 		t.Fatal(err)
 	}

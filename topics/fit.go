@@ -108,7 +108,7 @@ func Fit(ctx context.Context, c Corpus, s Settings) (*Model, error) {
 	}
 	results := make([]result, s.Chains)
 	for ci := 0; ci < s.Chains; ci++ {
-		ch := newChain(K, V, words, docStart, alpha0, s.Beta, seeds, eta, s.Seed+uint64(ci), s.Partitions, s.sampler)
+		ch := newChain(K, V, words, docStart, alpha0, s.Beta, seeds, eta, s.Seed+uint64(ci)*chainSeedStep, s.Partitions, s.sampler)
 		D := len(docStart) - 1
 		phi := make([]float64, K*V)
 		theta := make([]float64, D*K)
@@ -180,6 +180,9 @@ func Fit(ctx context.Context, c Corpus, s Settings) (*Model, error) {
 	}
 	return model, nil
 }
+
+// chainSeedStep separates the seeds of a fit's chains (the 64-bit golden-ratio constant).
+const chainSeedStep = 0x9E3779B97F4A7C15
 
 // stabilityTop is the number of top words compared between chains and seeds.
 const stabilityTop = 10

@@ -2,6 +2,8 @@ package topics
 
 import (
 	"context"
+	"errors"
+	"math"
 	"testing"
 	"time"
 )
@@ -47,4 +49,32 @@ func testBars(t *testing.T, sk samplerKind, docs int) {
 		}
 	}
 	t.Logf("Hellinger per bar: %.3f", dist)
+}
+
+func TestFitProgressAndCancel(t *testing.T) {
+	g := generate(1, bars(), 100, 20, 1)
+	c := Corpus{Counts: countMatrix(g.docs, 25)}
+	var calls []int
+	m, err := Fit(context.Background(), c, Settings{K: 10, Iterations: 30, Chains: 2, Seed: 1,
+		Progress: func(done, total int) {
+			if total != 60 {
+				t.Fatalf("total %d, want 60", total)
+			}
+			calls = append(calls, done)
+		}})
+	if err != nil || len(calls) != 60 || calls[59] != 60 {
+		t.Fatalf("err %v, %d progress calls", err, len(calls))
+	}
+	if math.IsNaN(m.Stability) || m.Stability < 0 || m.Stability > 1 || len(m.ChainLogLikelihood) != 2 {
+		t.Fatalf("stability %v, chains %v", m.Stability, m.ChainLogLikelihood)
+	}
+	ctx, cancel := context.WithCancel(context.Background())
+	_, err = Fit(ctx, c, Settings{K: 10, Iterations: 30, Seed: 1, Progress: func(done, _ int) {
+		if done == 3 {
+			cancel()
+		}
+	}})
+	if !errors.Is(err, context.Canceled) {
+		t.Fatalf("got %v, want context.Canceled", err)
+	}
 }

@@ -6,6 +6,7 @@ import (
 	"io"
 	"runtime"
 	"slices"
+	"sync"
 	"testing"
 )
 
@@ -100,4 +101,55 @@ func TestStreamStopsOnEmitError(t *testing.T) {
 	if err != stop || n != 5 {
 		t.Fatalf("err %v after %d", err, n)
 	}
+}
+
+type countingSource struct {
+	n, read, emitted, maxOut int
+	doc                      []int32
+}
+
+func (s *countingSource) Next() (Doc, error) {
+	if s.read == s.n {
+		return Doc{}, io.EOF
+	}
+	s.read++
+	if out := s.read - s.emitted; out > s.maxOut {
+		s.maxOut = out
+	}
+	return Doc{ID: fmt.Sprint(s.read), IDs: s.doc}, nil
+}
+
+// TestStreamFlatMemory: however long the input, at most 4 × Workers narratives are read
+// ahead of the one being emitted (the test source's counters are shared by the reader
+// goroutine and emit, hence the lock).
+func TestStreamFlatMemory(t *testing.T) {
+	m, g := smallModel(t, Settings{Seed: 5})
+	tg := NewTagger(m, InferSettings{Iterations: 5, Workers: 2})
+	src := &countingSource{n: 3000, doc: g.docs[0]}
+	var mu sync.Mutex
+	emitted := 0
+	err := tg.Stream(context.Background(), lockedSource{src, &mu}, func(d Doc, th []float64) error {
+		mu.Lock()
+		src.emitted++
+		emitted++
+		mu.Unlock()
+		return nil
+	})
+	if err != nil || emitted != 3000 {
+		t.Fatalf("err %v, emitted %d", err, emitted)
+	}
+	if src.maxOut > 4*2+1 {
+		t.Fatalf("%d narratives in flight, want ≤ 9", src.maxOut)
+	}
+}
+
+type lockedSource struct {
+	s  *countingSource
+	mu *sync.Mutex
+}
+
+func (l lockedSource) Next() (Doc, error) {
+	l.mu.Lock()
+	defer l.mu.Unlock()
+	return l.s.Next()
 }

@@ -12,7 +12,11 @@ numbers. Each (system, bench, n) runs in its own process so that its peak
 resident memory (ru_maxrss, including the interpreter and the data) is its
 own. Prints one JSON line per run:
 
-    {"bench": "ward", "system": "fastcluster", "n": 20000, "seconds": ..., "peak_mb": ...}
+    {"bench": "ward", "system": "fastcluster", "n": 20000, "seconds": ...,
+     "cpu_seconds": ..., "peak_mb": ...}
+
+cpu_seconds (user + system time of the process during the call) is less
+disturbed than seconds when other work shares the machine.
 
 Ward: scipy.cluster.hierarchy.linkage(X, "ward") and
 fastcluster.linkage_vector(X, "ward"); average: linkage(X, "average") and
@@ -61,6 +65,7 @@ def run_one(system, bench, n, dump):
         from scipy.cluster.hierarchy import linkage
     else:
         import fastcluster
+    r0 = resource.getrusage(resource.RUSAGE_SELF)
     t0 = time.perf_counter()
     if system == "scipy":
         z = linkage(x, method=bench)
@@ -70,13 +75,16 @@ def run_one(system, bench, n, dump):
         else:
             z = fastcluster.linkage(x, method=bench)
     sec = time.perf_counter() - t0
+    r1 = resource.getrusage(resource.RUSAGE_SELF)
+    cpu = (r1.ru_utime - r0.ru_utime) + (r1.ru_stime - r0.ru_stime)
     peak = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024.0
     if dump:
         with open(os.path.join(dump, "%s-%s-%d.txt" % (system, bench, n)), "w") as f:
             for r in z:
                 f.write("%d %d %.17g\n" % (int(r[0]), int(r[1]), r[2]))
     print(json.dumps({"bench": bench, "system": system, "n": n,
-                      "seconds": round(sec, 3), "peak_mb": round(peak, 1)}))
+                      "seconds": round(sec, 3), "cpu_seconds": round(cpu, 3),
+                      "peak_mb": round(peak, 1)}))
     sys.stdout.flush()
 
 

@@ -27,7 +27,11 @@ func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
 	s := &Set{}
 	header := tabs[0].header
 	xlsx := true
-	var rows []rowRef
+	total := 0
+	for _, t := range tabs {
+		total += len(t.rows)
+	}
+	rows := make([]rowRef, 0, total)
 	s.Notes = mergeNotes(tabs)
 	for fi, t := range tabs {
 		s.Files = append(s.Files, t.info)
@@ -159,11 +163,7 @@ func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
 		s.DateRead = reading.describe()
 	}
 
-	type cand struct {
-		rec Record
-		fi  int
-	}
-	var cands []cand
+	cands := make([]Record, 0, len(rows))
 	var synth, noDate, badDate, implausible int
 	late := opt.Now.Add(zoneSlack)
 	for i, r := range rows {
@@ -239,7 +239,7 @@ func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
 				rec.Extra[j] = r.f[c]
 			}
 		}
-		cands = append(cands, cand{rec, r.fi})
+		cands = append(cands, rec)
 	}
 	if synth > 0 {
 		s.Notes = append(s.Notes, fmt.Sprintf("id column %q: %s no id; their id is file:line", s.IDName, count(synth, "row has", "rows have")))
@@ -255,14 +255,22 @@ func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
 	}
 
 	// Duplicate ids: keep the first (or, with KeepLast, the last) row of each id.
-	byID := map[string][]int{}
+	firstOf := make(map[string]int, len(cands)) // id -> index of its first row
+	more := map[string][]int{}                  // id -> indices of all its rows, when several
 	for i, c := range cands {
-		byID[c.rec.ID] = append(byID[c.rec.ID], i)
+		if j, ok := firstOf[c.ID]; ok {
+			if more[c.ID] == nil {
+				more[c.ID] = []int{j}
+			}
+			more[c.ID] = append(more[c.ID], i)
+		} else {
+			firstOf[c.ID] = i
+		}
 	}
 	drop := make([]bool, len(cands))
 	dups := 0
 	for i, c := range cands {
-		idx := byID[c.rec.ID]
+		idx := more[c.ID]
 		if len(idx) < 2 || idx[0] != i {
 			continue
 		}
@@ -270,14 +278,14 @@ func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
 		if opt.KeepLast {
 			keep = idx[len(idx)-1]
 		}
-		k := cands[keep].rec
+		k := cands[keep]
 		for _, j := range idx {
 			if j == keep {
 				continue
 			}
 			drop[j] = true
 			dups++
-			o := cands[j].rec
+			o := cands[j]
 			reason := ReasonDuplicateID
 			if o.Text != k.Text {
 				reason = ReasonDuplicateIDText
@@ -293,11 +301,13 @@ func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
 		}
 		s.Notes = append(s.Notes, fmt.Sprintf("duplicate ids: %s an id with another row; kept the %s of each", count(dups, "row shares", "rows share"), which))
 	}
+	s.Records = cands[:0]
 	for i, c := range cands {
 		if !drop[i] {
-			s.Records = append(s.Records, c.rec)
+			s.Records = append(s.Records, c)
 		}
 	}
+	clear(cands[len(s.Records):]) // release the dropped rows' strings
 	sort.SliceStable(s.Rejects, func(i, j int) bool {
 		a, b := s.Rejects[i], s.Rejects[j]
 		fa, fb := fileIndex[a.File], fileIndex[b.File]

@@ -182,7 +182,7 @@ func sampleRows(rows []rowRef, n int) []rowRef {
 	return out
 }
 
-func statsOf(rows []rowRef, col int, dateHint bool, serialOK bool, opt *Options) colStats {
+func statsOf(rows []rowRef, col int, dateHint bool, serialOK bool, fixed *dateReading, opt *Options) colStats {
 	var s colStats
 	var total int
 	for _, r := range rows {
@@ -199,7 +199,11 @@ func statsOf(rows []rowRef, col int, dateHint bool, serialOK bool, opt *Options)
 		if digits && !dateHint {
 			continue
 		}
-		if _, err := parseDate(v, opt.DateOrder, serialOK && digits, opt.Now); err == nil {
+		if fixed != nil {
+			if _, err := fixed.parse(v); err == nil {
+				s.parsed++
+			}
+		} else if _, err := parseDate(v, opt.DateOrder, serialOK && digits, opt.Now); err == nil {
 			s.parsed++
 		}
 	}
@@ -251,9 +255,15 @@ func chooseColumns(file string, header []string, rows []rowRef, xlsx bool, opt *
 		groupCols = append(groupCols, i)
 	}
 	sample := sampleRows(rows, 5000)
+	var fixed *dateReading // an explicit DateFormat also guides the choice of the date column
+	if opt.DateFormat != "" {
+		if fixed, _, err = decideReading("", nil, opt, xlsx, opt.Now); err != nil {
+			return
+		}
+	}
 	stats := make([]colStats, len(header))
 	for c := range header {
-		stats[c] = statsOf(sample, c, hintDate(header[c]) > 0, xlsx || hintDate(header[c]) > 0, opt)
+		stats[c] = statsOf(sample, c, hintDate(header[c]) > 0, xlsx || hintDate(header[c]) > 0, fixed, opt)
 	}
 	if opt.ID == "" {
 		type cand struct {

@@ -62,7 +62,7 @@ func sniffDelimiter(sample []byte) (delim rune, spaced bool, skip int) {
 		recs = append(recs, cur)
 	}
 	if len(recs) == 0 {
-		return ',', false, 0
+		return singleColumn, false, 0
 	}
 	best, bestScore, bestMode := -1, -1, 0
 	for k := range cands {
@@ -84,7 +84,7 @@ func sniffDelimiter(sample []byte) (delim rune, spaced bool, skip int) {
 		}
 	}
 	if best < 0 {
-		return ',', false, 0
+		return singleColumn, false, 0
 	}
 	h := 0
 	for h < len(recs) && h < 20 && recs[h].n[best] < bestMode {
@@ -102,15 +102,26 @@ func sniffDelimiter(sample []byte) (delim rune, spaced bool, skip int) {
 		}
 	}
 	hdr := recs[h]
+	if hdr.n[best] == 0 {
+		// The header has no separator at all: a single column, whatever the rows hold.
+		return singleColumn, false, hdr.line
+	}
 	if best == 0 && hdr.n[0] > 0 && hdr.spaceAfter == hdr.n[0] {
 		return ',', true, hdr.line
 	}
 	return rune(cands[best]), false, hdr.line
 }
 
+// singleColumn is the delimiter used for a file of one column: the ASCII unit
+// separator, which text exports do not hold.
+const singleColumn = '\x1f'
+
 func delimName(d rune, spaced bool) string {
 	if spaced {
 		return ", "
+	}
+	if d == singleColumn {
+		return ""
 	}
 	return string(d)
 }
@@ -171,6 +182,9 @@ func readCSV(ctx context.Context, name string, br *bufio.Reader, peek []byte, ex
 	}
 	if spaced {
 		t.notes = append(t.notes, fmt.Sprintf("%s: fields separated by \", \" (comma and space); leading spaces of fields are dropped", name))
+	}
+	if delim == singleColumn {
+		t.notes = append(t.notes, fmt.Sprintf("%s: the header has no separator; read as a single column", name))
 	}
 	blank, trailing, quoting := 0, 0, 0
 	for i := 0; ; i++ {

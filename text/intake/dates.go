@@ -229,7 +229,6 @@ func parseClock(rest string) (hh, mm, ss, ns int, loc *time.Location, err error)
 		return
 	}
 	rest = rest[len(sep):]
-	twelve := false
 	if m := reClock.FindStringSubmatch(rest); m != nil {
 		hh, mm, ss, ns = atoi(m[1]), atoi(m[2]), atoi(m[3]), nanos(m[4])
 		rest = rest[len(m[0]):]
@@ -244,7 +243,6 @@ func parseClock(rest string) (hh, mm, ss, ns int, loc *time.Location, err error)
 		return
 	}
 	if m := reMeridiem.FindStringSubmatch(rest); m != nil {
-		twelve = true
 		if hh < 1 || hh > 12 {
 			err = fmt.Errorf("%w: hour %d with AM/PM", errBadValue, hh)
 			return
@@ -258,7 +256,6 @@ func parseClock(rest string) (hh, mm, ss, ns int, loc *time.Location, err error)
 		}
 		rest = rest[len(m[0]):]
 	}
-	_ = twelve
 	if strings.TrimSpace(rest) != "" {
 		m := reZone.FindStringSubmatch(rest)
 		if m == nil {

@@ -13,6 +13,7 @@
 //
 //   - "PK\x03\x04" with an xl/ entry inside is an XLSX workbook (github.com/xuri/excelize/v2),
 //     read from Options.Sheet or the first sheet, raw cell values, row 1 the header;
+//   - gzip files (1F 8B) are decompressed to a temporary file and read as what they hold;
 //   - other zip archives and OLE2 (.xls) files are errors;
 //   - text starting with '[' is a JSON array of objects; with '{', JSON Lines when the
 //     first line is a whole object, else one object whose first array-valued key holds
@@ -22,7 +23,8 @@
 //     element or line that is not an object is rejected ("bad json");
 //   - anything else is delimited text. The delimiter is sniffed among ',' tab ';' '|',
 //     plus ", " (comma and space, as in the safenet exports; encoding/csv's
-//     TrimLeadingSpace then drops leading blanks of fields). A preamble before the
+//     TrimLeadingSpace then drops leading blanks of fields); a header without any of
+//     them makes a single-column file. A preamble before the
 //     header (a report title, a generation date) is detected and skipped with a note
 //     (Options.SkipLines overrides); line numbers stay those of the file. Lines ending
 //     in a bare CR are read as lines. Quoting is RFC 4180 through
@@ -87,7 +89,9 @@
 //
 //	ISO 8601 extended  2020-01-05, 2020-01-05T14:30, 2020-01-05 14:30:00.5, with Z,
 //	                   +02:00, +0200 or +02 zones; also 2020/01/05
-//	ISO 8601 basic     20200105, 20200105T143000Z, 20200105T1430+0200
+//	ISO 8601 basic     YYYYMMDD and YYYYMMDDThhmm[ss][.fff][Z|+hh[mm]]: 20200105,
+//	                   20200105T143000Z, 20200105T1430+0200 (week dates 2020-W01-1
+//	                   and ordinal dates 2020-005 are not read)
 //	numeric            M/D/YYYY, M/D/YY, D/M/YYYY (also with '-' or '.' separators)
 //	month names        Jan 5, 2020; January 5 2020; 5 January 2020; 05-Jan-2020; an
 //	                   optional leading weekday ("Sunday, January 5, 2020")
@@ -97,8 +101,9 @@
 //	                   3:45 PM, 3 pm, 1545 (24-hour, four digits)
 //
 // Zones are Z, UTC, GMT or a numeric offset (+02:00, +0200, +02); named zones such as
-// EST are not read (they are ambiguous). Two-digit years are 20YY unless that is after Options.Now's year, then 19YY. Values
-// without a zone are in UTC. The numeric order is a column decision: day-first when some
+// EST are not read (they are ambiguous). Two-digit years are 20YY unless that is after
+// Options.Now's year, then 19YY. Values without a zone are in UTC. Options.Time names a
+// separate time-of-day column, read after the date. The numeric order is a column decision: day-first when some
 // value has a first field > 12 and none a second field > 12, month-first when the
 // reverse, month-first (US exports) when no value decides, and by majority when values
 // conflict (the minority is then rejected); the note says which and why.
@@ -114,8 +119,8 @@
 // # Rejects and duplicates
 //
 // Checks run in this order and the first that fails gives the reason: ragged row, bad
-// quoting, bad json, bad encoding (while parsing), blank row, empty narrative, missing date,
-// unparseable date, implausible date. Among the rows left, rows sharing an id keep the
+// quoting, bad json, bad encoding (while parsing), blank row, empty narrative, missing
+// date, unparseable date, implausible date. Among the rows left, rows sharing an id keep the
 // first (Options.KeepLast: the last, for exports that carry several versions of a
 // report); the others are rejected as "duplicate id", or "duplicate id, different text"
 // when their narrative differs from the kept row's, with the kept row's file:line as
@@ -126,5 +131,7 @@
 // Survey describes a Set without modelling: encodings, columns, rows kept and rejected
 // by reason, date span and counts per month (empty months included), narrative length
 // distribution, share of exact-duplicate narratives, common opening words and bigrams,
-// and words found in a large share of narratives (stopword candidates).
+// words found in a large share of narratives (stopword candidates), the values of the
+// group columns, and passed-through columns that could serve as groups (2 to 50
+// distinct values, at most a tenth empty).
 package intake

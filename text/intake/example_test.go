@@ -48,3 +48,31 @@ func ExampleRead() {
 	// stdin,4,24-0003,unparseable date,"""2/30/2024"": field out of range: day 30 of February 2024"
 	// stdin,5,24-0001,duplicate id,kept the row at stdin:2
 }
+
+func ExampleSurvey() {
+	export := "id,date,narrative\n" +
+		"1,2024-01-03,Checked the area; all clear.\n" +
+		"2,2024-03-09,Checked the area; all clear.\n" +
+		"3,2024-03-20,RP reported a loose dog near the Cedar Court playground.\n"
+	s, err := intake.Read(context.Background(), []string{"-"}, strings.NewReader(export), intake.Options{Now: time.Date(2025, 1, 1, 0, 0, 0, 0, time.UTC)})
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	r := intake.Survey(s, intake.SurveyOptions{Top: 2})
+	for _, m := range r.Months {
+		fmt.Println(m.Month, m.N, m.Empty)
+	}
+	fmt.Println("words:", r.Words.Min, r.Words.Median, r.Words.Max)
+	fmt.Println("duplicates:", r.DuplicateTexts)
+	fmt.Println("openings:", r.Openings)
+	fmt.Println("common:", r.CommonWords[0].Word, r.CommonWords[0].Docs)
+	// Output:
+	// 2024-01 1 false
+	// 2024-02 0 true
+	// 2024-03 2 false
+	// words: 5 5 10
+	// duplicates: 1
+	// openings: [{checked 2} {rp 1}]
+	// common: the 3
+}

@@ -79,6 +79,8 @@ func FuzzReadJSON(f *testing.F) {
 		`[`,
 		`{"a":1}{"a":2}`,
 		"[\n{\"t\":\"\\u00e9\"}\n]",
+		"{\"meta\":{\"n\":1},\n\"records\":[{\"id\":1,\"text\":\"a\"},{\"id\":2,\"text\":\"b\"}]}",
+		"{\n\"data\": [[1, 2], {\"id\": 3}]\n}",
 	} {
 		f.Add([]byte(s))
 	}

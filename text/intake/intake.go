@@ -7,6 +7,7 @@ import (
 	"fmt"
 	"io"
 	"os"
+	"path/filepath"
 	"sort"
 	"strconv"
 	"strings"
@@ -26,7 +27,8 @@ type Options struct {
 	// Text names the narrative columns, joined with a blank line ("\n\n") in this order;
 	// nil chooses one automatically.
 	Text []string
-	// Groups names columns kept for breakdowns (district, call type ...), in Record.Groups.
+	// Groups names columns kept for breakdowns (district, call type ...), in Record.Groups;
+	// nil keeps none apart (they are then among Record.Extra).
 	Groups []string
 	// DateFormat fixes the reading of the date column: "" automatic, "iso", "mdy", "dmy",
 	// "excel" (1900-system serial numbers), a strftime-like format holding '%'
@@ -175,6 +177,14 @@ func Read(ctx context.Context, paths []string, stdin io.Reader, opt Options) (*S
 	}
 	if opt.Now.IsZero() {
 		opt.Now = time.Now()
+	}
+	seen := map[string]bool{}
+	for _, p := range paths {
+		k := filepath.Clean(p)
+		if seen[k] {
+			return nil, &PosError{File: p, Err: errors.New("given twice on the command line")}
+		}
+		seen[k] = true
 	}
 	var tabs []*table
 	for _, p := range paths {

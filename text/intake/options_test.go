@@ -44,6 +44,10 @@ func TestStdinJSONAndMissingFile(t *testing.T) {
 	if _, err := Read(context.Background(), []string{"/nonexistent/x.csv"}, nil, Options{}); err == nil || !strings.Contains(err.Error(), "/nonexistent/x.csv") {
 		t.Errorf("missing file: %v", err)
 	}
+	p := writeFile(t, "twice.csv", []byte("id,narrative\n1,a\n"))
+	if _, err := Read(context.Background(), []string{p, p}, nil, Options{}); err == nil || !strings.Contains(err.Error(), "twice") {
+		t.Errorf("same file twice: %v", err)
+	}
 	if _, err := Read(context.Background(), nil, nil, Options{}); err == nil {
 		t.Error("no paths accepted")
 	}

@@ -2,7 +2,9 @@ package intake
 
 import (
 	"bytes"
+	"compress/gzip"
 	"context"
+	"encoding/json"
 	"errors"
 	"os"
 	"path/filepath"
@@ -255,6 +257,27 @@ func TestPreamble(t *testing.T) {
 	}
 }
 
+func TestSingleColumn(t *testing.T) {
+	s, err := readOne(t, "one.csv", "narrative\nHe said, hello; then left\n\"quoted, too\"\n", Options{})
+	if err != nil || len(s.Records) != 2 || s.Records[0].Text != "He said, hello; then left" || s.Records[1].Text != "quoted, too" || s.Files[0].Delimiter != "" {
+		t.Errorf("%v %+v", err, s)
+	}
+}
+
+func TestGzip(t *testing.T) {
+	var b bytes.Buffer
+	zw := gzip.NewWriter(&b)
+	zw.Write([]byte("id,narrative\n1,compressed export\n"))
+	zw.Close()
+	s, err := readOne(t, "g.csv.gz", b.String(), Options{})
+	if err != nil || s.Records[0].Text != "compressed export" || !strings.Contains(s.Notes[0], "gzip") {
+		t.Errorf("%v %+v", err, s)
+	}
+	if _, err := readOne(t, "bad.gz", "\x1f\x8bnot really", Options{}); !errors.Is(err, ErrBinary) {
+		t.Errorf("damaged gzip: %v", err)
+	}
+}
+
 func TestCROnlyLines(t *testing.T) {
 	s, err := readOne(t, "mac.csv", "id,narrative\r1,one\r2,two\r", Options{})
 	if err != nil || len(s.Records) != 2 || s.Records[1].Line != 3 {
@@ -340,6 +363,11 @@ func TestDayFirstColumn(t *testing.T) {
 	s, _ = readOne(t, "d.csv", in, Options{DateFormat: "%d/%m/%Y"})
 	if s.Records[0].Date.Month() != 4 || s.DateRead != "layout 02/01/2006" {
 		t.Errorf("explicit format: %q %v", s.DateRead, s.Records[0].Date)
+	}
+	// A format no automatic reading knows still finds its column.
+	s, err = readOne(t, "e.csv", "id,when,narrative\n1,2020y01m05d,a\n2,2020y02m06d,b\n", Options{DateFormat: "2006y01m02d"})
+	if err != nil || s.DateName != "when" || s.Records[1].Date.Month() != 2 {
+		t.Errorf("explicit layout column: %v %q", err, s.DateName)
 	}
 	_, err = readOne(t, "d.csv", in, Options{DateFormat: "dd/mm"})
 	if !errors.Is(err, ErrDateFormat) {
@@ -547,5 +575,41 @@ func TestHugeField(t *testing.T) {
 	}
 	if len(s.Records) != 3 || len(s.Records[0].Text) != len(big)-1 || len(s.Records[1].Text) != len(mid) || s.Records[2].Line != 4 {
 		t.Errorf("%s", s.Summary())
+	}
+}
+
+// TestAgainstPythonCSV reads testdata/tricky.csv, written by Python's csv module, and
+// compares every record with Python's csv.reader (testdata/tricky_expected.json, from
+// testdata/gen_tricky_csv.py). One documented difference: encoding/csv turns a CRLF
+// inside a quoted field into LF, where Python keeps CRLF.
+func TestAgainstPythonCSV(t *testing.T) {
+	b, err := os.ReadFile(filepath.Join("testdata", "tricky_expected.json"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var want []struct {
+		Line   int
+		Fields []string
+	}
+	if err := json.Unmarshal(b, &want); err != nil {
+		t.Fatal(err)
+	}
+	s, err := Read(context.Background(), []string{filepath.Join("testdata", "tricky.csv")}, nil, Options{Now: testNow})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s.Files[0].Delimiter != "," || s.IDName != "Report No" || s.DateName != "Occurred" || s.TextNames[0] != "Narrative" {
+		t.Fatalf("%+v %q %q %q", s.Files[0], s.IDName, s.DateName, s.TextNames)
+	}
+	want = want[1:] // header
+	if len(s.Records) != len(want) || s.Read != len(want) {
+		t.Fatalf("%s; want %d rows", s.Summary(), len(want))
+	}
+	for i, r := range s.Records {
+		w := want[i].Fields
+		text := strings.TrimSpace(strings.ReplaceAll(w[2], "\r\n", "\n"))
+		if r.ID != w[0] || r.Text != text || r.Extra[0] != w[3] || r.Line != want[i].Line {
+			t.Errorf("record %d: %q %q %q line %d; want %q %q %q line %d", i, r.ID, r.Text, r.Extra[0], r.Line, w[0], text, w[3], want[i].Line)
+		}
 	}
 }

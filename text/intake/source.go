@@ -4,10 +4,12 @@ import (
 	"archive/zip"
 	"bufio"
 	"bytes"
+	"compress/gzip"
 	"context"
 	"encoding/json"
 	"fmt"
 	"io"
+	"os"
 	"path/filepath"
 	"strings"
 )
@@ -53,6 +55,8 @@ func readSource(ctx context.Context, name string, r io.ReaderAt, size int64, opt
 			}
 		}
 		return nil, &PosError{File: name, Err: fmt.Errorf("%w: zip archive that is not an Excel workbook (no xl/ inside)", ErrBinary)}
+	case bytes.HasPrefix(head, []byte{0x1F, 0x8B}):
+		return readGzip(ctx, name, io.NewSectionReader(r, 0, size), opt)
 	case bytes.HasPrefix(head, []byte{0xD0, 0xCF, 0x11, 0xE0, 0xA1, 0xB1, 0x1A, 0xE1}):
 		return nil, &PosError{File: name, Err: fmt.Errorf("%w: legacy Excel .xls (or other OLE2) file; save it as .xlsx or CSV", ErrBinary)}
 	}
@@ -76,7 +80,7 @@ func readSource(ctx context.Context, name string, r io.ReaderAt, size int64, opt
 		notes = append(notes, name+": lines end in a carriage return alone; read as line ends")
 	}
 	var t *table
-	ext := strings.ToLower(filepath.Ext(name))
+	ext := filepath.Ext(strings.TrimSuffix(strings.ToLower(name), ".gz"))
 	first := firstNonSpace(peek)
 	if ext != ".csv" && ext != ".tsv" && (first == '[' || first == '{') {
 		// '[': an array of objects. '{': JSON Lines when the first line is a whole
@@ -181,4 +185,35 @@ func (t *tailTracker) lastLine() int {
 		return t.cur
 	}
 	return t.prev
+}
+
+// readGzip decompresses a gzip file (RFC 1952; magic 1F 8B) into a temporary file and
+// reads that. Line numbers are those of the decompressed text.
+func readGzip(ctx context.Context, name string, r io.Reader, opt *Options) (*table, error) {
+	zr, err := gzip.NewReader(r)
+	if err != nil {
+		return nil, &PosError{File: name, Err: fmt.Errorf("%w: damaged gzip file: %v", ErrBinary, err)}
+	}
+	f, err := os.CreateTemp("", "undercurrent-gunzip-*")
+	if err != nil {
+		return nil, err
+	}
+	defer os.Remove(f.Name())
+	defer f.Close()
+	n, err := io.Copy(f, zr)
+	if err != nil {
+		return nil, &PosError{File: name, Err: fmt.Errorf("%w: damaged gzip file: %v", ErrBinary, err)}
+	}
+	if n >= 2 {
+		var h [2]byte
+		if _, err := f.ReadAt(h[:], 0); err == nil && h == [2]byte{0x1F, 0x8B} {
+			return nil, &PosError{File: name, Err: fmt.Errorf("%w: gzip inside gzip", ErrBinary)}
+		}
+	}
+	t, err := readSource(ctx, name, f, n, opt)
+	if err != nil {
+		return nil, err
+	}
+	t.notes = append([]string{name + ": gzip-compressed; read decompressed"}, t.notes...)
+	return t, nil
 }

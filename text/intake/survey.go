@@ -46,6 +46,16 @@ type WordShare struct {
 	Share float64
 }
 
+// ColumnValues is a column, how many distinct non-empty values it has among the kept
+// records, how many records leave it empty, and its most frequent values (by count,
+// then value; at most SurveyOptions.Top).
+type ColumnValues struct {
+	Name     string
+	Distinct int
+	Empty    int
+	Top      []TermCount
+}
+
 // SurveyResult describes a Set without modelling. Every list is in a fixed order.
 type SurveyResult struct {
 	Files                    []FileInfo
@@ -53,15 +63,17 @@ type SurveyResult struct {
 	DateRead                 string
 	TextNames, GroupNames    []string
 	Read, Kept, Rejected     int
-	Rejects                  []ReasonCount // by count, then reason
-	Dated                    int           // kept records with a date
-	First, Last              time.Time     // date span of the dated records
-	Months                   []MonthCount  // from First's month to Last's month
-	Chars, Words             Quartiles     // narrative length in characters (runes) and words
-	DuplicateTexts           int           // kept records whose narrative equals an earlier one's
-	DuplicateShare           float64       // DuplicateTexts / Kept
-	Openings, OpeningBigrams []TermCount   // by count, then term
-	CommonWords              []WordShare   // by share, then word
+	Rejects                  []ReasonCount  // by count, then reason
+	Dated                    int            // kept records with a date
+	First, Last              time.Time      // date span of the dated records
+	Months                   []MonthCount   // from First's month to Last's month
+	Chars, Words             Quartiles      // narrative length in characters (runes) and words
+	DuplicateTexts           int            // kept records whose narrative equals an earlier one's
+	DuplicateShare           float64        // DuplicateTexts / Kept
+	Openings, OpeningBigrams []TermCount    // by count, then term
+	CommonWords              []WordShare    // by share, then word
+	Groups                   []ColumnValues // the group columns, their values by count
+	GroupCandidates          []ColumnValues // passed-through columns that look like groups
 	CommonShare              float64
 	Notes                    []string
 }
@@ -148,6 +160,31 @@ func Survey(s *Set, opt SurveyOptions) *SurveyResult {
 	for w, n := range df {
 		if sh := float64(n) / float64(r.Kept); sh > opt.CommonShare {
 			r.CommonWords = append(r.CommonWords, WordShare{w, n, sh})
+		}
+	}
+	values := func(name string, get func(Record) string) ColumnValues {
+		m := map[string]int{}
+		cv := ColumnValues{Name: name}
+		for _, rec := range s.Records {
+			if v := strings.TrimSpace(get(rec)); v != "" {
+				m[v]++
+			} else {
+				cv.Empty++
+			}
+		}
+		cv.Distinct = len(m)
+		cv.Top = topTerms(m, opt.Top)
+		return cv
+	}
+	for i, g := range s.GroupNames {
+		r.Groups = append(r.Groups, values(g, func(rec Record) string { return rec.Groups[i] }))
+	}
+	// A passed-through column looks like a group when it has 2 to 50 distinct values and
+	// at most a tenth of the kept records leave it empty.
+	for i, x := range s.ExtraNames {
+		cv := values(x, func(rec Record) string { return rec.Extra[i] })
+		if cv.Distinct >= 2 && cv.Distinct <= 50 && 10*cv.Empty <= r.Kept {
+			r.GroupCandidates = append(r.GroupCandidates, cv)
 		}
 	}
 	sort.Slice(r.CommonWords, func(i, j int) bool {
@@ -270,6 +307,25 @@ func (r *SurveyResult) WriteText(w io.Writer) error {
 		p(" %s (%.0f%%);", x.Word, 100*x.Share)
 	}
 	p("\n")
+	cols := func(name string, cs []ColumnValues) {
+		if len(cs) == 0 {
+			return
+		}
+		p("%s:\n", name)
+		for _, c := range cs {
+			p("  %q: %d values", c.Name, c.Distinct)
+			if c.Empty > 0 {
+				p(", %d empty", c.Empty)
+			}
+			p(";")
+			for _, x := range c.Top {
+				p(" %s (%d);", x.Term, x.N)
+			}
+			p("\n")
+		}
+	}
+	cols("groups", r.Groups)
+	cols("columns that could serve as groups", r.GroupCandidates)
 	if len(r.Notes) > 0 {
 		p("notes:\n")
 		for _, n := range r.Notes {

@@ -119,3 +119,22 @@ func TestSurveyOSHA(t *testing.T) {
 		t.Errorf("common %v, want %v", common, pairs(want.Common))
 	}
 }
+
+func TestSurveyGroups(t *testing.T) {
+	in := "id,District,Beat,Unit,narrative\n" +
+		"1,North,7,u1,noise complaint\n2,North,8,u2,alarm call\n3,South,7,u3,loose dog\n4,,9,u4,parking\n5,East,7,,lost wallet\n"
+	s, err := readOne(t, "g.csv", in, Options{Groups: []string{"District"}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	r := Survey(s, SurveyOptions{Top: 2})
+	want := []ColumnValues{{"District", 3, 1, []TermCount{{"North", 2}, {"East", 1}}}}
+	if !reflect.DeepEqual(r.Groups, want) {
+		t.Errorf("groups %+v", r.Groups)
+	}
+	// Beat: 3 values, none empty -> candidate; Unit: 4 values but 1 of 5 empty
+	// (more than a tenth) -> not; id and narrative are not passed through.
+	if len(r.GroupCandidates) != 1 || r.GroupCandidates[0].Name != "Beat" || r.GroupCandidates[0].Distinct != 3 {
+		t.Errorf("candidates %+v", r.GroupCandidates)
+	}
+}

@@ -25,12 +25,13 @@ var (
 	orgOnly      map[string]bool // orgWords without the street suffixes
 	titleWords   = map[string]bool{"mr": true, "mrs": true, "ms": true, "miss": true, "mx": true, "dr": true, "mister": true}
 	personVerbs  map[string]bool
-	personBefore = set("told asked and saw called met per")
+	personBefore = set("told asked saw called met per")
+	strongVerbs  = set("said says stated states told tells reported advised explained admitted denied asked yelled fled")
 	// words before a capitalised run that make it a thing, not a person: "a Timberjack
 	// Feller Buncher", "caused by Myocardial Infarction" is kept out by "of"/"as" ...
 	thingBefore      = set("a an the this that these those his her their its our your my each every any some of as using into onto")
 	usStates         = set("AL AK AZ AR CA CO CT DE DC FL GA HI ID IL IN IA KS KY LA ME MD MA MI MN MS MO MT NE NV NH NJ NM NY NC ND OH OK OR PA RI SC SD TN TX UT VT VA WA WV WI WY PR")
-	placePrepsBefore = map[string]bool{"in": true, "at": true, "near": true, "into": true, "inside": true, "via": true}
+	placePrepsBefore = set("in at near into inside via from of toward towards")
 )
 
 func set(words string) map[string]bool {
@@ -95,7 +96,13 @@ func loadLists() {
 	association union committee council board court office agency bureau administration
 	authority commission community elementary middle high institute library museum theater
 	theatre stadium arena hall tower towers building bldg complex estates gardens heights
-	terrace village woods hills valley bay beach island harbor port point ridge springs falls`)
+	terrace village woods hills valley bay beach island harbor port point ridge springs falls
+	dispatch helibase helitack heliport airbase base forest forests butte peak mesa canyon
+	ranger rangers rappellers rappel crew crews engine division div ops operations fire fires
+	camp fort armory mountain mtn lookout repeater zone team hotshots smokejumpers wilderness
+	monument refuge reservation field hardware diner storage laundromat pool launch transit
+	motors auto garage salon barber bakery liquor mart depot shop shops supply tavern lounge
+	cinema gym fitness laundry cleaners rental rentals lot yard towing wash elementary`)
 	orgOnly = map[string]bool{}
 	for k := range orgWords {
 		orgOnly[k] = true
@@ -110,8 +117,7 @@ func loadLists() {
 
 // isDictWord reports whether w (any case) is an ordinary English word.
 func isDictWord(w string) bool {
-	lw := strings.ToLower(w)
-	lw = strings.TrimSuffix(strings.TrimSuffix(lw, "'s"), "’s")
+	lw := baseWord(w)
 	if dict[lw] {
 		return true
 	}
@@ -129,9 +135,25 @@ func isDictWord(w string) bool {
 // isCommonWord reports whether w is a dictionary word also seen in lower case in modern
 // reports (not only in the literary vocabulary, which holds surnames such as "bromley").
 func isCommonWord(w string) bool {
-	lw := strings.ToLower(w)
-	lw = strings.TrimSuffix(strings.TrimSuffix(lw, "'s"), "’s")
-	return common[lw]
+	return common[baseWord(w)]
+}
+
+// baseWord lower-cases w and removes a possessive or a contraction ("Quosby's" → "quosby",
+// "I've" → "i"), so that contractions are found in the dictionary.
+func baseWord(w string) string {
+	lw := strings.ReplaceAll(strings.ToLower(w), "’", "'")
+	for _, suf := range []string{"'s", "'ve", "'d", "'re", "'ll", "'m", "n't"} {
+		if strings.HasSuffix(lw, suf) && len(lw) > len(suf) {
+			b := lw[:len(lw)-len(suf)]
+			if suf == "'s" {
+				return b
+			}
+			if dict[b] || b == "i" || b == "ca" || b == "wo" {
+				return "i" // a known word with a contraction is ordinary
+			}
+		}
+	}
+	return lw
 }
 
 func isNameListed(w string) bool {
@@ -144,6 +166,9 @@ func capitalised(w string) bool {
 	r, n := utf8.DecodeRuneInString(w)
 	if !unicode.IsUpper(r) {
 		return false
+	}
+	if r2, _ := utf8.DecodeRuneInString(w[n:]); unicode.IsUpper(r2) {
+		return false // "AAs", "IMTs": an abbreviation
 	}
 	for _, c := range w[n:] {
 		if unicode.IsLower(c) {
@@ -193,6 +218,11 @@ func (d *doc) nameToken(i int) bool {
 		if isNameListed(w) {
 			return true
 		}
+		// In mixed-case text a word in capitals is usually an abbreviation ("DOZB"),
+		// except in "QUOSBY, Ann".
+		if !d.caps && !(d.isPunct(i+1, ",") && i+2 < len(d.toks) && d.toks[i+2].kind == tWord && capitalised(d.word(i+2))) {
+			return false
+		}
 		lw := strings.ToLower(w)
 		return !isDictWord(w) && !strings.HasSuffix(lw, "ed") && !strings.HasSuffix(lw, "ing") && !strings.HasSuffix(lw, "ly")
 	}
@@ -205,7 +235,7 @@ func (d *doc) nameSeq(i int) (end int, parts []string) {
 	j := i
 	// In capitals a first word that is a dictionary word ("JURA") is taken when a clear
 	// name word follows it ("JURA PRITCHLEY").
-	if !d.nameToken(j) && d.capsSurname(j) && d.nameToken(j+1) && d.toks[j+1].nl == 0 {
+	if d.caps && !d.nameToken(j) && d.capsSurname(j) && d.nameToken(j+1) && d.toks[j+1].nl == 0 {
 		parts = append(parts, d.lower[j])
 		j++
 	}
@@ -324,8 +354,9 @@ func (d *doc) names(cs []cand) []cand {
 				break
 			}
 			if end, parts := d.nameSeq(j); len(parts) > 0 {
-				// "Coworker #1", "Unit 12": a label, not a name.
-				if !(end < len(d.toks) && (d.toks[end].kind == tNum || d.isPunct(end, "#"))) {
+				// "Coworker #1", "Unit 12": a label, not a name; "contacted Dispatch": an
+				// ordinary word, not a name.
+				if !(end < len(d.toks) && (d.toks[end].kind == tNum || d.isPunct(end, "#"))) && nameLike(parts) {
 					cs = d.addName(cs, j, end, parts)
 				}
 				i = end - 1
@@ -405,8 +436,8 @@ func (d *doc) heuristicNames(cs []cand) []cand {
 		if org || (idx[0] > 0 && d.toks[idx[0]-1].kind == tNum) {
 			continue
 		}
-		// a model number after, or ", MN" (a place), marks a thing.
-		if next < len(d.toks) && d.toks[next].kind == tNum {
+		// a model number after, or ", MN" (a place), marks a thing; a phone number does not.
+		if next < len(d.toks) && d.toks[next].kind == tNum && !d.phoneAhead(next) {
 			continue
 		}
 		if d.isPunct(next, ",") && next+1 < len(d.toks) && usStates[d.word(next+1)] {
@@ -416,7 +447,9 @@ func (d *doc) heuristicNames(cs []cand) []cand {
 		for len(idx) > 0 {
 			w := d.word(idx[0])
 			lw := strings.ToLower(w)
-			if stopNames[lw] || titleWords[lw] || (d.sentenceStart(idx[0]) && isDictWord(w) && !givenNames[lw]) {
+			sentence := d.sentenceStart(idx[0]) && isDictWord(w) && !givenNames[lw]
+			title := len(idx) >= 3 && isCommonWord(w) && !givenNames[lw] // "Firefighter Eva Schicke"
+			if stopNames[lw] || titleWords[lw] || sentence || title {
 				idx = idx[1:]
 				continue
 			}
@@ -470,6 +503,10 @@ func (d *doc) heuristicNames(cs []cand) []cand {
 			if firstOK && !lastOK && (personBefore[prev] || verb) && !orgWords[strings.ToLower(lw)] {
 				lastOK = true
 			}
+			// a known given name that is no ordinary word vouches for the surname: "Rick Moon".
+			if len(idx) == 2 && givenNames[first] && !isCommonWord(fw) && !orgWords[strings.ToLower(lw)] {
+				lastOK = true
+			}
 			ok = nonDict >= 1 && firstOK && lastOK
 			if d.quoted(idx[0], idx[len(idx)-1]) {
 				ok = false
@@ -482,7 +519,7 @@ func (d *doc) heuristicNames(cs []cand) []cand {
 			}
 			// a single word needs a person's verb after it or a person's context before it.
 			ok = nonDict >= 1 && utf8.RuneCountInString(w) >= 3 && !placePrepsBefore[prev] && !d.quoted(idx[0], idx[0])
-			verb := next < len(d.toks) && d.toks[next].kind == tWord && personVerbs[strings.ToLower(d.word(next))]
+			verb := next < len(d.toks) && d.toks[next].kind == tWord && strongVerbs[d.lower[next]]
 			ok = ok && (verb || personBefore[prev])
 		}
 		if ok {
@@ -826,4 +863,24 @@ func (d *doc) personContext(i, j int) bool {
 		return true
 	}
 	return j+1 < len(d.toks) && d.toks[j+1].kind == tWord && personVerbs[d.lower[j+1]]
+}
+
+// nameLike reports whether some word of a cued name is a known name or not a common word.
+func nameLike(parts []string) bool {
+	for _, p := range parts {
+		if givenNames[p] || surnames[p] || !isCommonWord(p) {
+			return true
+		}
+	}
+	return false
+}
+
+// phoneAhead reports whether token i starts something phone-shaped: three digits followed
+// by "-", "." or ")".
+func (d *doc) phoneAhead(i int) bool {
+	t := d.toks[i]
+	if t.kind != tNum || t.end-t.start != 3 {
+		return false
+	}
+	return d.isPunct(i+1, "-") || d.isPunct(i+1, ".") || d.isPunct(i+1, ")")
 }

@@ -95,8 +95,10 @@ func TestSSN(t *testing.T) {
 	})
 }
 
-// 49 CFR 565.15(c) check digit. Worked example: 1M8GDM9AXKP042788 (a commonly quoted
-// example VIN, from memory) has check digit X: sum of value*weight = 351, 351 mod 11 = 10.
+// 49 CFR 565.15 check digit (common practice, from memory). Worked example:
+// 1M8GDM9AXKP042788 (a commonly quoted example VIN) has check digit X: the sum of
+// value*weight is 351 (checked independently with a one-line Python sum over the table in
+// structured.go), 351 mod 11 = 10.
 func TestVINCheckDigit(t *testing.T) {
 	for _, c := range []struct {
 		vin  string
@@ -104,7 +106,7 @@ func TestVINCheckDigit(t *testing.T) {
 	}{
 		{"1M8GDM9AXKP042788", 'X'},
 		{"11111111111111111", '1'}, // all ones: sum of weights 89, 89 mod 11 = 1
-		{"1HGCM82633A004352", '3'}, // a commonly quoted valid VIN (from memory)
+		{"1HGCM82633A004352", '3'}, // a commonly quoted valid VIN (from memory): sum 311, mod 11 = 3
 	} {
 		got, ok := VINCheckDigit(c.vin)
 		if !ok || got != c.want {
@@ -149,6 +151,8 @@ func TestPlate(t *testing.T) {
 		{"plate 7ABC123", []string{"7ABC123"}},
 		{"CA plate 7ABC123", []string{"7ABC123"}},
 		{"tag ABC-1234 was", []string{"ABC-1234"}},
+		{"plate AB 12345 was", []string{"AB 12345"}}, // AB is no state code
+		{"plate TX 12345 was", []string{"12345"}},    // TX is
 		{"Lic# 4KJ8822", []string{"4KJ8822"}},
 		{"registration XYZ 1234", []string{"XYZ 1234"}},
 		{"on the tag out board", nil},
@@ -169,6 +173,12 @@ func TestAddress(t *testing.T) {
 		{"met at Main/Oak today", []string{"Main/Oak"}},
 		{"fell 20 feet onto the road", nil},
 		{"and/or", nil},
+		{"a call on Air/Ground from", nil}, // a radio channel (SAFENET), not a corner
+		{"stopped at Marrowell and Quennel for", []string{"Marrowell and Quennel"}},
+		{"stopped at 4th and Quennel.", []string{"4th and Quennel"}},
+		{"met at Smith and Jones", nil},           // ordinary words and surnames: not taken
+		{"at Tarrowby and Quennel Hardware", nil}, // a business name follows
+		{"plate AB 12345 was", nil},               // (Plate type only below)
 	})
 }
 
@@ -179,6 +189,8 @@ func TestCaseNo(t *testing.T) {
 		{"report 21-3456", []string{"21-3456"}},
 		{"the incident 2017", nil},
 		{"a Case 1150 bulldozer", nil},
+		{"the Paradise fire incident 10/21/2000, the", nil}, // a date, not a number
+		{"ticket #2105006 for", []string{"2105006"}},
 	})
 }
 
@@ -299,5 +311,44 @@ func TestTypes(t *testing.T) {
 	}
 	if _, err := New(Options{Names: []string{"  "}}); err == nil {
 		t.Error("empty name accepted")
+	}
+}
+
+func TestAllowAndTypes(t *testing.T) {
+	r := mustNew(t, Options{Allow: []string{"Ostrander", "Pell Creek Market"}})
+	in := "Caller Tamo Quosby said Ostrander was closed; staff at Pell Creek Market saw Quosby. Call 555-555-0142."
+	want := "Caller [NAME-1] said Ostrander was closed; staff at Pell Creek Market saw [NAME-1]. Call [PHONE]."
+	if got, _ := r.Redact(in); got != want {
+		t.Errorf("allow:\n got %q\nwant %q", got, want)
+	}
+	// Allow wins over every name detector, cues included.
+	if got, _ := r.Redact("Mr. Ostrander left."); got != "Mr. Ostrander left." {
+		t.Errorf("allow over cue: %q", got)
+	}
+	only := mustNew(t, Options{Types: Types(Phone)})
+	if got, _ := only.Redact(in); got != "Caller Tamo Quosby said Ostrander was closed; staff at Pell Creek Market saw Quosby. Call [PHONE]." {
+		t.Errorf("Types(Phone): %q", got)
+	}
+	noHeur := mustNew(t, Options{NoHeuristicNames: true})
+	if got, _ := noHeur.Redact("A bystander saw Corvin Ashvley near the gate."); got != "A bystander saw Corvin Ashvley near the gate." {
+		t.Errorf("NoHeuristicNames: %q", got)
+	}
+}
+
+// TestMergeSpans checks that finds of a later pass are mapped back to the input: "[NAME-2]"
+// in the input raises the numbering, and spans always name input text.
+func TestMergeSpans(t *testing.T) {
+	prev := []Span{{Type: Phone, Start: 5, End: 17, Placeholder: "[PHONE]"}}
+	text := "call 555-555-0123 Mr. Quosby"
+	out := render(text, prev) // "call [PHONE] Mr. Quosby"
+	found := []Span{{Type: Name, Start: strings.Index(out, "Quosby"), End: len(out), Placeholder: "[NAME-1]"}}
+	got := mergeSpans(prev, found, text)
+	if len(got) != 2 || got[1].Text != "Quosby" || got[1].Start != strings.Index(text, "Quosby") {
+		t.Fatalf("mergeSpans: %+v", got)
+	}
+	r := mustNew(t, Options{})
+	o, spans := r.Redact("[NAME-2] met Mr. Quosby.")
+	if o != "[NAME-2] met Mr. [NAME-3]." || len(spans) != 1 || spans[0].Text != "Quosby" {
+		t.Errorf("numbering after existing placeholders: %q %+v", o, spans)
 	}
 }

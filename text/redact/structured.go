@@ -146,7 +146,7 @@ func (d *doc) emails(cs []cand) []cand {
 }
 
 // Phone: North American Numbering Plan, NPA-NXX-XXXX. The area code (NPA) and the central
-// office code (NXX) both start with 2-9 (NANPA / ATIS-0300051 numbering guidelines, from
+// office code (NXX) both start with 2-9 (NANPA and ATIS numbering guidelines, from
 // memory). An optional country code 1 and an extension ("ext. 12", "x12", "#12") may follow.
 var (
 	phoneRe      = regexp.MustCompile(`(?:\+\s?1[ .-]?|\b1[ .-])?(?:\(\s?([2-9][0-9]{2})\s?\)[ .-]?|\b([2-9][0-9]{2})([ .-]?))([2-9][0-9]{2})([ .-]?)([0-9]{4})(?:\s{0,2}(?i:ext\.?|extension|x|#)\s{0,2}[0-9]{1,6})?`)
@@ -228,18 +228,23 @@ func (d *doc) ssns(cs []cand) []cand {
 }
 
 // VIN: 17 characters from the digits and the letters other than I, O and Q, position 9 a
-// check digit (49 CFR 565.15(c)): each character is transliterated to a number, multiplied
-// by its position weight, the products summed, and the sum taken mod 11; a remainder of 10
-// is written X.
+// check digit (49 CFR 565.15, from memory): each character is transliterated to a number,
+// multiplied by its position weight, the products summed, and the sum taken mod 11; a
+// remainder of 10 is written X.
+//
+//	letters:  A=1 B=2 C=3 D=4 E=5 F=6 G=7 H=8 J=1 K=2 L=3 M=4 N=5 P=7 R=9
+//	          S=2 T=3 U=4 V=5 W=6 X=7 Y=8 Z=9; digits are their own value
+//	weights:  8 7 6 5 4 3 2 10 0 9 8 7 6 5 4 3 2  (positions 1-17)
+//	check  =  (sum_i value_i * weight_i) mod 11, 10 written X
 var (
 	vinRe    = regexp.MustCompile(`^[A-HJ-NPR-Za-hj-npr-z0-9]{17}$`)
 	vinCueRe = regexp.MustCompile(`(?i)\bvin\b[^.\n]*$`)
 )
 
-// vinWeights are the position weights of 49 CFR 565.15(c).
+// vinWeights are the position weights of 49 CFR 565.15.
 var vinWeights = [17]int{8, 7, 6, 5, 4, 3, 2, 10, 0, 9, 8, 7, 6, 5, 4, 3, 2}
 
-// vinValue is the transliteration table of 49 CFR 565.15(c); -1 marks letters not allowed.
+// vinValue is the transliteration table of 49 CFR 565.15; -1 marks letters not allowed.
 func vinValue(c byte) int {
 	switch {
 	case c >= '0' && c <= '9':
@@ -254,7 +259,7 @@ func vinValue(c byte) int {
 	return int(table[c-'A'] - '0')
 }
 
-// VINCheckDigit returns the check digit ('0'-'9' or 'X') that 49 CFR 565.15(c) gives for
+// VINCheckDigit returns the check digit ('0'-'9' or 'X') that 49 CFR 565.15 gives for
 // vin, which must be 17 characters long, and false when vin has a character that is not
 // allowed.
 func VINCheckDigit(vin string) (byte, bool) {
@@ -384,7 +389,7 @@ func (d *doc) ages(cs []cand) []cand {
 // letters and digits with at least one digit, in one or two groups.
 var plateTrig = set("license licence plate plates tag tags registration reg lic lp")
 
-var plateRe = regexp.MustCompile(`(?i)\b(?:license\s+plate|licence\s+plate|plates?|tags?|registration|reg|lic|license|licence|lp)\b\.?(?:\s?(?:#|no\.?|num\.?|nbr\.?|number|:|-|reading|of|was|is|displaying|bearing|showing|state)\s?|\s+(?-i:[A-Z]{2})\s+)*\s?(?-i:([A-Z0-9]{1,4}(?:[ -][A-Z0-9]{1,5})?|[A-Z0-9]{5,8}))\b`)
+var plateRe = regexp.MustCompile(`(?i)\b(?:license\s+plate|licence\s+plate|plates?|tags?|registration|reg|lic|license|licence|lp)\b\.?(?:\s?(?:#|no\.?|num\.?|nbr\.?|number|:|-|reading|of|was|is|displaying|bearing|showing|state)\s?|\s+(?-i:A[LKZR]|C[AOT]|D[EC]|FL|GA|HI|I[DLNA]|K[SY]|LA|M[EDAINSOT]|N[EVHJMYCD]|O[HKR]|PA|RI|S[CD]|T[NX]|UT|V[TA]|W[AVIY]|PR)\s+)*\s?(?-i:([A-Z0-9]{1,4}(?:[ -][A-Z0-9]{1,5})?|[A-Z0-9]{5,8}))\b`)
 
 func (d *doc) plates(cs []cand) []cand {
 	d.scan(plateRe, d.triggers(d.flagged(fPlate)), 0, 48, func(m []int) {
@@ -425,6 +430,8 @@ func (d *doc) plates(cs []cand) []cand {
 
 // Case numbers: a cue word, optional "#", "no.", "number", then an identifier with at least
 // four digits ("24-001234", "2021-00012", "R21-3456").
+var dateRe = regexp.MustCompile(`^(?:[0-9]{1,2}[/-][0-9]{1,2}[/-][0-9]{2,4}|[0-9]{4}-[0-9]{2}-[0-9]{2})$`)
+
 var caseTrig = set("case incident inc report rpt file complaint cad event ticket citation warrant docket booking reference ref control ccn dr ir cr rms")
 
 var caseRe = regexp.MustCompile(`(?i)\b(?:case|incident|inc|report|rpt|file|complaint|cad|event|ticket|citation|warrant|docket|booking|reference|ref|control|ccn|dr|ir|cr|rms)\b\.?((?:\s?(?:#|no\.?|num\.?|nbr\.?|number|:)\s?)*)\s?([A-Z]{0,4}-?[0-9]{2,}(?:[-/][0-9A-Z]+)*)\b`)
@@ -440,8 +447,8 @@ func (d *doc) caseNos(cs []cand) []cand {
 				digits++
 			}
 		}
-		if digits < 4 {
-			return
+		if digits < 4 || dateRe.MatchString(v) {
+			return // too short, or a date ("incident 10/21/2000")
 		}
 		if marker == "" {
 			if y, err := strconv.Atoi(v); err == nil && len(v) == 4 && y >= 1900 && y <= 2099 {

@@ -90,9 +90,10 @@ func distance(a, b []rune) float64 {
 
 // Index finds the closest target word of a query word.
 type Index struct {
-	targets []string
-	runes   [][]rune
-	del     map[string][]int32
+	targets   []string
+	runes     [][]rune
+	del       map[string][]int32
+	canonOnly bool
 }
 
 // canonical maps a word to its OCR-canonical form: 0→o, 1→l, i→l, 5→s, e→c, rn→m, cl→d, vv→w.
@@ -138,9 +139,12 @@ func canonical(w string) []rune {
 // it. Two words within one plain edit plus any number of OCR confusions share a key
 // (the "symmetric delete" idea), so with costs of at most 1 no candidate is missed, apart from
 // rare interactions of an edit with a two-character confusion.
-func keys(w string, f func(string)) {
+func (ix *Index) keys(w string, f func(string)) {
 	c := canonical(w)
 	f(string(c))
+	if ix.canonOnly {
+		return
+	}
 	buf := make([]rune, 0, len(c))
 	for i := range c {
 		if i > 0 && c[i] == c[i-1] {
@@ -151,9 +155,14 @@ func keys(w string, f func(string)) {
 	}
 }
 
-// NewIndex indexes the target words (duplicates are ignored).
-func NewIndex(targets []string) *Index {
-	ix := &Index{del: make(map[string][]int32)}
+// NewIndex indexes the target words (duplicates are ignored) for queries with costs up to 1.
+func NewIndex(targets []string) *Index { return NewIndexLimit(targets, 1) }
+
+// NewIndexLimit is NewIndex for queries whose maxCost is at most limit. Below 1 only OCR
+// confusions (cost 0.5 each) are within reach, and two words within confusions of each other
+// have the same canonical form, so only canonical forms are indexed (much smaller and faster).
+func NewIndexLimit(targets []string, limit float64) *Index {
+	ix := &Index{del: make(map[string][]int32), canonOnly: limit < 1}
 	seen := make(map[string]bool)
 	for _, t := range targets {
 		if seen[t] {
@@ -163,7 +172,7 @@ func NewIndex(targets []string) *Index {
 		id := int32(len(ix.targets))
 		ix.targets = append(ix.targets, t)
 		ix.runes = append(ix.runes, []rune(t))
-		keys(t, func(s string) {
+		ix.keys(t, func(s string) {
 			l := ix.del[s]
 			if len(l) == 0 || l[len(l)-1] != id {
 				ix.del[s] = append(l, id)
@@ -179,7 +188,10 @@ func NewIndex(targets []string) *Index {
 func (ix *Index) Best(w string, maxCost float64) (target string, cost float64, ok bool) {
 	rw := []rune(w)
 	var cands []int32
-	keys(w, func(s string) {
+	if ix.canonOnly && maxCost >= 1 {
+		panic("repair: Index built with NewIndexLimit below 1 queried with maxCost >= 1")
+	}
+	ix.keys(w, func(s string) {
 		cands = append(cands, ix.del[s]...)
 	})
 	sort.Slice(cands, func(i, j int) bool { return cands[i] < cands[j] })

@@ -70,3 +70,16 @@ func TestWriteCSV(t *testing.T) {
 		t.Errorf("got %q", b.String())
 	}
 }
+
+// A canonical-only index finds the same confusion-only matches as the full one.
+func TestIndexLimit(t *testing.T) {
+	targets := []string{"vehicle", "officer", "suspect", "male", "mile", "driver", "modern", "clear"}
+	full, small := NewIndex(targets), NewIndexLimit(targets, 0.5)
+	for _, w := range []string{"veh1cle", "0fficer", "5uspect", "rnale", "rnodern", "ciear", "elear", "vehilce", "mble", "zzzz"} {
+		a, ca, oka := full.Best(w, 0.5)
+		b, cb, okb := small.Best(w, 0.5)
+		if a != b || ca != cb || oka != okb {
+			t.Errorf("%q: full %q %v %v, canonical-only %q %v %v", w, a, ca, oka, b, cb, okb)
+		}
+	}
+}

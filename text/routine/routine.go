@@ -126,23 +126,26 @@ func (h *Hasher) Signature(dst []uint64, tokens []uint64) []uint64 {
 // group (itself when it has none); nil or empty signatures are never grouped. The result does
 // not depend on anything but the signatures and their order.
 func (h *Hasher) Groups(sigs [][]uint64) []int {
-	parent := make([]int, len(sigs))
-	for i := range parent {
-		parent[i] = i
-	}
-	var find func(int) int
-	find = func(i int) int {
-		for parent[i] != i {
-			parent[i] = parent[parent[i]]
-			i = parent[i]
+	return h.GroupsParallel(sigs, nil)
+}
+
+// GroupsParallel is Groups with the bands searched through run, which must call f(b) once
+// for every band b in [0, n), possibly concurrently (nil: one after another). The result is the
+// same whatever the order of the calls: a group is a connected component, named by its
+// smallest index.
+func (h *Hasher) GroupsParallel(sigs [][]uint64, run func(n int, f func(b int))) []int {
+	if run == nil {
+		run = func(n int, f func(int)) {
+			for b := 0; b < n; b++ {
+				f(b)
+			}
 		}
-		return i
 	}
 	rows := h.s.Hashes / h.s.Bands
-	first := make(map[uint64]int, len(sigs))
-	for b := 0; b < h.s.Bands; b++ {
-		clear(first)
-	next:
+	pairs := make([][][2]int32, h.s.Bands)
+	run(h.s.Bands, func(b int) {
+		first := make(map[uint64]int32, len(sigs))
+		var out [][2]int32
 		for i, sig := range sigs {
 			if len(sig) != h.s.Hashes {
 				continue
@@ -154,23 +157,37 @@ func (h *Hasher) Groups(sigs [][]uint64) []int {
 				filled = filled || v != empty
 			}
 			if !filled {
-				continue next // an all-empty band says nothing
+				continue // an all-empty band says nothing
 			}
 			j, ok := first[key]
 			if !ok {
-				first[key] = i
-				continue
-			}
-			if find(i) == find(j) {
+				first[key] = int32(i)
 				continue
 			}
 			if Similarity(sig, sigs[j]) >= h.s.Threshold {
-				ri, rj := find(i), find(j)
-				if ri < rj {
-					parent[rj] = ri
-				} else if rj < ri {
-					parent[ri] = rj
-				}
+				out = append(out, [2]int32{int32(i), j})
+			}
+		}
+		pairs[b] = out
+	})
+	parent := make([]int, len(sigs))
+	for i := range parent {
+		parent[i] = i
+	}
+	find := func(i int) int {
+		for parent[i] != i {
+			parent[i] = parent[parent[i]]
+			i = parent[i]
+		}
+		return i
+	}
+	for _, ps := range pairs {
+		for _, p := range ps {
+			ri, rj := find(int(p[0])), find(int(p[1]))
+			if ri < rj {
+				parent[rj] = ri
+			} else if rj < ri {
+				parent[ri] = rj
 			}
 		}
 	}

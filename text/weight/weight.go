@@ -110,8 +110,21 @@ func TFIDF(counts *sparse.Matrix, s Scheme) (*sparse.Matrix, []float64) {
 	if err := s.Validate(); err != nil {
 		panic(err.Error())
 	}
+	idf := IDFWeights(nil, counts.DocumentFrequency(), counts.Rows, s.resolved().IDF)
+	return TFIDFWith(counts, s, idf), idf
+}
+
+// TFIDFWith weights counts with a given idf vector (for example the training corpus's, so
+// that new narratives are weighted as the training ones were; see text.Frozen.IDF). It panics
+// if len(idf) != counts.Cols or the scheme names an unknown variant.
+func TFIDFWith(counts *sparse.Matrix, s Scheme, idf []float64) *sparse.Matrix {
+	if err := s.Validate(); err != nil {
+		panic(err.Error())
+	}
+	if len(idf) != counts.Cols {
+		panic("weight: idf length does not match column count")
+	}
 	r := s.resolved()
-	idf := IDFWeights(nil, counts.DocumentFrequency(), counts.Rows, r.IDF)
 	out := &sparse.Matrix{
 		Rows:    counts.Rows,
 		Cols:    counts.Cols,
@@ -148,7 +161,7 @@ func TFIDF(counts *sparse.Matrix, s Scheme) (*sparse.Matrix, []float64) {
 			}
 		}
 	}
-	return out, idf
+	return out
 }
 
 // Pruning says which terms a vocabulary keeps. The zero value keeps every term.

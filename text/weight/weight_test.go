@@ -110,3 +110,19 @@ func TestPrune(t *testing.T) {
 		}
 	}
 }
+
+// TFIDFWith with the idf TFIDF computed gives the same weights.
+func TestTFIDFWith(t *testing.T) {
+	counts := matrix([][]float64{{3, 0, 1}, {2, 0, 0}, {3, 2, 0}})
+	s := Scheme{TF: TFLog, IDF: IDFSmooth, Norm: NormL2}
+	w, idf := TFIDF(counts, s)
+	if got := TFIDFWith(counts, s, idf); !reflect.DeepEqual(got, w) {
+		t.Errorf("TFIDFWith %v, TFIDF %v", got.Dense(), w.Dense())
+	}
+	defer func() {
+		if recover() == nil {
+			t.Error("short idf did not panic")
+		}
+	}()
+	TFIDFWith(counts, s, idf[:2])
+}
