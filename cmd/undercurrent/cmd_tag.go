@@ -9,6 +9,7 @@ import (
 	"fmt"
 	"io"
 	"os"
+	"sync"
 
 	"undercurrent/report"
 	"undercurrent/report/export"
@@ -244,9 +245,10 @@ type prepDoc struct {
 }
 
 // tagRecords redacts each record, runs it through the frozen pipeline (one copy per worker,
-// in parallel) and folds it in with tg.Stream, then calls emit with the record's index and
-// its K+1 theme shares (the last one is the routine column) in record order. At most a
-// fixed number of narratives are in flight. theta passed to emit is reused afterwards.
+// in parallel, in batches of tagBatch narratives) and folds it in with tg.Stream, then calls
+// emit with the record's index and its K+1 theme shares (the last one is the routine
+// column) in record order. At most a fixed number of narratives are in flight, so memory
+// does not grow with len(recs). theta passed to emit is reused afterwards.
 //
 // The processing of one narrative is exactly prepare's for fitting: redactor.Redact, then
 // redact.Blank, then the frozen pipeline's Transform.
@@ -258,25 +260,26 @@ func tagRecords(ctx context.Context, recs []intake.Record, red *redact.Redactor,
 	if W < 1 {
 		panic("undercurrent: tagRecords without a pipeline")
 	}
-	window := 8 * W
-	type job struct {
-		i   int
-		res chan prepDoc
+	window := 2 * W // batches in flight in the preprocessing stage
+	type batch struct {
+		lo, hi int
+		docs   []prepDoc
+		ready  chan struct{}
 	}
-	jobs := make(chan job, window)
-	order := make(chan job, window)
+	jobs := make(chan *batch, window)
+	order := make(chan *batch, window)
 	go func() {
 		defer close(jobs)
 		defer close(order)
-		for i := range recs {
-			j := job{i, make(chan prepDoc, 1)}
+		for lo := 0; lo < len(recs); lo += tagBatch {
+			b := &batch{lo: lo, hi: min(lo+tagBatch, len(recs)), ready: make(chan struct{})}
 			select {
-			case order <- j:
+			case order <- b:
 			case <-ctx.Done():
 				return
 			}
 			select {
-			case jobs <- j:
+			case jobs <- b:
 			case <-ctx.Done():
 				return
 			}
@@ -285,45 +288,64 @@ func tagRecords(ctx context.Context, recs []intake.Record, red *redact.Redactor,
 	for w := 0; w < W; w++ {
 		fr := pipes[w]
 		go func() {
-			for j := range jobs {
-				out, _ := red.Redact(recs[j.i].Text)
-				d := fr.Transform(redact.Blank(out))
-				j.res <- prepDoc{terms: d.Terms, routine: d.Routine != text.NotRoutine}
+			for b := range jobs {
+				b.docs = make([]prepDoc, 0, b.hi-b.lo)
+				for i := b.lo; i < b.hi; i++ {
+					out, _ := red.Redact(recs[i].Text)
+					d := fr.Transform(redact.Blank(out))
+					b.docs = append(b.docs, prepDoc{terms: d.Terms, routine: d.Routine != text.NotRoutine})
+				}
+				close(b.ready)
 			}
 		}()
 	}
-	// fifo carries each narrative's index and routine flag from the source to emit; Stream
+	// fifo carries each narrative's index and routine flag from the source to emit: Stream
 	// calls Next and emit in the same (input) order and holds at most 4 × Workers
-	// narratives, so the buffer never fills.
+	// narratives, so the queue stays that short.
 	type entry struct {
 		i       int
 		routine bool
 	}
-	fifo := make(chan entry, 4*W+window+16)
+	var (
+		mu   sync.Mutex
+		fifo []entry
+	)
+	var cur *batch
+	at := 0
 	src := &sourceFunc{next: func() (topics.Doc, error) {
-		j, ok := <-order
-		if !ok {
-			if err := ctx.Err(); err != nil {
-				return topics.Doc{}, err
+		if cur == nil || at == len(cur.docs) {
+			b, ok := <-order
+			if !ok {
+				if err := ctx.Err(); err != nil {
+					return topics.Doc{}, err
+				}
+				return topics.Doc{}, io.EOF
 			}
-			return topics.Doc{}, io.EOF
+			select {
+			case <-b.ready:
+			case <-ctx.Done():
+				return topics.Doc{}, ctx.Err()
+			}
+			cur, at = b, 0
 		}
-		var p prepDoc
-		select {
-		case p = <-j.res:
-		case <-ctx.Done():
-			return topics.Doc{}, ctx.Err()
-		}
-		fifo <- entry{j.i, p.routine}
+		p := cur.docs[at]
+		i := cur.lo + at
+		at++
+		mu.Lock()
+		fifo = append(fifo, entry{i, p.routine})
+		mu.Unlock()
 		ids := p.terms
 		if p.routine {
 			ids = nil // not a theme of the model: no need to sample
 		}
-		return topics.Doc{ID: recs[j.i].ID, IDs: ids}, nil
+		return topics.Doc{ID: recs[i].ID, IDs: ids}, nil
 	}}
 	var full []float64
 	err := tg.Stream(ctx, src, func(d topics.Doc, theta []float64) error {
-		en := <-fifo
+		mu.Lock()
+		en := fifo[0]
+		fifo = fifo[1:]
+		mu.Unlock()
 		if full == nil {
 			full = make([]float64, len(theta)+1)
 		}
@@ -350,6 +372,9 @@ func tagRecords(ctx context.Context, recs []intake.Record, red *redact.Redactor,
 	}
 	return st, nil
 }
+
+// tagBatch is the number of narratives a preprocessing worker takes at a time.
+const tagBatch = 64
 
 type sourceFunc struct {
 	next func() (topics.Doc, error)
