@@ -42,8 +42,10 @@ as labels. The format is our own:
 	words: taser, baton, force
 
 Keys are case-insensitive; words are separated by commas. Each word must be in the
-vocabulary, as a pipeline term (stemmed) or as a display word; one that is not is an error
-naming it. Every theme needs a name not used before and at least one word.
+vocabulary, as a pipeline term (stemmed) or as a word the way fit and describe print it; a
+two-word phrase is written as they print it ("animal control"). A word that is not in the
+vocabulary is an error naming it. Every theme needs a name not used before and at least
+one word.
 
 Themes summarise what narrative writers wrote; they are not findings of fact.
 
@@ -136,4 +138,16 @@ func writeFitSummary(w io.Writer, m *topics.Model, n int) error {
 		}
 	}
 	return nil
+}
+
+// phraseSeeds writes the words of seed themes the way the vocabulary spells phrases: the
+// text pipeline joins a phrase's words with "_" ("animal_control") and no term holds a
+// space, while fit and describe print phrases with a space ("animal control").
+func phraseSeeds(seeds []topics.SeedTheme) []topics.SeedTheme {
+	for i := range seeds {
+		for j, w := range seeds[i].Words {
+			seeds[i].Words[j] = strings.Join(strings.Fields(w), "_")
+		}
+	}
+	return seeds
 }

@@ -40,10 +40,10 @@ memory does not grow with the number of tagged narratives beyond what reading th
 holds.
 
 Routine narratives (whose content reduces to a few routine words, as the pipeline settings
-in the model define them) are not tagged with a theme: they get the extra last theme
-"` + routineLabel + `", number K, as in the
-report's exports. Near-duplicate narratives are set aside only when a model is fitted, not
-here (that would depend on the batch).
+in the model define them) are not tagged with a theme: they get the extra last theme,
+number K, labelled "` + routineLabel + `", as in the report's
+exports. Near-duplicate narratives are set aside only when a model is fitted, not here
+(that would depend on the batch).
 
 Redaction: pass the same -names and -allow files as when the model was fitted, so that the
 text the model reads is redacted the same way.
@@ -52,9 +52,12 @@ Output: one row per kept narrative in the wide form of narratives-wide.csv (id, 
 -group columns, the strongest theme with its label and share, the next two themes) to -out
 or standard output; with -long also one row per narrative and theme with a share of at least
 -min-share. A labels file (-labels, as for 'undercurrent report') merges and labels themes
-before the rows are written. Ids are written as they are in the input.
+before the rows are written. Ids are written as they are in the input; narrative text is
+never written.
 
-Themes summarise what narrative writers wrote; they are not findings of fact.
+Themes summarise what narrative writers wrote; they are not findings of fact. Ids, dates
+and group values together can identify people: check public-records law, data-sharing
+terms and ethics review before sharing the output.
 
 Example:
 

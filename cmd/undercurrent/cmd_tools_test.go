@@ -2,6 +2,7 @@ package main
 
 import (
 	"bytes"
+	"context"
 	"encoding/csv"
 	"encoding/json"
 	"fmt"
@@ -354,5 +355,49 @@ func TestSweepSmall(t *testing.T) {
 	}
 	if code, _, _ := runArgs(t, "sweep", "-k-range", "9-3", csvPath); code != exitUsage {
 		t.Errorf("sweep -k-range 9-3: exit %d, want 2", code)
+	}
+}
+
+// Guided themes: a seed file's themes become themes 0, 1, ... and keep their names as
+// labels (issue 5 item 2). Without -themes, -k-range chooses K by a sweep first.
+func TestFitGuidedAndSwept(t *testing.T) {
+	csvPath, _ := fitted(t)
+	dir := t.TempDir()
+	seeds := filepath.Join(dir, "concerns.txt")
+	os.WriteFile(seeds, []byte("# tracked concerns\ntheme: alarms\nwords: alarm, keyholder\ntheme: animals\nwords: dog\nwords: animal control\n"), 0o644)
+	model := filepath.Join(dir, "guided.ucmodel")
+	args := append([]string{"fit", "-k-range", "3,4", "-iterations", "20", "-chains", "1", "-seed-words", seeds, "-model", model}, inputArgs...)
+	code, out, errs := runArgs(t, append(args, csvPath)...)
+	if code != exitOK {
+		t.Fatalf("fit -k-range -seed-words: exit %d: %s", code, errs)
+	}
+	if !strings.Contains(errs, "number of themes: ") {
+		t.Errorf("fit -k-range did not report the sweep's choice: %s", errs)
+	}
+	if !strings.Contains(out, "theme  0  alarms\n") || !strings.Contains(out, "theme  1  animals\n") {
+		t.Errorf("guided themes not first with their names:\n%s", out)
+	}
+	code, out, _ = runArgs(t, "describe", "-model", model)
+	if code != exitOK || !strings.Contains(out, "theme 0 (guided): alarms") {
+		t.Errorf("describe guided: exit %d\n%s", code, out)
+	}
+}
+
+// An interrupted tag run exits 130 and leaves no output file under its final name.
+func TestTagInterrupted(t *testing.T) {
+	csvPath, model := fitted(t)
+	dir := t.TempDir()
+	out := filepath.Join(dir, "tagged.csv")
+	ctx, cancel := context.WithCancel(context.Background())
+	cancel()
+	var o, e bytes.Buffer
+	args := append([]string{"tag", "-model", model, "-out", out}, inputArgs...)
+	code := run(ctx, &env{stdin: strings.NewReader(""), stdout: &o, stderr: &e, quiet: true}, append(args, csvPath))
+	if code != exitInterrupted {
+		t.Errorf("cancelled tag: exit %d, want %d: %s", code, exitInterrupted, e.String())
+	}
+	ents, _ := os.ReadDir(dir)
+	if len(ents) != 0 {
+		t.Errorf("cancelled tag left %v", ents)
 	}
 }
