@@ -19,10 +19,11 @@ func init() {
 		usage: "sweep [options] file...",
 		short: "compare numbers of themes: held-out likelihood, coherence, stability, and a recommendation",
 		long: `Sweep reads, redacts and cleans the export(s) as 'undercurrent fit' does and fits the
-themes for every number of themes K in -k-range on 80% of the narratives (the split is
-seeded), with -seeds fits per K. For each K it reports:
+themes for every number of themes K in -k-range on the narratives not held out (-held-out,
+a seeded split; routine ones are set aside as for fitting), with -seeds fits per K. For each
+K it reports:
 
-	heldout_ll   held-out log-likelihood per token of the other 20% by document
+	heldout_ll   held-out log-likelihood per token of the held-out narratives by document
 	             completion (Wallach, Murray, Salakhutdinov & Mimno 2009): higher is better
 	npmi         mean NPMI coherence of each theme's top words (Bouma 2009), -1 to 1
 	umass        mean UMass coherence (Mimno et al. 2011), 0 or below; nearer 0 is better

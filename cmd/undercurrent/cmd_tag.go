@@ -90,8 +90,8 @@ Example:
 				if workers < 1 {
 					return usagef("-workers %d: want at least 1", workers)
 				}
-				if iters < 0 || iters == 1 {
-					return usagef("-iterations %d: want at least 2", iters)
+				if iters < 0 {
+					return usagef("-iterations %d: want at least 1", iters)
 				}
 				if !(minShare >= 0 && minShare <= 1) {
 					return usagef("-min-share %v: want 0 to 1", minShare)
