@@ -395,6 +395,7 @@ type chunkWriter[R any] struct {
 	buf     bytes.Buffer
 	header  []byte
 	started bool
+	done    int // rows written
 }
 
 const chunkRows = 512
@@ -421,8 +422,13 @@ func (c *chunkWriter[R]) write() error {
 	}
 	c.buf.Reset()
 	if err := c.fn(&c.buf, c.rows); err != nil {
+		var re *export.RowError
+		if errors.As(err, &re) {
+			re.Row += c.done // the row's number in the whole file, not in the chunk
+		}
 		return err
 	}
+	c.done += len(c.rows)
 	b := c.buf.Bytes()
 	if !bytes.HasPrefix(b, c.header) {
 		return errors.New("undercurrent: CSV writer did not start with its header")

@@ -6,6 +6,7 @@ import (
 	"encoding/csv"
 	"encoding/json"
 	"fmt"
+	"io"
 	"os"
 	"path/filepath"
 	"runtime"
@@ -14,6 +15,7 @@ import (
 	"sync"
 	"testing"
 
+	"undercurrent/report/export"
 	"undercurrent/text/demotown"
 	"undercurrent/topics"
 )
@@ -482,5 +484,35 @@ func TestFitDeterministic(t *testing.T) {
 	}
 	if !bytes.Equal(files[0], files[1]) {
 		t.Errorf("model files differ between GOMAXPROCS 1 and 2")
+	}
+}
+
+// Streaming through export.WriteWide in chunks gives the bytes of one WriteWide call over
+// all rows: the header once, rows in order; no rows gives the header alone.
+func TestChunkWriter(t *testing.T) {
+	labels := []string{"a", "b", "c"}
+	for _, n := range []int{0, 1, chunkRows, chunkRows + 1, 3*chunkRows + 7} {
+		rows := make([]export.WideRow, n)
+		for i := range rows {
+			rows[i] = export.WideRow{ID: fmt.Sprintf("r%d", i), Groups: []string{"g"}, Theta: []float64{0.2, 0.5, 0.3}}
+		}
+		var want, got bytes.Buffer
+		if err := export.WriteWide(&want, []string{"district"}, labels, rows); err != nil {
+			t.Fatal(err)
+		}
+		cw := newChunkWriter(&got, func(w io.Writer, rs []export.WideRow) error {
+			return export.WriteWide(w, []string{"district"}, labels, rs)
+		})
+		for _, r := range rows {
+			if err := cw.add(r); err != nil {
+				t.Fatal(err)
+			}
+		}
+		if err := cw.flush(); err != nil {
+			t.Fatal(err)
+		}
+		if got.String() != want.String() {
+			t.Errorf("%d rows: chunked output differs", n)
+		}
 	}
 }
