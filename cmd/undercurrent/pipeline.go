@@ -379,7 +379,7 @@ func (f *modelFlags) fitSettings(e *env) (topics.Settings, error) {
 		if err != nil {
 			return s, err
 		}
-		s.Seeds = seeds
+		s.Seeds = phraseSeeds(seeds)
 	}
 	return s, nil
 }

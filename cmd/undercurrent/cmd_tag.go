@@ -1,0 +1,451 @@
+package main
+
+import (
+	"bytes"
+	"context"
+	"encoding/json"
+	"errors"
+	"flag"
+	"fmt"
+	"io"
+	"os"
+	"sync"
+
+	"undercurrent/report"
+	"undercurrent/report/export"
+	"undercurrent/text"
+	"undercurrent/text/intake"
+	"undercurrent/text/redact"
+	"undercurrent/topics"
+)
+
+func init() {
+	register(&command{
+		name:  "tag",
+		usage: "tag [options] file...",
+		short: "tag new narratives with the themes of a model file",
+		long: `Tag applies a model file (-model, written by 'undercurrent fit' or 'report') to new
+narratives: each row is read and accounted for as the other commands do, redacted, passed
+through the text pipeline frozen in the model file (the same cleaning, abbreviations,
+repairs, stemming, phrases and vocabulary as when the model was fitted), and given its theme
+shares by fold-in Gibbs sampling with the themes held fixed.
+
+A narrative's shares depend only on the model, its id and its text: its random stream is
+seeded from the id and the narrative's words, never from the other narratives in the file
+or their order. Tagging a file in one run or in pieces on several machines gives the same
+rows, so very large files can be split and tagged in parallel by any batch system and the
+outputs joined. (Without an id column, ids are file:line and therefore change when a file
+is split: name the id column with -id.) Narratives stream through in small batches, so
+memory does not grow with the number of tagged narratives beyond what reading the input
+holds.
+
+Routine narratives (whose content reduces to a few routine words, as the pipeline settings
+in the model define them) are not tagged with a theme: they get the extra last theme,
+number K, labelled "` + routineLabel + `", as in the report's
+exports. Near-duplicate narratives are set aside only when a model is fitted, not here
+(that would depend on the batch).
+
+Redaction: pass the same -names and -allow files as when the model was fitted, so that the
+text the model reads is redacted the same way.
+
+Output: one row per kept narrative in the wide form of narratives-wide.csv (id, date, the
+-group columns, the strongest theme with its label and share, the next two themes) to -out
+or standard output; with -long also one row per narrative and theme with a share of at least
+-min-share. A labels file (-labels, as for 'undercurrent report') merges and labels themes
+before the rows are written. Ids are written as they are in the input; narrative text is
+never written.
+
+Themes summarise what narrative writers wrote; they are not findings of fact. Ids, dates
+and group values together can identify people: check public-records law, data-sharing
+terms and ethics review before sharing the output.
+
+Example:
+
+	undercurrent tag -model out/city/themes.ucmodel -out tagged.csv new_incidents.csv
+	undercurrent tag -model themes.ucmodel -labels labels.txt -group district -long tagged-long.csv -out tagged.csv part-*.csv`,
+		setup: func(fs *flag.FlagSet) func(context.Context, *env, []string) error {
+			var (
+				in       inputFlags
+				rf       redactFlags
+				path     string
+				out      string
+				long     string
+				labels   string
+				minShare float64
+				workers  int
+				iters    int
+			)
+			in.register(fs)
+			fs.StringVar(&rf.names, "names", "", "file of people's names to redact wherever they appear (one a line; use the fitting run's)")
+			fs.StringVar(&rf.allow, "allow", "", "file of street, business and place names never redacted as names (use the fitting run's)")
+			fs.BoolVar(&rf.noGuessNames, "no-guess-names", false, "do not treat capitalised non-dictionary words in name position as names (as in the fitting run)")
+			fs.StringVar(&path, "model", "out/themes.ucmodel", "model file to apply")
+			fs.StringVar(&out, "out", "", "wide CSV file to write (default: standard output)")
+			fs.StringVar(&long, "long", "", "also write the long CSV (id, theme, share) to this file")
+			fs.StringVar(&labels, "labels", "", "labels file: theme labels and merges applied to the shares")
+			fs.Float64Var(&minShare, "min-share", 0.01, "smallest share written to the long CSV")
+			fs.IntVar(&workers, "workers", 2, "goroutines (results do not depend on it)")
+			fs.IntVar(&iters, "iterations", 0, "Gibbs sweeps of fold-in per narrative (default 60; results depend on it)")
+			return func(ctx context.Context, e *env, args []string) error {
+				if workers < 1 {
+					return usagef("-workers %d: want at least 1", workers)
+				}
+				if iters < 0 {
+					return usagef("-iterations %d: want at least 1", iters)
+				}
+				if !(minShare >= 0 && minShare <= 1) {
+					return usagef("-min-share %v: want 0 to 1", minShare)
+				}
+				m, _, err := loadModel(path)
+				if err != nil {
+					return err
+				}
+				k := m.K()
+				lab, tm, err := tagLabels(m, labels)
+				if err != nil {
+					return err
+				}
+				red, err := rf.redactor()
+				if err != nil {
+					return err
+				}
+				pipes, err := framePipelines(m, workers)
+				if err != nil {
+					return fmt.Errorf("%s: %w", path, err)
+				}
+				set, err := readInputs(ctx, e, &in, args)
+				if err != nil {
+					return err
+				}
+				tg := topics.NewTagger(m, topics.InferSettings{Iterations: iters, Workers: workers})
+				var st tagStats
+				write := func(wide, longW io.Writer) error {
+					ww := newChunkWriter(wide, func(w io.Writer, rows []export.WideRow) error {
+						return export.WriteWide(w, set.GroupNames, lab, rows)
+					})
+					var lw *chunkWriter[export.LongRow]
+					if longW != nil {
+						lw = newChunkWriter(longW, export.WriteLong)
+					}
+					folded := make([]float64, k+1)
+					st, err = tagRecords(ctx, set.Records, red, pipes, tg, func(i int, theta []float64) error {
+						r := &set.Records[i]
+						tm.Fold(folded, theta)
+						row := export.WideRow{ID: r.ID, Groups: r.Groups, Theta: append([]float64(nil), folded...)}
+						if r.HasDate {
+							row.Date = r.Date.Format("2006-01-02")
+						}
+						if err := ww.add(row); err != nil {
+							return err
+						}
+						if lw != nil {
+							for _, lr := range export.LongRows(nil, r.ID, folded, minShare) {
+								if err := lw.add(lr); err != nil {
+									return err
+								}
+							}
+						}
+						return nil
+					})
+					if err != nil {
+						return err
+					}
+					if err := ww.flush(); err != nil {
+						return err
+					}
+					if lw != nil {
+						return lw.flush()
+					}
+					return nil
+				}
+				withLong := func(wide io.Writer) error {
+					if long == "" {
+						return write(wide, nil)
+					}
+					return writeFileAtomic(long, func(lw io.Writer) error { return write(wide, lw) })
+				}
+				if out == "" || out == "-" {
+					err = withLong(e.stdout)
+				} else {
+					err = writeFileAtomic(out, withLong)
+				}
+				if err != nil {
+					return err
+				}
+				fmt.Fprintf(e.stderr, "tagged %d narratives: %d with themes, %d routine (theme %d), %d without any word of the model's vocabulary (given the prior mean)\n",
+					st.n, st.n-st.routine, st.routine, k, st.empty)
+				return nil
+			}
+		},
+	})
+}
+
+// tagLabels returns the labels of the K themes and the routine column, and the theme map of
+// the labels file (identity without one), following runJob's convention: column K holds
+// the routine narratives.
+func tagLabels(m *topics.Model, labelsFile string) ([]string, report.ThemeMap, error) {
+	k := m.K()
+	lab := make([]string, k+1)
+	for t := 0; t < k; t++ {
+		lab[t] = themeLabel(m, t)
+	}
+	lab[k] = routineLabel
+	tm := report.ThemeMap{Into: identity(k + 1), Hidden: make([]bool, k+1)}
+	if labelsFile == "" {
+		return lab, tm, nil
+	}
+	fh, err := os.Open(labelsFile)
+	if err != nil {
+		return nil, tm, err
+	}
+	cur, err := report.ParseLabels(labelsFile, fh)
+	fh.Close()
+	if err != nil {
+		return nil, tm, err
+	}
+	cm, err := cur.Map(k)
+	if err != nil {
+		return nil, tm, err
+	}
+	tm = report.ThemeMap{Into: append(cm.Into, k), Hidden: append(cm.Hidden, false)}
+	for _, st := range cur.Statements {
+		if st.Kind == report.SetLabel {
+			lab[st.Theme] = st.Text
+		}
+	}
+	return lab, tm, nil
+}
+
+// framePipelines returns n independent copies of the model's frozen text pipeline:
+// Frozen.Transform serialises its calls, so each tagging worker gets its own.
+func framePipelines(m *topics.Model, n int) ([]*text.Frozen, error) {
+	out := make([]*text.Frozen, n)
+	for i := range out {
+		var fr text.Frozen
+		if err := json.Unmarshal(m.Pipeline(), &fr); err != nil {
+			return nil, fmt.Errorf("text pipeline: %w", err)
+		}
+		if err := fr.Prepare(); err != nil {
+			return nil, fmt.Errorf("text pipeline: %w", err)
+		}
+		if len(fr.Vocab) != m.V() {
+			return nil, fmt.Errorf("text pipeline has %d terms, model %d", len(fr.Vocab), m.V())
+		}
+		out[i] = &fr
+	}
+	return out, nil
+}
+
+// tagStats counts what tagRecords did.
+type tagStats struct {
+	n, routine, empty int
+}
+
+// prepDoc is one narrative after redaction and the frozen pipeline.
+type prepDoc struct {
+	terms   []int32
+	routine bool
+}
+
+// tagRecords redacts each record, runs it through the frozen pipeline (one copy per worker,
+// in parallel, in batches of tagBatch narratives) and folds it in with tg.Stream, then calls
+// emit with the record's index and its K+1 theme shares (the last one is the routine
+// column) in record order. At most a fixed number of narratives are in flight, so memory
+// does not grow with len(recs). theta passed to emit is reused afterwards.
+//
+// The processing of one narrative is exactly prepare's for fitting: redactor.Redact, then
+// redact.Blank, then the frozen pipeline's Transform.
+func tagRecords(ctx context.Context, recs []intake.Record, red *redact.Redactor, pipes []*text.Frozen, tg *topics.Tagger, emit func(i int, theta []float64) error) (tagStats, error) {
+	ctx, cancel := context.WithCancel(ctx)
+	defer cancel()
+	var st tagStats
+	W := len(pipes)
+	if W < 1 {
+		panic("undercurrent: tagRecords without a pipeline")
+	}
+	window := 2 * W // batches in flight in the preprocessing stage
+	type batch struct {
+		lo, hi int
+		docs   []prepDoc
+		ready  chan struct{}
+	}
+	jobs := make(chan *batch, window)
+	order := make(chan *batch, window)
+	go func() {
+		defer close(jobs)
+		defer close(order)
+		for lo := 0; lo < len(recs); lo += tagBatch {
+			b := &batch{lo: lo, hi: min(lo+tagBatch, len(recs)), ready: make(chan struct{})}
+			select {
+			case order <- b:
+			case <-ctx.Done():
+				return
+			}
+			select {
+			case jobs <- b:
+			case <-ctx.Done():
+				return
+			}
+		}
+	}()
+	for w := 0; w < W; w++ {
+		fr := pipes[w]
+		go func() {
+			for b := range jobs {
+				b.docs = make([]prepDoc, 0, b.hi-b.lo)
+				for i := b.lo; i < b.hi; i++ {
+					out, _ := red.Redact(recs[i].Text)
+					d := fr.Transform(redact.Blank(out))
+					b.docs = append(b.docs, prepDoc{terms: d.Terms, routine: d.Routine != text.NotRoutine})
+				}
+				close(b.ready)
+			}
+		}()
+	}
+	// fifo carries each narrative's index and routine flag from the source to emit: Stream
+	// calls Next and emit in the same (input) order and holds at most 4 × Workers
+	// narratives, so the queue stays that short.
+	type entry struct {
+		i       int
+		routine bool
+	}
+	var (
+		mu   sync.Mutex
+		fifo []entry
+	)
+	var cur *batch
+	at := 0
+	src := &sourceFunc{next: func() (topics.Doc, error) {
+		if cur == nil || at == len(cur.docs) {
+			b, ok := <-order
+			if !ok {
+				if err := ctx.Err(); err != nil {
+					return topics.Doc{}, err
+				}
+				return topics.Doc{}, io.EOF
+			}
+			select {
+			case <-b.ready:
+			case <-ctx.Done():
+				return topics.Doc{}, ctx.Err()
+			}
+			cur, at = b, 0
+		}
+		p := cur.docs[at]
+		i := cur.lo + at
+		at++
+		mu.Lock()
+		fifo = append(fifo, entry{i, p.routine})
+		mu.Unlock()
+		ids := p.terms
+		if p.routine {
+			ids = nil // not a theme of the model: no need to sample
+		}
+		return topics.Doc{ID: recs[i].ID, IDs: ids}, nil
+	}}
+	var full []float64
+	err := tg.Stream(ctx, src, func(d topics.Doc, theta []float64) error {
+		mu.Lock()
+		en := fifo[0]
+		fifo = fifo[1:]
+		mu.Unlock()
+		if full == nil {
+			full = make([]float64, len(theta)+1)
+		}
+		st.n++
+		if en.routine {
+			clear(full)
+			full[len(theta)] = 1
+			st.routine++
+		} else {
+			copy(full, theta)
+			full[len(theta)] = 0
+			if len(d.IDs) == 0 {
+				st.empty++
+			}
+		}
+		return emit(en.i, full)
+	})
+	if err != nil {
+		cancel()
+		// let the producer and workers see the cancellation and stop.
+		for range order {
+		}
+		return st, err
+	}
+	return st, nil
+}
+
+// tagBatch is the number of narratives a preprocessing worker takes at a time.
+const tagBatch = 64
+
+type sourceFunc struct {
+	next func() (topics.Doc, error)
+}
+
+func (s *sourceFunc) Next() (topics.Doc, error) { return s.next() }
+
+// chunkWriter streams rows through a whole-file CSV writer (export.WriteWide, WriteLong)
+// in chunks: the header is written once, then each chunk's rows without the header the
+// writer repeats. Memory holds one chunk.
+type chunkWriter[R any] struct {
+	w       io.Writer
+	fn      func(io.Writer, []R) error
+	rows    []R
+	buf     bytes.Buffer
+	header  []byte
+	started bool
+	done    int // rows written
+}
+
+const chunkRows = 512
+
+func newChunkWriter[R any](w io.Writer, fn func(io.Writer, []R) error) *chunkWriter[R] {
+	return &chunkWriter[R]{w: w, fn: fn}
+}
+
+func (c *chunkWriter[R]) add(r R) error {
+	c.rows = append(c.rows, r)
+	if len(c.rows) >= chunkRows {
+		return c.write()
+	}
+	return nil
+}
+
+func (c *chunkWriter[R]) write() error {
+	if c.header == nil {
+		var hb bytes.Buffer
+		if err := c.fn(&hb, nil); err != nil {
+			return err
+		}
+		c.header = hb.Bytes()
+	}
+	c.buf.Reset()
+	if err := c.fn(&c.buf, c.rows); err != nil {
+		var re *export.RowError
+		if errors.As(err, &re) {
+			re.Row += c.done // the row's number in the whole file, not in the chunk
+		}
+		return err
+	}
+	c.done += len(c.rows)
+	b := c.buf.Bytes()
+	if !bytes.HasPrefix(b, c.header) {
+		return errors.New("undercurrent: CSV writer did not start with its header")
+	}
+	if c.started {
+		b = b[len(c.header):]
+	}
+	c.started = true
+	c.rows = c.rows[:0]
+	_, err := c.w.Write(b)
+	return err
+}
+
+// flush writes the rows held (and the header if nothing was written yet).
+func (c *chunkWriter[R]) flush() error {
+	if len(c.rows) == 0 && c.started {
+		return nil
+	}
+	return c.write()
+}
