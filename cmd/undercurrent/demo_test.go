@@ -3,7 +3,6 @@ package main
 import (
 	"bytes"
 	"context"
-	"encoding/csv"
 	"os"
 	"path/filepath"
 	"runtime"
@@ -44,8 +43,8 @@ func TestDemoEndToEnd(t *testing.T) {
 		}
 	}
 	// Accounting: every generated row is in the wide export or in rejects.csv.
-	wide := readCSV(t, filepath.Join(out, "narratives-wide.csv"))
-	rejects := readCSV(t, filepath.Join(out, "rejects.csv"))
+	wide := readCSVFile(t, filepath.Join(out, "narratives-wide.csv"))
+	rejects := readCSVFile(t, filepath.Join(out, "rejects.csv"))
 	if got := len(wide) - 1 + len(rejects) - 1; got != 1500 {
 		t.Errorf("wide rows + rejects = %d, want the 1500 generated", got)
 	}
@@ -88,18 +87,13 @@ func TestDemoEndToEnd(t *testing.T) {
 	}
 }
 
-func readCSV(t *testing.T, path string) [][]string {
+func readCSVFile(t *testing.T, path string) [][]string {
 	t.Helper()
-	f, err := os.Open(path)
+	b, err := os.ReadFile(path)
 	if err != nil {
 		t.Fatal(err)
 	}
-	defer f.Close()
-	rows, err := csv.NewReader(f).ReadAll()
-	if err != nil {
-		t.Fatalf("%s: %v", path, err)
-	}
-	return rows
+	return readCSV(t, string(b))
 }
 
 // TestDemoDeterministic: the same input, settings and seed give byte-identical outputs
