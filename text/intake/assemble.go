@@ -24,8 +24,8 @@ var earliest = time.Date(1900, 1, 1, 0, 0, 0, 0, time.UTC)
 const zoneSlack = 14 * time.Hour
 
 func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
-	s := &Set{}
 	header := tabs[0].header
+	s := &Set{Columns: header}
 	xlsx := true
 	total := 0
 	for _, t := range tabs {

@@ -307,7 +307,7 @@ func TestAutoColumns(t *testing.T) {
 	if s.IDName != "Case Number" || s.DateName != "Reported" || s.TextNames[0] != "Details" || s.DateRead != "month-first" {
 		t.Errorf("chose id %q date %q text %q (%s); notes %q", s.IDName, s.DateName, s.TextNames, s.DateRead, s.Notes)
 	}
-	if !reflect.DeepEqual(s.ExtraNames, []string{"Officer Notes"}) {
+	if !reflect.DeepEqual(s.ExtraNames, []string{"Officer Notes"}) || len(s.Columns) != 5 || s.Columns[4] != "Officer Notes" {
 		t.Errorf("extra %q", s.ExtraNames)
 	}
 	// No narrative-like header: the longest mean text; no id header: file:line.
