@@ -119,7 +119,7 @@
 // # Rejects and duplicates
 //
 // Checks run in this order and the first that fails gives the reason: ragged row, bad
-// quoting, bad json, bad encoding (while parsing), blank row, empty narrative, missing
+// quoting, bad json, bad encoding, repeated header (while parsing), blank row, empty narrative, missing
 // date, unparseable date, implausible date. Among the rows left, rows sharing an id keep the
 // first (Options.KeepLast: the last, for exports that carry several versions of a
 // report); the others are rejected as "duplicate id", or "duplicate id, different text"

@@ -257,6 +257,14 @@ func TestPreamble(t *testing.T) {
 	}
 }
 
+func TestRepeatedHeader(t *testing.T) {
+	// Two exports joined end to end (cat 2019.csv 2020.csv): the second header is a reject.
+	s, err := readOne(t, "cat.csv", "id,narrative\n1,a\nid,narrative\n2,b\n", Options{})
+	if err != nil || len(s.Records) != 2 || s.Rejects[0].Reason != ReasonRepeatedHeader || s.Rejects[0].Line != 3 {
+		t.Errorf("%v %s %+v", err, s.Summary(), s.Rejects)
+	}
+}
+
 func TestSingleColumn(t *testing.T) {
 	s, err := readOne(t, "one.csv", "narrative\nHe said, hello; then left\n\"quoted, too\"\n", Options{})
 	if err != nil || len(s.Records) != 2 || s.Records[0].Text != "He said, hello; then left" || s.Records[1].Text != "quoted, too" || s.Files[0].Delimiter != "" {
