@@ -80,6 +80,10 @@
 //     the largest share of rows with a date. Bare numbers count only under a date-like
 //     header.
 //
+// A narrative is empty when it holds only blanks, no letter or digit at all ("-",
+// "..."), or an export's stand-in for nothing: NULL, N/A, NA, none, nil, NaN, #N/A
+// (any case); with several narrative columns, the empty parts are left out of the join.
+//
 // Every other column is passed through in Record.Extra (names in Set.ExtraNames), its
 // values as read; Record.Text and Record.Groups are trimmed of surrounding blanks.
 //
