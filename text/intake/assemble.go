@@ -8,6 +8,7 @@ import (
 	"strconv"
 	"strings"
 	"time"
+	"unicode"
 )
 
 // rowRef is a row of one of the tables, its fields in the first table's column order.
@@ -24,8 +25,8 @@ var earliest = time.Date(1900, 1, 1, 0, 0, 0, 0, time.UTC)
 const zoneSlack = 14 * time.Hour
 
 func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
-	s := &Set{}
 	header := tabs[0].header
+	s := &Set{Columns: header}
 	xlsx := true
 	total := 0
 	for _, t := range tabs {
@@ -186,8 +187,14 @@ func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
 			s.Rejects = append(s.Rejects, Reject{File: r.file, Line: r.line, ID: rec.ID, Reason: reason, Detail: detail})
 		}
 		var parts []string
+		var placeholders []string
 		for _, c := range textCols {
-			if p := strings.TrimSpace(r.f[c]); p != "" {
+			p := strings.TrimSpace(r.f[c])
+			if p != "" && placeholder(p) {
+				placeholders = append(placeholders, p)
+				continue
+			}
+			if p != "" {
 				parts = append(parts, p)
 			}
 		}
@@ -196,7 +203,11 @@ func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
 			continue
 		}
 		if len(parts) == 0 {
-			rej(ReasonEmptyNarrative, "no text in "+quoteList(s.TextNames))
+			d := "no text in " + quoteList(s.TextNames)
+			if len(placeholders) > 0 {
+				d = "only a placeholder: " + quoteList(placeholders)
+			}
+			rej(ReasonEmptyNarrative, d)
 			continue
 		}
 		if len(parts) == 1 {
@@ -431,4 +442,20 @@ func count(n int, one, many string) string {
 		return "1 " + one
 	}
 	return fmt.Sprintf("%d %s", n, many)
+}
+
+// placeholder reports whether a narrative holds no text: no letter or digit at all
+// ("-", "...", "?"), or an export's stand-in for nothing ("NULL", "N/A", "none",
+// "nil", "NaN", any case).
+func placeholder(s string) bool {
+	switch strings.ToLower(s) {
+	case "null", "n/a", "na", "none", "nil", "nan", "#n/a":
+		return true
+	}
+	for _, r := range s {
+		if unicode.IsLetter(r) || unicode.IsDigit(r) {
+			return false
+		}
+	}
+	return true
 }

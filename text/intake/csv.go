@@ -248,6 +248,11 @@ func readCSV(ctx context.Context, name string, br *bufio.Reader, peek []byte, ex
 				Detail: fmt.Sprintf("%d fields, header has %d", len(rec), len(t.header))})
 			continue
 		}
+		if sameHeader(rec, hdr) {
+			// Files joined end to end repeat their header.
+			t.rejects = append(t.rejects, Reject{File: name, Line: line, Reason: ReasonRepeatedHeader, Detail: "the row repeats the header"})
+			continue
+		}
 		t.rows = append(t.rows, rawRow{line: line, f: rec})
 	}
 	if trailing > 0 {
@@ -293,4 +298,17 @@ func invalidField(f []string) int {
 		}
 	}
 	return -1
+}
+
+// sameHeader reports whether a row holds the header's names (ignoring surrounding blanks).
+func sameHeader(rec, hdr []string) bool {
+	if len(rec) != len(hdr) {
+		return false
+	}
+	for i := range rec {
+		if strings.TrimSpace(rec[i]) != strings.TrimSpace(hdr[i]) {
+			return false
+		}
+	}
+	return true
 }

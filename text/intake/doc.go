@@ -80,6 +80,10 @@
 //     the largest share of rows with a date. Bare numbers count only under a date-like
 //     header.
 //
+// A narrative is empty when it holds only blanks, no letter or digit at all ("-",
+// "..."), or an export's stand-in for nothing: NULL, N/A, NA, none, nil, NaN, #N/A
+// (any case); with several narrative columns, the empty parts are left out of the join.
+//
 // Every other column is passed through in Record.Extra (names in Set.ExtraNames), its
 // values as read; Record.Text and Record.Groups are trimmed of surrounding blanks.
 //
@@ -119,7 +123,7 @@
 // # Rejects and duplicates
 //
 // Checks run in this order and the first that fails gives the reason: ragged row, bad
-// quoting, bad json, bad encoding (while parsing), blank row, empty narrative, missing
+// quoting, bad json, bad encoding, repeated header (while parsing), blank row, empty narrative, missing
 // date, unparseable date, implausible date. Among the rows left, rows sharing an id keep the
 // first (Options.KeepLast: the last, for exports that carry several versions of a
 // report); the others are rejected as "duplicate id", or "duplicate id, different text"

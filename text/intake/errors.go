@@ -50,6 +50,7 @@ const (
 	ReasonMissingDate     = "missing date"
 	ReasonDuplicateID     = "duplicate id"
 	ReasonDuplicateIDText = "duplicate id, different text"
+	ReasonRepeatedHeader  = "repeated header"
 	ReasonRaggedRow       = "ragged row"
 	ReasonBadQuoting      = "bad quoting"
 	ReasonBadEncoding     = "bad encoding"

@@ -4,6 +4,8 @@ import (
 	"bytes"
 	"context"
 	"errors"
+	"os"
+	"path/filepath"
 	"testing"
 
 	"github.com/xuri/excelize/v2"
@@ -104,5 +106,23 @@ func FuzzReadXLSX(f *testing.F) {
 	f.Fuzz(func(t *testing.T, data []byte) {
 		s, err := readBytes("f.xlsx", data, Options{})
 		checkAccounting(t, data, s, err)
+	})
+}
+
+// FuzzReadTextDir reads a folder holding one fuzzed .txt file.
+func FuzzReadTextDir(f *testing.F) {
+	for _, s := range []string{"Date: 2020-01-05\nA narrative.\n", "no date line", "Date: garbage\n", "\xff\xfeD\x00a\x00", "caf\xe9", ""} {
+		f.Add([]byte(s))
+	}
+	f.Fuzz(func(t *testing.T, data []byte) {
+		dir := t.TempDir()
+		if err := os.WriteFile(filepath.Join(dir, "n.txt"), data, 0o644); err != nil {
+			t.Fatal(err)
+		}
+		s, err := Read(context.Background(), []string{dir}, nil, Options{Now: testNow})
+		checkAccounting(t, data, s, err)
+		if err == nil && s.Read != 1 {
+			t.Fatalf("read %d rows from one file", s.Read)
+		}
 	})
 }

@@ -99,6 +99,7 @@ type Set struct {
 	Records    []Record
 	Rejects    []Reject
 	Files      []FileInfo
+	Columns    []string // every column, in the first file's order (repeated names made distinct)
 	IDName     string   // "" when ids are synthesized
 	DateName   string   // "" when there is no date column
 	TimeName   string   // Options.Time's column, or ""

@@ -257,6 +257,21 @@ func TestPreamble(t *testing.T) {
 	}
 }
 
+func TestPlaceholderNarratives(t *testing.T) {
+	s, err := readOne(t, "ph.csv", "id,narrative\n1,NULL\n2,N/A\n3,---\n4,nan\n5,No answer at door.\n6,none\n", Options{})
+	if err != nil || len(s.Records) != 1 || len(s.Rejects) != 5 || s.Rejects[0].Detail != `only a placeholder: "NULL"` {
+		t.Errorf("%v %s %+v", err, s.Summary(), s.Rejects)
+	}
+}
+
+func TestRepeatedHeader(t *testing.T) {
+	// Two exports joined end to end (cat 2019.csv 2020.csv): the second header is a reject.
+	s, err := readOne(t, "cat.csv", "id,narrative\n1,a\nid,narrative\n2,b\n", Options{})
+	if err != nil || len(s.Records) != 2 || s.Rejects[0].Reason != ReasonRepeatedHeader || s.Rejects[0].Line != 3 {
+		t.Errorf("%v %s %+v", err, s.Summary(), s.Rejects)
+	}
+}
+
 func TestSingleColumn(t *testing.T) {
 	s, err := readOne(t, "one.csv", "narrative\nHe said, hello; then left\n\"quoted, too\"\n", Options{})
 	if err != nil || len(s.Records) != 2 || s.Records[0].Text != "He said, hello; then left" || s.Records[1].Text != "quoted, too" || s.Files[0].Delimiter != "" {
@@ -307,7 +322,7 @@ func TestAutoColumns(t *testing.T) {
 	if s.IDName != "Case Number" || s.DateName != "Reported" || s.TextNames[0] != "Details" || s.DateRead != "month-first" {
 		t.Errorf("chose id %q date %q text %q (%s); notes %q", s.IDName, s.DateName, s.TextNames, s.DateRead, s.Notes)
 	}
-	if !reflect.DeepEqual(s.ExtraNames, []string{"Officer Notes"}) {
+	if !reflect.DeepEqual(s.ExtraNames, []string{"Officer Notes"}) || len(s.Columns) != 5 || s.Columns[4] != "Officer Notes" {
 		t.Errorf("extra %q", s.ExtraNames)
 	}
 	// No narrative-like header: the longest mean text; no id header: file:line.
@@ -602,10 +617,23 @@ func TestAgainstPythonCSV(t *testing.T) {
 		t.Fatalf("%+v %q %q %q", s.Files[0], s.IDName, s.DateName, s.TextNames)
 	}
 	want = want[1:] // header
-	if len(s.Records) != len(want) || s.Read != len(want) {
+	if s.Read != len(want) {
 		t.Fatalf("%s; want %d rows", s.Summary(), len(want))
 	}
-	for i, r := range s.Records {
+	// Narratives of only quote marks hold no letter or digit: rejected as empty
+	// (package documentation); the rest are kept.
+	var kept []int
+	for i, w := range want {
+		if placeholder(strings.TrimSpace(w.Fields[2])) {
+			continue
+		}
+		kept = append(kept, i)
+	}
+	if len(s.Records) != len(kept) || len(s.Rejects) != len(want)-len(kept) {
+		t.Fatalf("%s; want %d kept", s.Summary(), len(kept))
+	}
+	for k, r := range s.Records {
+		i := kept[k]
 		w := want[i].Fields
 		text := strings.TrimSpace(strings.ReplaceAll(w[2], "\r\n", "\n"))
 		if r.ID != w[0] || r.Text != text || r.Extra[0] != w[3] || r.Line != want[i].Line {

@@ -106,6 +106,10 @@ func readSheet(ctx context.Context, name string, r io.Reader, opt *Options) (*ta
 		for len(cells) < len(t.header) {
 			cells = append(cells, "")
 		}
+		if sameHeader(cells, t.header) {
+			t.rejects = append(t.rejects, Reject{File: name, Line: rowNum, Reason: ReasonRepeatedHeader, Detail: "the row repeats the header"})
+			continue
+		}
 		t.rows = append(t.rows, rawRow{line: rowNum, f: cells})
 	}
 	if err := rows.Error(); err != nil {

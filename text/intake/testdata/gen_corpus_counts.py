@@ -14,6 +14,10 @@ Usage (SHARED: the folder holding corpora/):
 """
 import collections, csv, glob, json, sys
 
+def empty(t):
+    """The package's empty-narrative rule: blank, no letter or digit, or a stand-in."""
+    return t.lower() in ("null", "n/a", "na", "none", "nil", "nan", "#n/a") or not any(c.isalnum() for c in t)
+
 shared = sys.argv[1]
 out = {}
 
@@ -23,7 +27,7 @@ iid, itext = hdr.index("summary_nr"), hdr.index("Abstract Text")
 first, reasons = {}, collections.Counter()
 for r in rows:
     t = r[itext].strip()
-    if not t:
+    if empty(t):
         reasons["empty narrative"] += 1
         continue
     k = r[iid].strip()
@@ -44,7 +48,7 @@ for f in sorted(glob.glob(shared + "/corpora/safenet/SAFENET_*.csv")):
             reasons["blank row"] += 1
             continue
         t = r[itext].strip()
-        if not t:
+        if empty(t):
             reasons["empty narrative"] += 1
             continue
         k = r[iid].strip() or "%s:%d" % (f, i + 2)
