@@ -4,6 +4,7 @@ import (
 	"context"
 	"flag"
 	"fmt"
+	"io"
 	"os"
 	"path/filepath"
 
@@ -58,9 +59,44 @@ Example:
 				if f.title == "" {
 					f.title = "Demo: an invented town's incident narratives"
 				}
-				res, err := runJob(ctx, e, &f, []string{filepath.Join(inDir, "incidents.csv")})
+				input := filepath.Join(inDir, "incidents.csv")
+				res, err := runJob(ctx, e, &f, []string{input})
+				if err == nil {
+					err = demoReuse(ctx, e, &f, res, input)
+				}
 				return jobDone(e, &f, res, err)
 			}
 		},
 	})
+}
+
+// demoReuse shows the model file at work, as a user would use it after the report: it
+// describes the saved model and tags the input again with it ('undercurrent describe' and
+// 'undercurrent tag'), writing model-description.txt and tagged.csv.
+func demoReuse(ctx context.Context, e *env, f *jobFlags, res *jobResult, input string) error {
+	model := filepath.Join(f.out, "themes.ucmodel")
+	desc := filepath.Join(f.out, "model-description.txt")
+	if err := writeFileAtomic(desc, func(w io.Writer) error {
+		sub := &env{stdin: e.stdin, stdout: w, stderr: e.stderr, quiet: true}
+		if code := run(ctx, sub, []string{"describe", "-model", model}); code != exitOK {
+			return fmt.Errorf("describe exited %d", code)
+		}
+		return nil
+	}); err != nil {
+		return err
+	}
+	res.files = append(res.files, desc)
+	tagged := filepath.Join(f.out, "tagged.csv")
+	sub := &env{stdin: e.stdin, stdout: io.Discard, stderr: io.Discard, quiet: true}
+	args := []string{"tag", "-q", "-model", model, "-out", tagged, "-id", f.in.id, "-date", f.in.date, "-text", f.in.text,
+		"-group", f.in.groups, "-now", f.in.now, input}
+	if code := run(ctx, sub, args); code != exitOK {
+		if err := ctx.Err(); err != nil {
+			return err
+		}
+		return fmt.Errorf("tag exited %d", code)
+	}
+	res.files = append(res.files, tagged)
+	fmt.Fprintf(e.stderr, "described the model in %s and tagged the input again with it into %s\n", desc, tagged)
+	return nil
 }

@@ -9,6 +9,7 @@ import (
 	"io"
 	"math"
 	"os"
+	"path/filepath"
 	"strings"
 
 	"undercurrent/topics"
@@ -161,7 +162,7 @@ type description struct {
 }
 
 func describeModel(path string, m *topics.Model, h modelHeader, n int, lambda float64) *description {
-	d := &description{File: path, FormatVersion: h.FormatVersion, Program: version, K: m.K(), V: m.V(),
+	d := &description{File: filepath.Base(path), FormatVersion: h.FormatVersion, Program: version, K: m.K(), V: m.V(),
 		Beta: m.Beta(), Fingerprint: m.InputFingerprint(), ChainLogLikelihood: m.ChainLogLikelihood, Fit: h.Fit}
 	if !math.IsNaN(m.Stability) {
 		s := m.Stability

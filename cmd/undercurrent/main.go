@@ -153,6 +153,7 @@ func exitFor(e *env, c *command, err error) int {
 func newFlagSet(c *command, e *env) *flag.FlagSet {
 	fs := flag.NewFlagSet(c.name, flag.ContinueOnError)
 	fs.SetOutput(e.stderr)
+	fs.BoolVar(&e.quiet, "q", e.quiet, "quiet: no progress bars (they are off anyway when stderr is not a terminal)")
 	fs.Usage = func() {
 		fmt.Fprintf(e.stderr, "usage: undercurrent %s\n", c.usage)
 	}
