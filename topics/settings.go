@@ -63,7 +63,7 @@ type Settings struct {
 	SeedStrength float64
 	// Progress, if not nil, is called from Fit's goroutine after every sweep of every chain
 	// with the sweeps done so far and the total number of sweeps.
-	Progress func(done, total int)
+	Progress func(done, total int) `json:"-"`
 
 	sampler   samplerKind // for measurement only; zero chooses by K
 	optFrom   int         // for measurement only: first sweep that re-estimates priors
