@@ -32,6 +32,9 @@ import (
 // theme's prior (and nowhere else), and its tokens start in theme t. The extra mass stays
 // in the prior for the whole fit, so the theme keeps its seed words across refits.
 //
+// Memory: 6 bytes per token (word id and theme), 4·V·K bytes of counts per partition plus
+// one merged copy, and 8·D·K bytes for the averaged θ of the D training narratives.
+//
 // Fit returns an error for data problems (a count that is not a whole number, an empty
 // corpus, labels of the wrong length, seed words missing from the vocabulary) and for a
 // cancelled context. It panics if c.Counts is nil.
