@@ -52,23 +52,29 @@ func saved(t *testing.T, m *Model) []byte {
 }
 
 // TestDeterminismAcrossGOMAXPROCS checks the rule "same input, settings and seed →
-// byte-identical output whatever GOMAXPROCS" (RULES.md) on the saved model file, with two
-// partitions and two chains so every goroutine path runs.
+// byte-identical output whatever GOMAXPROCS" (RULES.md) on the saved model file, over
+// partitions, concurrent chains and both samplers, so every goroutine path runs.
 func TestDeterminismAcrossGOMAXPROCS(t *testing.T) {
-	prev := runtime.GOMAXPROCS(1)
-	defer runtime.GOMAXPROCS(prev)
-	s := Settings{Seed: 42, Chains: 2, Partitions: 2}
-	m1, _ := smallModel(t, s)
-	b1 := saved(t, m1)
-	runtime.GOMAXPROCS(2)
-	m2, _ := smallModel(t, s)
-	b2 := saved(t, m2)
-	if !bytes.Equal(b1, b2) {
-		t.Fatal("model files differ between GOMAXPROCS 1 and 2")
-	}
-	m3, _ := smallModel(t, Settings{Seed: 43, Chains: 2, Partitions: 2})
-	if bytes.Equal(b1, saved(t, m3)) {
-		t.Fatal("a different seed gave the same model file")
+	for _, s := range []Settings{
+		{Seed: 42, Chains: 2, Partitions: 2},
+		{Seed: 42, Chains: 2, Partitions: 1},
+		{Seed: 42, Partitions: 3, sampler: sparseSampler},
+	} {
+		prev := runtime.GOMAXPROCS(1)
+		m1, _ := smallModel(t, s)
+		b1 := saved(t, m1)
+		runtime.GOMAXPROCS(2)
+		m2, _ := smallModel(t, s)
+		b2 := saved(t, m2)
+		runtime.GOMAXPROCS(prev)
+		if !bytes.Equal(b1, b2) {
+			t.Fatalf("%+v: model files differ between GOMAXPROCS 1 and 2", s)
+		}
+		s.Seed++
+		m3, _ := smallModel(t, s)
+		if bytes.Equal(b1, saved(t, m3)) {
+			t.Fatalf("%+v: a different seed gave the same model file", s)
+		}
 	}
 }
 

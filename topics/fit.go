@@ -8,6 +8,7 @@ import (
 	"encoding/hex"
 	"fmt"
 	"math"
+	"sync"
 
 	"undercurrent/text/sparse"
 )
@@ -31,6 +32,9 @@ import (
 // a seed word w of theme t gets extra Dirichlet mass η_wt = SeedStrength × count(w) in that
 // theme's prior (and nowhere else), and its tokens start in theme t. The extra mass stays
 // in the prior for the whole fit, so the theme keeps its seed words across refits.
+//
+// Memory: 6 bytes per token (word id and theme), 4·V·K bytes of counts per partition plus
+// one merged copy, and 8·D·K bytes for the averaged θ of the D training narratives.
 //
 // Fit returns an error for data problems (a count that is not a whole number, an empty
 // corpus, labels of the wrong length, seed words missing from the vocabulary) and for a
@@ -101,46 +105,37 @@ func Fit(ctx context.Context, c Corpus, s Settings) (*Model, error) {
 		optFrom = 24
 	}
 	done := 0
-	type result struct {
-		phi, theta []float64
-		alpha      []float64
-		beta, ll   float64
-	}
-	results := make([]result, s.Chains)
+	results := make([]chainResult, s.Chains)
+	// Chains run concurrently, each on its own goroutines; progress reaches Fit's goroutine
+	// through a channel so Settings.Progress is called from one goroutine only.
+	ctx, cancel := context.WithCancel(ctx)
+	defer cancel()
+	tick := make(chan struct{}, 64)
+	errs := make([]error, s.Chains)
+	var wg sync.WaitGroup
 	for ci := 0; ci < s.Chains; ci++ {
-		ch := newChain(K, V, words, docStart, alpha0, s.Beta, seeds, eta, s.Seed+uint64(ci)*chainSeedStep, s.Partitions, s.sampler)
-		D := len(docStart) - 1
-		phi := make([]float64, K*V)
-		theta := make([]float64, D*K)
-		lag := (s.Iterations - s.BurnIn) / s.Samples
-		next := s.BurnIn + lag - 1
-		taken := 0
-		for it := 0; it < s.Iterations; it++ {
-			if err := ctx.Err(); err != nil {
-				return nil, err
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			res, err := runChain(ctx, s, K, V, words, docStart, alpha0, seeds, eta,
+				s.Seed+uint64(ci)*chainSeedStep, optFrom, tick)
+			results[ci], errs[ci] = res, err
+			if err != nil {
+				cancel()
 			}
-			ch.sweep()
-			if !s.FixedPriors && it < s.BurnIn && it >= optFrom && it%10 == 9 {
-				ch.optimizePriors(!s.fixedBeta)
-			}
-			if it == next && taken < s.Samples {
-				ch.accumulate(phi, theta)
-				taken++
-				next += lag
-			}
-			done++
-			if s.Progress != nil {
-				s.Progress(done, total)
-			}
+		}()
+	}
+	go func() { wg.Wait(); close(tick) }()
+	for range tick {
+		done++
+		if s.Progress != nil {
+			s.Progress(done, total)
 		}
-		inv := 1 / float64(taken)
-		for i := range phi {
-			phi[i] *= inv
+	}
+	for _, err := range errs {
+		if err != nil {
+			return nil, err
 		}
-		for i := range theta {
-			theta[i] *= inv
-		}
-		results[ci] = result{phi, theta, append([]float64(nil), ch.alpha...), ch.beta, ch.logLikelihood()}
 	}
 	best := 0
 	for ci := range results {
@@ -179,6 +174,48 @@ func Fit(ctx context.Context, c Corpus, s Settings) (*Model, error) {
 		model.Stability = sum / float64(s.Chains-1)
 	}
 	return model, nil
+}
+
+type chainResult struct {
+	phi, theta []float64
+	alpha      []float64
+	beta, ll   float64
+}
+
+// runChain runs one chain to the end and returns its averaged estimates; it sends one tick
+// per sweep.
+func runChain(ctx context.Context, s Settings, K, V int, words []int32, docStart []int, alpha0 []float64,
+	seeds [][]int32, eta []float64, seed uint64, optFrom int, tick chan<- struct{}) (chainResult, error) {
+	ch := newChain(K, V, words, docStart, alpha0, s.Beta, seeds, eta, seed, s.Partitions, s.sampler)
+	D := len(docStart) - 1
+	phi := make([]float64, K*V)
+	theta := make([]float64, D*K)
+	lag := (s.Iterations - s.BurnIn) / s.Samples
+	next := s.BurnIn + lag - 1
+	taken := 0
+	for it := 0; it < s.Iterations; it++ {
+		if err := ctx.Err(); err != nil {
+			return chainResult{}, err
+		}
+		ch.sweep()
+		if !s.FixedPriors && it < s.BurnIn && it >= optFrom && it%10 == 9 {
+			ch.optimizePriors(!s.fixedBeta)
+		}
+		if it == next && taken < s.Samples {
+			ch.accumulate(phi, theta)
+			taken++
+			next += lag
+		}
+		tick <- struct{}{}
+	}
+	inv := 1 / float64(taken)
+	for i := range phi {
+		phi[i] *= inv
+	}
+	for i := range theta {
+		theta[i] *= inv
+	}
+	return chainResult{phi, theta, append([]float64(nil), ch.alpha...), ch.beta, ch.logLikelihood()}, nil
 }
 
 // chainSeedStep separates the seeds of a fit's chains (the 64-bit golden-ratio constant).

@@ -64,7 +64,10 @@ func newChain(K, V int, words []int32, docStart []int, alpha []float64, beta flo
 	c.setBeta(beta)
 
 	// Initial state: uniform random themes, except seed words, which start in their theme
-	// (one of them, chosen at random, if a word seeds several).
+	// (one of them, chosen at random, if a word seeds several). Sequential initialisation
+	// (each token drawn from the conditional given the tokens before it) was tried and
+	// dropped: on the bars test it locked in merged bars (Hellinger up to 0.76 after 200
+	// sweeps, against ≤ 0.15 from a random start).
 	rng := rand.New(rand.NewPCG(seed, 0x9e3779b97f4a7c15))
 	c.z = make([]uint16, len(words))
 	c.nwk = make([]int32, V*K)

@@ -54,7 +54,9 @@ type Settings struct {
 	// Chains is the number of independent chains (chain c is seeded with
 	// Seed + c·0x9E3779B97F4A7C15, so chains of neighbouring seeds do not coincide). The chain with
 	// the highest final log p(w|z) is kept and the matched top-word Jaccard agreement of the
-	// others with it is reported as Model.Stability. Zero means 1.
+	// others with it is reported as Model.Stability. Chains run concurrently (with
+	// Partitions = 1 and Chains = 2 that is one chain per core); each is deterministic, so
+	// the result does not depend on GOMAXPROCS. Zero means 1.
 	Chains int
 	// Seeds names guided themes by seed words; they become themes 0..len(Seeds)-1.
 	Seeds []SeedTheme
@@ -63,7 +65,7 @@ type Settings struct {
 	SeedStrength float64
 	// Progress, if not nil, is called from Fit's goroutine after every sweep of every chain
 	// with the sweeps done so far and the total number of sweeps.
-	Progress func(done, total int)
+	Progress func(done, total int) `json:"-"`
 
 	sampler   samplerKind // for measurement only; zero chooses by K
 	optFrom   int         // for measurement only: first sweep that re-estimates priors

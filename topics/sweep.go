@@ -2,6 +2,7 @@ package topics
 
 import (
 	"context"
+	"encoding/json"
 	"fmt"
 	"math"
 	"math/rand/v2"
@@ -80,6 +81,31 @@ type SweepRow struct {
 	// Stability is the mean matched top-word Jaccard over all pairs of seeds (Greene,
 	// O'Callaghan & Cunningham 2014); NaN with one seed.
 	Stability float64
+}
+
+// MarshalJSON encodes the row with NaN figures (stability with one seed, a held-out
+// log-likelihood with nothing to score) as null, which encoding/json cannot do by itself.
+func (r SweepRow) MarshalJSON() ([]byte, error) {
+	num := func(x float64) *float64 {
+		if math.IsNaN(x) || math.IsInf(x, 0) {
+			return nil
+		}
+		return &x
+	}
+	nums := func(xs []float64) []*float64 {
+		out := make([]*float64, len(xs))
+		for i, x := range xs {
+			out[i] = num(x)
+		}
+		return out
+	}
+	return json.Marshal(struct {
+		K                     int
+		HeldOutLL, NPMI       *float64
+		UMass                 *float64
+		ThemeNPMI, ThemeUMass []*float64
+		Stability             *float64
+	}{r.K, num(r.HeldOutLL), num(r.NPMI), num(r.UMass), nums(r.ThemeNPMI), nums(r.ThemeUMass), num(r.Stability)})
 }
 
 // SweepTable is the result of Sweep, kept for the report's methods section.

@@ -2,7 +2,9 @@ package topics
 
 import (
 	"context"
+	"encoding/json"
 	"math"
+	"strings"
 	"testing"
 )
 
@@ -33,6 +35,13 @@ func TestSweepFindsTrueK(t *testing.T) {
 	}
 	for _, s := range tab.Reasons {
 		t.Log(s)
+	}
+	if _, err := json.Marshal(tab); err != nil {
+		t.Errorf("table does not encode as JSON: %v", err)
+	}
+	one := SweepRow{K: 2, Stability: math.NaN()}
+	if b, _ := json.Marshal(one); !strings.Contains(string(b), `"Stability":null`) {
+		t.Errorf("NaN stability encodes as %s", b)
 	}
 	if tab.Recommended != 6 {
 		t.Errorf("recommended K = %d, want 6", tab.Recommended)
