@@ -515,6 +515,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 
 	// Phrases.
 	var phrasePairs [][2]string
+	var phraseParts [][3]int32 // phrase id, first, second
 	if s.Phrases.Enabled {
 		// A pair cannot occur more often than its rarer word: pairs with a word seen fewer
 		// than MinCount times are counted in the margins only.
@@ -560,6 +561,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 			}
 			disp[id] = disp[p.A] + "_" + disp[p.B]
 			phraseID[uint64(p.A)<<32|uint64(p.B)] = id
+			phraseParts = append(phraseParts, [3]int32{id, p.A, p.B})
 			isLeft[p.A] = true
 			phrasePairs = append(phrasePairs, [2]string{stemStr[p.A], stemStr[p.B]})
 			c.Phrases = append(c.Phrases, PhraseInfo{key, disp[id], p.Count, p.Score})
@@ -609,6 +611,9 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		if id, ok := stemID[st]; ok {
 			routineStem[id] = true
 		}
+	}
+	for _, p := range phraseParts {
+		routineStem[p[0]] = routineStem[p[1]] && routineStem[p[2]]
 	}
 	c.Routine = make([]RoutineReason, len(docs))
 	c.DupGroup = make([]int, len(docs))
