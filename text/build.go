@@ -184,7 +184,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		off    []int
 		tokens int
 	}
-	const chunkDocs = 1024
+	const chunkDocs = 2048
 	nChunks := (len(docs) + chunkDocs - 1) / chunkDocs
 	scanners := make([]scanner, workers())
 	wave := 4 * workers()
@@ -526,23 +526,48 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 				occur[t]++
 			}
 		}
-		pairCount := make(map[uint64]int, len(stemStr)*4)
-		left, right := make([]int, len(stemStr)), make([]int, len(stemStr))
-		n := 0
-		for d := range docs {
-			for k := docOff2[d]; k+1 < docOff2[d+1]; k++ {
-				a, b := out[k], out[k+1]
-				if a < 0 || b < 0 || stemProt[a] || stemProt[b] {
-					continue
+		// Counted per worker over blocks of narratives, then summed (sums do not depend on
+		// the split).
+		type pairStats struct {
+			count       map[uint64]int
+			left, right []int
+			n           int
+		}
+		ps := make([]pairStats, workers())
+		for w := range ps {
+			ps[w] = pairStats{make(map[uint64]int), make([]int, len(stemStr)), make([]int, len(stemStr)), 0}
+		}
+		const per = 2048
+		parallelFor((len(docs)+per-1)/per, func(w, blk int) {
+			st := &ps[w]
+			for d := blk * per; d < min((blk+1)*per, len(docs)); d++ {
+				for k := docOff2[d]; k+1 < docOff2[d+1]; k++ {
+					a, b := out[k], out[k+1]
+					if a < 0 || b < 0 || stemProt[a] || stemProt[b] {
+						continue
+					}
+					if occur[a] >= minCount && occur[b] >= minCount {
+						st.count[uint64(a)<<32|uint64(b)]++
+					}
+					st.left[a]++
+					st.right[b]++
+					st.n++
 				}
-				if occur[a] >= minCount && occur[b] >= minCount {
-					pairCount[uint64(a)<<32|uint64(b)]++
-				}
-				left[a]++
-				right[b]++
-				n++
+			}
+		})
+		left, right, n := ps[0].left, ps[0].right, ps[0].n
+		pairCount := ps[0].count
+		for _, st := range ps[1:] {
+			for i := range left {
+				left[i] += st.left[i]
+				right[i] += st.right[i]
+			}
+			n += st.n
+			for k, v := range st.count {
+				pairCount[k] += v
 			}
 		}
+		ps = nil
 		pc := make(map[[2]int32]int, len(pairCount)/4)
 		for k, v := range pairCount {
 			if v >= minCount {
@@ -567,23 +592,33 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 			c.Phrases = append(c.Phrases, PhraseInfo{key, disp[id], p.Count, p.Score})
 		}
 		if len(phraseID) > 0 {
+			// Merge within each narrative's own segment in parallel, then close the gaps.
+			ends := make([]int, len(docs))
+			parallelFor((len(docs)+per-1)/per, func(_, blk int) {
+				for d := blk * per; d < min((blk+1)*per, len(docs)); d++ {
+					a, b := docOff2[d], docOff2[d+1]
+					w := a
+					for k := a; k < b; {
+						if k+1 < b && out[k] >= 0 && out[k+1] >= 0 && isLeft[out[k]] {
+							if p, ok := phraseID[uint64(out[k])<<32|uint64(out[k+1])]; ok {
+								out[w] = p
+								w++
+								k += 2
+								continue
+							}
+						}
+						out[w] = out[k]
+						w++
+						k++
+					}
+					ends[d] = w
+				}
+			})
 			w := 0
 			for d := range docs {
-				a, b := docOff2[d], docOff2[d+1]
+				a := docOff2[d]
 				docOff2[d] = w
-				for k := a; k < b; {
-					if k+1 < b && out[k] >= 0 && out[k+1] >= 0 && isLeft[out[k]] {
-						if p, ok := phraseID[uint64(out[k])<<32|uint64(out[k+1])]; ok {
-							out[w] = p
-							w++
-							k += 2
-							continue
-						}
-					}
-					out[w] = out[k]
-					w++
-					k++
-				}
+				w += copy(out[w:], out[a:ends[d]])
 			}
 			docOff2[len(docs)] = w
 			out = out[:w]
@@ -713,19 +748,28 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		}
 		c.DocFreq[j] = df[t]
 	}
-	b := sparse.NewBuilder(len(keep))
-	b.Grow(len(docs), len(out)/2)
-	var ids []int32
-	for d := range docs {
-		ids = ids[:0]
-		for _, t := range out[docOff2[d]:docOff2[d+1]] {
-			if t >= 0 && newID[t] >= 0 {
-				ids = append(ids, newID[t])
+	// Rows are built in blocks in parallel and stacked in order.
+	const rowsPer = 4096
+	blocks := make([]*sparse.Matrix, (len(docs)+rowsPer-1)/rowsPer)
+	parallelFor(len(blocks), func(_, blk int) {
+		lo, hi := blk*rowsPer, min((blk+1)*rowsPer, len(docs))
+		b := sparse.NewBuilder(len(keep))
+		b.Grow(hi-lo, (docOff2[hi]-docOff2[lo])/2)
+		var ids []int32
+		for d := lo; d < hi; d++ {
+			ids = ids[:0]
+			for _, t := range out[docOff2[d]:docOff2[d+1]] {
+				if t >= 0 && newID[t] >= 0 {
+					ids = append(ids, newID[t])
+				}
 			}
+			b.AddIDs(ids)
 		}
-		b.AddIDs(ids)
-	}
-	c.Counts = b.Matrix()
+		blocks[blk] = b.Matrix()
+	})
+	c.Counts = sparse.Stack(blocks...)
+	c.Counts.Cols = len(keep)
+	blocks = nil
 
 	// Audit.
 	for id := 0; id < nScanned; id++ {
