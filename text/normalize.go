@@ -44,7 +44,7 @@ func needsSlowPath(raw string) bool {
 	return false
 }
 
-// normalize fills nb from raw: HTML residue (entities, tags) decoded or removed, Unicode NFKC,
+// normalize fills nb from raw: HTML residue (entities, tags, escaped tags) decoded or removed, Unicode NFKC,
 // quotes, apostrophes, dashes and unusual spaces unified. Case folding, hyphenation and
 // whitespace are left to the tokenizer, which needs the original case to tell a line-end
 // hyphenation ("resi-\ndence") from a hyphenated name.
@@ -228,6 +228,27 @@ func tagAt(s string, i int) int {
 	return 0
 }
 
+// escapedTagAt reports the length of an escaped tag such as "&lt;br /&gt;" at s[i] == '&'
+// (exports that escape HTML twice leave these), or 0.
+func escapedTagAt(s string, i int) int {
+	if !strings.HasPrefix(s[i:], "&lt;") || i+4 >= len(s) {
+		return 0
+	}
+	c := s[i+4]
+	if !((c >= 'a' && c <= 'z') || (c >= 'A' && c <= 'Z') || c == '/' || c == '!') {
+		return 0
+	}
+	rest := s[i+4:]
+	if len(rest) > 256 {
+		rest = rest[:256]
+	}
+	k := strings.Index(rest, "&gt;")
+	if k < 0 || strings.ContainsAny(rest[:k], "<>") {
+		return 0
+	}
+	return 4 + k + 4
+}
+
 // html decodes raw's HTML residue into nb.tmp with its byte map.
 func (nb *normBuf) html(raw string) {
 	nb.tmp, nb.tmpStart, nb.tmpEnd = nb.tmp[:0], nb.tmpStart[:0], nb.tmpEnd[:0]
@@ -241,6 +262,11 @@ func (nb *normBuf) html(raw string) {
 	for i := 0; i < len(raw); {
 		c := raw[i]
 		if c == '&' {
+			if n := escapedTagAt(raw, i); n > 0 {
+				emit(" ", i, i+n)
+				i += n
+				continue
+			}
 			if rep, n, ok := entityAt(raw, i); ok {
 				emit(rep, i, i+n)
 				i += n

@@ -58,6 +58,7 @@ func TestAnalyze(t *testing.T) {
 		{"html numeric", "§it&#39;s§ §done§", []string{"it", "done"}},
 		{"html tags", "§line§<br />§two§ <b>§bold§</b>", []string{"line", "two", "bold"}},
 		{"double escaped", "§a§&amp;nbsp;§b§", []string{"a", "b"}},
+		{"escaped tag", "§one§&lt;br /&gt;§two§ &lt; §three§", []string{"one", "two", "three"}},
 		{"nfkc ligature", "§ﬁre§ §ｆｕｌｌ§", []string{"fire", "full"}},
 		{"combining accent", "§cafe\u0301§", []string{"café"}},
 		{"ocr digits stay in word", "§0fficer§ §veh1cle§", []string{"0fficer", "veh1cle"}},
