@@ -144,7 +144,7 @@ func (h *Hasher) GroupsParallel(sigs [][]uint64, run func(n int, f func(b int)))
 	rows := h.s.Hashes / h.s.Bands
 	pairs := make([][][2]int32, h.s.Bands)
 	run(h.s.Bands, func(b int) {
-		first := make(map[uint64]int32, len(sigs))
+		first := newFirstTable(len(sigs))
 		var out [][2]int32
 		for i, sig := range sigs {
 			if len(sig) != h.s.Hashes {
@@ -159,9 +159,8 @@ func (h *Hasher) GroupsParallel(sigs [][]uint64, run func(n int, f func(b int)))
 			if !filled {
 				continue // an all-empty band says nothing
 			}
-			j, ok := first[key]
+			j, ok := first.getOrPut(key, int32(i))
 			if !ok {
-				first[key] = int32(i)
 				continue
 			}
 			if Similarity(sig, sigs[j]) >= h.s.Threshold {
@@ -218,4 +217,33 @@ func Similarity(a, b []uint64) float64 {
 		return 0
 	}
 	return float64(eq) / float64(n)
+}
+
+// firstTable maps a band key to the first narrative seen with it: open addressing with linear
+// probing, sized for n keys at load at most 1/2 (faster than a map for this insert-heavy use).
+type firstTable struct {
+	keys []uint64
+	vals []int32 // index+1; 0 marks an empty slot
+	mask uint64
+}
+
+func newFirstTable(n int) *firstTable {
+	size := 16
+	for size < 2*n {
+		size *= 2
+	}
+	return &firstTable{keys: make([]uint64, size), vals: make([]int32, size), mask: uint64(size - 1)}
+}
+
+// getOrPut returns the value stored under key and true, or stores v and returns false.
+func (t *firstTable) getOrPut(key uint64, v int32) (int32, bool) {
+	for i := mix(key) & t.mask; ; i = (i + 1) & t.mask {
+		if t.vals[i] == 0 {
+			t.keys[i], t.vals[i] = key, v+1
+			return 0, false
+		}
+		if t.keys[i] == key {
+			return t.vals[i] - 1, true
+		}
+	}
 }
