@@ -34,10 +34,22 @@ func (nb *normBuf) rawSpan(a, b int) (int, int) {
 	return int(nb.start[a]), int(nb.end[b-1])
 }
 
+// needsSlowPath reports whether raw has non-ASCII bytes or the bytes that start HTML residue
+// or a backtick apostrophe; otherwise the normalised text is raw itself.
 func needsSlowPath(raw string) bool {
-	for i := 0; i < len(raw); i++ {
-		c := raw[i]
-		if c >= utf8.RuneSelf || c == '&' || c == '<' || c == '`' {
+	if strings.IndexByte(raw, '&') >= 0 || strings.IndexByte(raw, '<') >= 0 || strings.IndexByte(raw, '`') >= 0 {
+		return true
+	}
+	i := 0
+	for ; i+8 <= len(raw); i += 8 {
+		w := uint64(raw[i]) | uint64(raw[i+1])<<8 | uint64(raw[i+2])<<16 | uint64(raw[i+3])<<24 |
+			uint64(raw[i+4])<<32 | uint64(raw[i+5])<<40 | uint64(raw[i+6])<<48 | uint64(raw[i+7])<<56
+		if w&0x8080808080808080 != 0 {
+			return true
+		}
+	}
+	for ; i < len(raw); i++ {
+		if raw[i] >= utf8.RuneSelf {
 			return true
 		}
 	}
