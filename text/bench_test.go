@@ -179,3 +179,20 @@ func TestWriteGeneratedCorpus(t *testing.T) {
 		t.Fatal(err)
 	}
 }
+
+// BenchmarkScan measures the tokenizer alone (normalisation and scanning, no interning) on
+// the generated corpus.
+func BenchmarkScan(b *testing.B) {
+	docs := genCorpus(20000, 1)
+	n := totalBytes(docs)
+	b.SetBytes(n)
+	var sc scanner
+	b.ResetTimer()
+	cpu0 := cpuSeconds()
+	for i := 0; i < b.N; i++ {
+		for _, d := range docs {
+			sc.scan(d, false)
+		}
+	}
+	b.ReportMetric(float64(n)*float64(b.N)/1e6/(cpuSeconds()-cpu0), "MB/cpu-s")
+}
