@@ -6,6 +6,7 @@ import (
 	"io"
 	"sort"
 	"strings"
+	"sync/atomic"
 	"unicode"
 	"unicode/utf8"
 
@@ -356,10 +357,9 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		}
 	}
 	joinOn := rs.Enabled && !rs.NoJoin
-	joinCache := make(map[[2]int32]int32)
-	joinCount := make(map[[2]int32]int)
-	var joinBuf []byte
-	joinable := func(a, b int32) int32 {
+	// joinable returns the surface id of a+b when the split-word rule joins them, else -1. It
+	// only reads shared tables; cache and buf belong to the caller's goroutine.
+	joinable := func(a, b int32, cache map[[2]int32]int32, buf *[]byte) int32 {
 		if a >= int32(nScanned) || b >= int32(nScanned) {
 			return -1
 		}
@@ -368,17 +368,17 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 			return -1
 		}
 		k := [2]int32{a, b}
-		if j, ok := joinCache[k]; ok {
+		if j, ok := cache[k]; ok {
 			return j
 		}
 		j := int32(-1)
 		if lettersOnly(sa.text, false) && lettersOnly(sb.text, false) {
-			joinBuf = append(append(joinBuf[:0], sa.text...), sb.text...)
-			if id, ok := intern[string(joinBuf)]; ok && int(id) < nScanned && surfs[id].count >= fmin && surfs[id].kind == Word {
+			*buf = append(append((*buf)[:0], sa.text...), sb.text...)
+			if id, ok := intern[string(*buf)]; ok && int(id) < nScanned && surfs[id].count >= fmin && surfs[id].kind == Word {
 				j = id
 			}
 		}
-		joinCache[k] = j
+		cache[k] = j
 		return j
 	}
 
@@ -434,56 +434,110 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 	}
 	lexWords = nil
 	lexOf := func(id int32) []lexEntry { return lexCache[id] }
-	occ := make([]int, len(surfs))
-	repairCount := make([]int, nScanned)
-	out := make([]int32, 0, len(stream))
-	docOff2 := make([]int, len(docs)+1)
-	for d := range docs {
-		if d&511 == 0 {
-			if err := ctx.Err(); err != nil {
-				return nil, nil, err
-			}
+	// Pass 2 over blocks of narratives in parallel, each block writing its own stem stream and
+	// each worker its own counters; blocks are then joined in order and counters summed.
+	type p2worker struct {
+		occ, repairCount []int
+		joinCount        map[[2]int32]int
+		joinCache        map[[2]int32]int32
+		buf              []byte
+	}
+	p2 := make([]p2worker, workers())
+	for w := range p2 {
+		p2[w] = p2worker{make([]int, len(surfs)), make([]int, nScanned), make(map[[2]int32]int), make(map[[2]int32]int32), nil}
+	}
+	const p2per = 2048
+	type p2block struct {
+		out []int32
+		off []int // per narrative end offsets within out
+	}
+	p2blocks := make([]p2block, (len(docs)+p2per-1)/p2per)
+	var cancelled atomic.Bool
+	parallelFor(len(p2blocks), func(w, blk int) {
+		if ctx.Err() != nil {
+			cancelled.Store(true)
+			return
 		}
-		ss := stream[docOff[d]:docOff[d+1]]
-		start := len(out)
-		brk := func() {
-			if len(out) > start && out[len(out)-1] != -1 {
-				out = append(out, -1)
-			}
-		}
-		for i := 0; i < len(ss); i++ {
-			id := ss[i]
-			if id < 0 {
-				brk()
-				continue
-			}
-			joined := false
-			if joinOn && i+1 < len(ss) && ss[i+1] >= 0 {
-				if j := joinable(id, ss[i+1]); j >= 0 {
-					joinCount[[2]int32{id, ss[i+1]}]++
-					id, joined = j, true
-					i++
+		st := &p2[w]
+		lo, hi := blk*p2per, min((blk+1)*p2per, len(docs))
+		out := make([]int32, 0, docOff[hi]-docOff[lo])
+		off := make([]int, 0, hi-lo)
+		for d := lo; d < hi; d++ {
+			ss := stream[docOff[d]:docOff[d+1]]
+			start := len(out)
+			for i := 0; i < len(ss); i++ {
+				id := ss[i]
+				if id < 0 {
+					if len(out) > start && out[len(out)-1] != -1 {
+						out = append(out, -1)
+					}
+					continue
+				}
+				joined := false
+				if joinOn && i+1 < len(ss) && ss[i+1] >= 0 {
+					if j := joinable(id, ss[i+1], st.joinCache, &st.buf); j >= 0 {
+						st.joinCount[[2]int32{id, ss[i+1]}]++
+						id, joined = j, true
+						i++
+					}
+				}
+				if !joined && int(id) < nScanned && repairTo[id] >= 0 {
+					st.repairCount[id]++
+					id = repairTo[id]
+				}
+				st.occ[id]++
+				le := lexOf(id)
+				if len(le) == 0 {
+					if len(out) > start && out[len(out)-1] != -1 {
+						out = append(out, -1)
+					}
+					continue
+				}
+				for _, e := range le {
+					out = append(out, e.stem)
 				}
 			}
-			if !joined && int(id) < nScanned && repairTo[id] >= 0 {
-				repairCount[id]++
-				id = repairTo[id]
+			if len(out) > start && out[len(out)-1] == -1 {
+				out = out[:len(out)-1]
 			}
-			occ[id]++
-			le := lexOf(id)
-			if len(le) == 0 {
-				brk()
-				continue
-			}
-			for _, e := range le {
-				out = append(out, e.stem)
-			}
+			off = append(off, len(out))
 		}
-		if len(out) > start && out[len(out)-1] == -1 {
-			out = out[:len(out)-1]
-		}
-		docOff2[d+1] = len(out)
+		p2blocks[blk] = p2block{out, off}
+	})
+	if cancelled.Load() {
+		return nil, nil, ctx.Err()
 	}
+	total2 := 0
+	for _, b := range p2blocks {
+		total2 += len(b.out)
+	}
+	out := make([]int32, 0, total2)
+	docOff2 := make([]int, len(docs)+1)
+	for blk, b := range p2blocks {
+		base := len(out)
+		out = append(out, b.out...)
+		for k, e := range b.off {
+			docOff2[blk*p2per+k+1] = base + e
+		}
+		p2blocks[blk] = p2block{}
+	}
+	occ, repairCount := p2[0].occ, p2[0].repairCount
+	joinCount, joinCache := p2[0].joinCount, p2[0].joinCache
+	for _, st := range p2[1:] {
+		for i, v := range st.occ {
+			occ[i] += v
+		}
+		for i, v := range st.repairCount {
+			repairCount[i] += v
+		}
+		for k, v := range st.joinCount {
+			joinCount[k] += v
+		}
+		for k, v := range st.joinCache {
+			joinCache[k] = v
+		}
+	}
+	p2 = nil
 	stream = nil
 
 	// Display forms of stems: the most frequent word, ties to the smaller (byte order).
