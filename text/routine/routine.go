@@ -220,11 +220,16 @@ func Similarity(a, b []uint64) float64 {
 }
 
 // firstTable maps a band key to the first narrative seen with it: open addressing with linear
-// probing, sized for n keys at load at most 1/2 (faster than a map for this insert-heavy use).
+// probing, sized for n keys at load at most 1/2, key and value side by side (one cache line
+// per probe; faster than a map for this insert-heavy use).
 type firstTable struct {
-	keys []uint64
-	vals []int32 // index+1; 0 marks an empty slot
-	mask uint64
+	slots []fslot
+	mask  uint64
+}
+
+type fslot struct {
+	key uint64
+	val int32 // index+1; 0 marks an empty slot
 }
 
 func newFirstTable(n int) *firstTable {
@@ -232,18 +237,19 @@ func newFirstTable(n int) *firstTable {
 	for size < 2*n {
 		size *= 2
 	}
-	return &firstTable{keys: make([]uint64, size), vals: make([]int32, size), mask: uint64(size - 1)}
+	return &firstTable{slots: make([]fslot, size), mask: uint64(size - 1)}
 }
 
 // getOrPut returns the value stored under key and true, or stores v and returns false.
 func (t *firstTable) getOrPut(key uint64, v int32) (int32, bool) {
 	for i := mix(key) & t.mask; ; i = (i + 1) & t.mask {
-		if t.vals[i] == 0 {
-			t.keys[i], t.vals[i] = key, v+1
+		sl := &t.slots[i]
+		if sl.val == 0 {
+			sl.key, sl.val = key, v+1
 			return 0, false
 		}
-		if t.keys[i] == key {
-			return t.vals[i] - 1, true
+		if sl.key == key {
+			return sl.val - 1, true
 		}
 	}
 }
