@@ -127,7 +127,14 @@ func BenchmarkPipeline1M(b *testing.B) {
 }
 
 // BenchmarkPipeline runs Build (the whole corpus pipeline) on the OSHA abstracts and on a
-// generated corpus; MB/s is raw narrative bytes per second.
+// generated corpus of 100,000 narratives; MB/s is raw narrative bytes per second. With
+// UNDERCURRENT_BENCH_JSON set it also prints one JSON line per run (the last line of each
+// corpus is the measured one):
+//
+//	UNDERCURRENT_BENCH_JSON=1 go test ./text -run XXX -bench 'Pipeline$' -benchtime 3x | grep '^{'
+//
+// The scikit-learn baseline on the same text: testdata/bench_sklearn.py (the generated corpus
+// is written by TestWriteGeneratedCorpus).
 func BenchmarkPipeline(b *testing.B) {
 	b.Run("osha", func(b *testing.B) { benchBuild(b, "osha", loadOSHA(b, 0)) })
 	b.Run("generated-100k", func(b *testing.B) { benchBuild(b, "generated-100k", genCorpus(100000, 1)) })
