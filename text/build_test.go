@@ -392,3 +392,47 @@ func TestBuildDegenerate(t *testing.T) {
 		t.Error("unknown stopword list accepted")
 	}
 }
+
+// Transform matches Build under non-default settings too (every switch that changes the
+// token path).
+func TestTransformMatchesBuildVariants(t *testing.T) {
+	docs := genCorpus(300, 17)
+	docs = append(docs, "The driver's veh1cle was on Alder Ct at 10-50 w/ the 0fficer", "vehi cle vehi cle")
+	variants := map[string]func(*Settings){
+		"keep possessive": func(s *Settings) { s.Tokens.KeepPossessive = true },
+		"placeholders":    func(s *Settings) { s.Tokens = TokenSettings{Numbers: Placeholder, Times: Placeholder, Dates: Placeholder, Codes: Placeholder} },
+		"no stemming":     func(s *Settings) { s.Stem.Off = true },
+		"no shipped abbreviations, user table": func(s *Settings) {
+			s.Abbrev = AbbrevSettings{NoShipped: true, User: map[string]string{"veh": "car", "rp": "caller"}}
+		},
+		"user stopwords and keep": func(s *Settings) {
+			s.Stop.User = []string{"vehicle", "street"}
+			s.Stop.Keep = []string{"the"}
+		},
+		"plain-edit repair": func(s *Settings) { s.Repair.MaxCost, s.Repair.ShortMaxCost = 1, 1 },
+		"no join":           func(s *Settings) { s.Repair.NoJoin = true },
+		"tight vocabulary":  func(s *Settings) { s.Vocab = weight.Pruning{MinDocs: 3, MaxDocShare: 0.5, MaxTerms: 40} },
+	}
+	for name, mod := range variants {
+		s := DefaultSettings()
+		mod(&s)
+		c, f := build(t, docs, s)
+		for i, d := range docs {
+			got := map[int32]float64{}
+			for _, id := range f.Transform(d).Terms {
+				got[id]++
+			}
+			cols, vals := c.Counts.Row(i)
+			want := map[int32]float64{}
+			for k, col := range cols {
+				want[col] = vals[k]
+			}
+			if !reflect.DeepEqual(got, want) {
+				t.Fatalf("%s, doc %d: Transform %v, Build %v", name, i, got, want)
+			}
+		}
+		if name == "tight vocabulary" && len(c.Vocab) > 40 {
+			t.Errorf("MaxTerms: %d terms", len(c.Vocab))
+		}
+	}
+}
