@@ -400,8 +400,10 @@ func TestTransformMatchesBuildVariants(t *testing.T) {
 	docs = append(docs, "The driver's veh1cle was on Alder Ct at 10-50 w/ the 0fficer", "vehi cle vehi cle")
 	variants := map[string]func(*Settings){
 		"keep possessive": func(s *Settings) { s.Tokens.KeepPossessive = true },
-		"placeholders":    func(s *Settings) { s.Tokens = TokenSettings{Numbers: Placeholder, Times: Placeholder, Dates: Placeholder, Codes: Placeholder} },
-		"no stemming":     func(s *Settings) { s.Stem.Off = true },
+		"placeholders": func(s *Settings) {
+			s.Tokens = TokenSettings{Numbers: Placeholder, Times: Placeholder, Dates: Placeholder, Codes: Placeholder}
+		},
+		"no stemming": func(s *Settings) { s.Stem.Off = true },
 		"no shipped abbreviations, user table": func(s *Settings) {
 			s.Abbrev = AbbrevSettings{NoShipped: true, User: map[string]string{"veh": "car", "rp": "caller"}}
 		},
