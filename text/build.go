@@ -507,6 +507,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 	if cancelled.Load() {
 		return nil, nil, ctx.Err()
 	}
+	stream, docOff = nil, nil // the surface stream is no longer needed: let it go before joining
 	total2 := 0
 	for _, b := range p2blocks {
 		total2 += len(b.out)
@@ -538,7 +539,6 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		}
 	}
 	p2 = nil
-	stream = nil
 
 	// Display forms of stems: the most frequent word, ties to the smaller (byte order).
 	type sw struct {
