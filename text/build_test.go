@@ -198,6 +198,11 @@ func TestSettingsJSON(t *testing.T) {
 	if err := s.Validate(); err == nil {
 		t.Error("bad policy accepted")
 	}
+	s = DefaultSettings()
+	s.Routine.Hashes, s.Routine.Bands = 48, 8
+	if err := s.Validate(); err == nil {
+		t.Error("hashes not a power of two accepted")
+	}
 }
 
 func repeat(s string, n int) []string {

@@ -144,7 +144,7 @@ func DefaultSettings() Settings {
 				"secured", "quiet", "okay", "ok", "nothing", "found", "unfounded", "answer", "voicemail", "message",
 				"callback", "disregard", "handled", "referred", "results", "drove", "drive", "patrol", "patrolled",
 				"neighborhood", "vicinity", "block", "twice", "needed", "prior", "suspicious", "matching", "description",
-				"make", "made", "caller", "one", "signs", "sign", "activity", "seen", "report", "needed", "upon",
+				"make", "made", "caller", "one", "signs", "sign", "activity", "seen", "report", "upon",
 				"remained", "returned", "service", "complainant", "searched", "search", "extra", "requested", "heard"},
 			NearDup:  true,
 			MinGroup: 3,
@@ -175,6 +175,9 @@ func (s Settings) Validate() error {
 	}
 	if b == 0 {
 		b = 16
+	}
+	if h < 0 || b < 0 || h&(h-1) != 0 {
+		return fmt.Errorf("text: routine hashes (%d) must be a power of two", h)
 	}
 	if h%b != 0 {
 		return fmt.Errorf("text: routine bands (%d) must divide hashes (%d)", b, h)
