@@ -357,10 +357,30 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		}
 	}
 	joinOn := rs.Enabled && !rs.NoJoin
+	// A join a+b needs a frequent word that starts with a and ends with b: mark the surfaces
+	// that are such prefixes and suffixes, so that most pairs are rejected without a lookup.
+	var joinPrefix, joinSuffix []bool
+	if joinOn {
+		joinPrefix, joinSuffix = make([]bool, nScanned), make([]bool, nScanned)
+		for id := 0; id < nScanned; id++ {
+			sf := surfs[id]
+			if sf.kind != Word || sf.count < fmin || !lettersOnly(sf.text, false) {
+				continue
+			}
+			for k := 1; k < len(sf.text); k++ {
+				if pid, ok := intern[sf.text[:k]]; ok && int(pid) < nScanned {
+					joinPrefix[pid] = true
+				}
+				if sid, ok := intern[sf.text[k:]]; ok && int(sid) < nScanned {
+					joinSuffix[sid] = true
+				}
+			}
+		}
+	}
 	// joinable returns the surface id of a+b when the split-word rule joins them, else -1. It
 	// only reads shared tables; cache and buf belong to the caller's goroutine.
 	joinable := func(a, b int32, cache map[[2]int32]int32, buf *[]byte) int32 {
-		if a >= int32(nScanned) || b >= int32(nScanned) {
+		if a >= int32(nScanned) || b >= int32(nScanned) || !joinPrefix[a] || !joinSuffix[b] {
 			return -1
 		}
 		sa, sb := &surfs[a], &surfs[b]
@@ -583,13 +603,13 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		// Counted per worker over blocks of narratives, then summed (sums do not depend on
 		// the split).
 		type pairStats struct {
-			count       map[uint64]int
+			count       *countTable
 			left, right []int
 			n           int
 		}
 		ps := make([]pairStats, workers())
 		for w := range ps {
-			ps[w] = pairStats{make(map[uint64]int), make([]int, len(stemStr)), make([]int, len(stemStr)), 0}
+			ps[w] = pairStats{newCountTable(len(stemStr)), make([]int, len(stemStr)), make([]int, len(stemStr)), 0}
 		}
 		const per = 2048
 		parallelFor((len(docs)+per-1)/per, func(w, blk int) {
@@ -601,7 +621,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 						continue
 					}
 					if occur[a] >= minCount && occur[b] >= minCount {
-						st.count[uint64(a)<<32|uint64(b)]++
+						st.count.add(uint64(a)<<32|uint64(b), 1)
 					}
 					st.left[a]++
 					st.right[b]++
@@ -617,17 +637,15 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 				right[i] += st.right[i]
 			}
 			n += st.n
-			for k, v := range st.count {
-				pairCount[k] += v
-			}
+			st.count.each(pairCount.add)
 		}
 		ps = nil
-		pc := make(map[[2]int32]int, len(pairCount)/4)
-		for k, v := range pairCount {
+		pc := make(map[[2]int32]int, pairCount.n/4)
+		pairCount.each(func(k uint64, v int) {
 			if v >= minCount {
 				pc[[2]int32{int32(k >> 32), int32(uint32(k))}] = v
 			}
-		}
+		})
 		pairCount = nil
 		sel := phrase.Select(pc, left, right, n, s.Phrases.Settings)
 		phraseID := make(map[uint64]int32, len(sel))
