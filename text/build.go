@@ -339,10 +339,41 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 				found[k], costs[k] = tgt, cost
 			}
 		})
+		// A word with an inflection of its own in the corpus ("clump" beside "clumped") is
+		// taken for a real word: OCR seldom makes the same wrong word twice in two forms. An
+		// inflection that is itself repaired to the same family does not count.
+		family := make(map[string][]int)
+		if !s.Stem.Off {
+			for id := 0; id < nScanned; id++ {
+				if sf := surfs[id]; sf.kind == Word && lettersOnly(sf.text, true) {
+					st := lx.stems.stem(sf.text)
+					family[st] = append(family[st], id)
+				}
+			}
+		}
+		candTarget := make(map[int]string, len(cand))
+		for k, id := range cand {
+			if found[k] != "" {
+				candTarget[int(id)] = lx.stems.stem(found[k])
+			}
+		}
 		for k, id := range cand {
 			tgt := found[k]
 			if tgt == "" {
 				continue
+			}
+			if !rs.Families && !s.Stem.Off {
+				real := false
+				tstem := candTarget[int(id)]
+				for _, sib := range family[lx.stems.stem(surfs[id].text)] {
+					if sib != int(id) && candTarget[sib] != tstem {
+						real = true
+						break
+					}
+				}
+				if real {
+					continue
+				}
 			}
 			if n := surfs[id].count; n > rmax {
 				if tid, ok := intern[tgt]; !ok || float64(surfs[tid].count) < ratio*float64(n) {

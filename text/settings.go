@@ -100,6 +100,9 @@ type RepairSettings struct {
 	MinLength int `json:"min_length"`
 	// Words are extra correct words: targets of repair and never repaired themselves.
 	Words []string `json:"words,omitempty"`
+	// Families also repairs words that have another inflection in the corpus; zero (false)
+	// leaves them alone, taking them for real words ("clump" beside "clumped").
+	Families bool `json:"families"`
 	// NoJoin switches off rejoining split words ("veh icle" → "vehicle"); zero: on.
 	NoJoin bool `json:"no_join"`
 }
