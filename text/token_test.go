@@ -97,14 +97,14 @@ func TestAnalyze(t *testing.T) {
 }
 
 func TestPolicies(t *testing.T) {
-	raw := "At 9:45 on 8/10/2017 unit 10-50 had 3 calls"
+	raw := "At 9:45 on 8/10/2017 unit 10-50 had 3 calls, the 2nd at 5uspect"
 	tests := []struct {
 		p    Policy
 		want string
 	}{
-		{Drop, "at|on|unit|had|calls"},
-		{Keep, "at|9:45|on|8/10/2017|unit|10-50|had|3|calls"},
-		{Placeholder, "at|_time_|on|_date_|unit|_code_|had|_number_|calls"},
+		{Drop, "at|on|unit|had|calls|the|at|5uspect"},
+		{Keep, "at|9:45|on|8/10/2017|unit|10-50|had|3|calls|the|2nd|at|5uspect"},
+		{Placeholder, "at|_time_|on|_date_|unit|_code_|had|_number_|calls|the|_number_|at|5uspect"},
 	}
 	for _, tt := range tests {
 		s := DefaultSettings()
