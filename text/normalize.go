@@ -224,7 +224,11 @@ func tagAt(s string, i int) int {
 		return 0
 	}
 	if strings.HasPrefix(s[i:], "<!--") {
-		if k := strings.Index(s[i+4:], "-->"); k >= 0 {
+		rest := s[i+4:]
+		if len(rest) > 4096 {
+			rest = rest[:4096] // bounded, so that many unclosed comments stay linear
+		}
+		if k := strings.Index(rest, "-->"); k >= 0 {
 			return 4 + k + 3
 		}
 		return 0

@@ -180,3 +180,12 @@ func TestAbbrevTable(t *testing.T) {
 		t.Errorf("err = %v", err)
 	}
 }
+
+// Pathological residue stays fast (linear): many unclosed comments and tags.
+func TestPathologicalHTML(t *testing.T) {
+	raw := strings.Repeat("<!-- x ", 20000) + strings.Repeat("<a ", 20000) + strings.Repeat("&amp;", 20000)
+	toks := Analyze(raw, DefaultSettings())
+	if len(toks) == 0 {
+		t.Fatal("no tokens")
+	}
+}
