@@ -147,6 +147,10 @@ func lettersOnly(s string, ocrDigits bool) bool {
 	return letter
 }
 
+// maxRepairLen: longer words (code blobs, glued text) are never repaired; the edit distance
+// is quadratic in the length.
+const maxRepairLen = 40
+
 // Build runs the whole pipeline over a corpus: tokenize (Analyze's rules), rejoin split words
 // and repair OCR noise (corpus frequencies), expand abbreviations, remove stopwords, stem,
 // find phrases, prune the vocabulary, count, and set routine narratives aside. It returns the
@@ -295,7 +299,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		user := make(map[string]bool)
 		var targets []string
 		for id := 0; id < nScanned; id++ {
-			if sf := surfs[id]; sf.kind == Word && sf.count >= fmin && lettersOnly(sf.text, false) {
+			if sf := surfs[id]; sf.kind == Word && sf.count >= fmin && len(sf.text) <= 4*maxRepairLen && lettersOnly(sf.text, false) {
 				targets = append(targets, sf.text)
 			}
 		}
@@ -322,7 +326,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 			if _, ok := lx.abbrev.Lookup(sf.text); ok {
 				continue
 			}
-			if utf8.RuneCountInString(sf.text) < minLen {
+			if n := utf8.RuneCountInString(sf.text); n < minLen || n > maxRepairLen {
 				continue
 			}
 			cand = append(cand, int32(id))
@@ -395,7 +399,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		joinPrefix, joinSuffix = make([]bool, nScanned), make([]bool, nScanned)
 		for id := 0; id < nScanned; id++ {
 			sf := surfs[id]
-			if sf.kind != Word || sf.count < fmin || !lettersOnly(sf.text, false) {
+			if sf.kind != Word || sf.count < fmin || len(sf.text) > 2*maxRepairLen || !lettersOnly(sf.text, false) {
 				continue
 			}
 			for k := 1; k < len(sf.text); k++ {

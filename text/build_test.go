@@ -443,3 +443,15 @@ func TestTransformMatchesBuildVariants(t *testing.T) {
 		}
 	}
 }
+
+// A huge glued token (a pasted blob) neither slows repair down nor breaks the build.
+func TestHugeToken(t *testing.T) {
+	docs := genCorpus(50, 3)
+	for i := 0; i < 12; i++ { // frequent, so it is a repair and join target too
+		docs = append(docs, strings.Repeat("abcdefghij", 20000))
+	}
+	c, _ := build(t, docs, DefaultSettings())
+	if c.Counts.Rows != len(docs) {
+		t.Fatal("rows")
+	}
+}
