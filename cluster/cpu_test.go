@@ -79,15 +79,15 @@ func TestCPUAverage(t *testing.T) {
 	if os.Getenv("UC_CPU") == "" {
 		t.Skip()
 	}
-	x := dirichletRows(5000, 20, benchSeed)
-	c0 := cpuTime()
-	w0 := time.Now()
-	d := EuclideanCondensed(nil, x, &Settings{Workers: 1})
-	fmt.Println("pdist cpu", cpuTime()-c0, "wall", time.Since(w0))
-	c0 = cpuTime()
-	w0 = time.Now()
-	Link(d, Average, &Settings{Workers: 1})
-	fmt.Println("link cpu", cpuTime()-c0, "wall", time.Since(w0))
+	x := dirichletRows(10000, 20, benchSeed)
+	defer func(v bool) { hugeHint = v }(hugeHint)
+	for _, h := range []bool{false, true} {
+		hugeHint = h
+		c0 := cpuTime()
+		w0 := time.Now()
+		LinkVectors(x, nil, Average, &Settings{Workers: 1})
+		fmt.Println("huge", h, "cpu", cpuTime()-c0, "wall", time.Since(w0))
+	}
 }
 
 func TestCPUSummary(t *testing.T) {

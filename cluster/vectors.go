@@ -132,6 +132,7 @@ func PairwiseCondensed(dst []float64, x [][]float64, dist func(a, b []float64) f
 	m := CondensedLen(n)
 	if dst == nil {
 		dst = make([]float64, m)
+		adviseHuge(dst)
 	} else if len(dst) != m {
 		panic("cluster: len(dst) != n(n-1)/2")
 	}
