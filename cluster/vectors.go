@@ -75,8 +75,9 @@ func flatten(x [][]float64, weights []float64) (flat []float64, w []float64, d i
 // distances computed from centroids and weights on the fly (squared Ward
 // distance 2·wA·wB/(wA+wB)·‖a−b‖², compared without square roots and
 // pruned by partial sums over the first coordinates); Centroid and
-// Median run the generic algorithm. Single, Complete, Average and
-// Weighted compute the condensed Euclidean matrix (n(n-1)/2 values, the
+// Median run the generic algorithm. Single runs the MST algorithm with
+// distances computed on the fly, also in O(n·d) memory. Complete, Average
+// and Weighted compute the condensed Euclidean matrix (n(n-1)/2 values, the
 // only copy: it is then used as Link's working matrix). Distance computations are split over Settings.Workers
 // goroutines and reduced in a fixed order with an associative tie rule,
 // so results do not depend on the number of workers.
@@ -99,6 +100,13 @@ func LinkVectors(x [][]float64, weights []float64, method Linkage, s *Settings) 
 		return wardVectors(flat, w, n, d, s.workers()), nil
 	case Centroid, Median:
 		return genericVectors(flat, w, n, d, method, s.workers()), nil
+	case Single:
+		if weights != nil {
+			panic("cluster: weights need Ward, Centroid or Median linkage")
+		}
+		return prim(n, s.workers(), func(a, b int) float64 {
+			return euclid(flat[a*d:a*d+d], flat[b*d:b*d+d])
+		}), nil
 	}
 	if weights != nil {
 		panic("cluster: weights need Ward, Centroid or Median linkage")

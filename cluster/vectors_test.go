@@ -13,6 +13,8 @@ import (
 // (1e-9 relative) rather than bit for bit; pairs and sizes are identical,
 // including the grid whose heights tie up to a 1e-9 jitter.
 func TestLinkVectorsScipy(t *testing.T) {
+	defer func(v int) { minParallel = v }(minParallel)
+	minParallel = 4
 	for _, c := range loadScipy(t) {
 		if c.Vectors == nil {
 			continue
