@@ -109,11 +109,22 @@ func nnChainCondensed(dist []float64, n int, m Linkage, workers int, own bool) *
 			}
 			used := parallelRanges(len(act), workers, minParallel, func(w, lo, hi int) {
 				b := b0
-				for _, i := range act[lo:hi] {
+				part := act[lo:hi]
+				mid, _ := slices.BinarySearch(part, x)
+				// Points below x: d(i, x) lies in row i (one read per row).
+				for _, i := range part[:mid] {
+					v := d[n*i-i*(i+1)/2+x-i-1]
+					if v < b.v || (v == b.v && !b.prev && i < b.key) {
+						b = cand{v: v, prev: i == prev, key: i}
+					}
+				}
+				// Points above x: row x, contiguous.
+				base := n*x - x*(x+1)/2 - x - 1 // d(x, i) = d[base+i]
+				for _, i := range part[mid:] {
 					if i == x {
 						continue
 					}
-					v := d[cidx(n, x, i)]
+					v := d[base+i]
 					if v < b.v || (v == b.v && !b.prev && i < b.key) {
 						b = cand{v: v, prev: i == prev, key: i}
 					}
@@ -143,7 +154,19 @@ func nnChainCondensed(dist []float64, n int, m Linkage, workers int, own bool) *
 		ax, _ := slices.BinarySearch(act, x)
 		act = slices.Delete(act, ax, ax+1)
 		parallelRanges(len(act), workers, minParallel, func(_, lo, hi int) {
-			for _, i := range act[lo:hi] {
+			part := act[lo:hi]
+			if m == Average {
+				// update(Average, ...) written out, same operations.
+				for _, i := range part {
+					if i == y {
+						continue
+					}
+					iy := cidx(n, i, y)
+					d[iy] = (float64(nx*d[cidx(n, i, x)]) + float64(ny*d[iy])) / (nx + ny)
+				}
+				return
+			}
+			for _, i := range part {
 				if i == y {
 					continue
 				}

@@ -122,13 +122,12 @@ func EuclideanCondensed(dst []float64, x [][]float64, s *Settings) []float64 {
 	return PairwiseCondensed(dst, x, euclid, s)
 }
 
+// euclid is the Euclidean distance, summed in four lanes as sqdist.
 func euclid(a, b []float64) float64 {
-	var s float64
-	for k := range a {
-		t := a[k] - b[k]
-		s += t * t
+	if len(a) != len(b) {
+		panic("cluster: slice lengths do not match")
 	}
-	return math.Sqrt(s)
+	return math.Sqrt(sqdist(a, b))
 }
 
 // PairwiseCondensed stores dist(x[i], x[j]) for all i < j in dst
