@@ -122,7 +122,7 @@ func (s *Summary) CutCount(dst []int, k int) []int {
 }
 
 // CutHeight labels the rows by the cut of the micro-cluster tree at height
-// h (see Dendrogram.CutHeight). Labels follow the micro-clusters' order.
+// h (see Dendrogram.CutHeight). Labels are 0, 1, ... by first row.
 func (s *Summary) CutHeight(dst []int, h float64) []int {
 	return s.mapLabels(dst, s.Tree.CutHeight(nil, h))
 }
