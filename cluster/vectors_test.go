@@ -49,7 +49,7 @@ func TestWard1D(t *testing.T) {
 }
 
 // TestWeightedWardExact checks that a point of weight w behaves as w
-// coincident points: duplicating rows gives the same heights as weights
+// coincident points, for Ward and Centroid: duplicating rows gives the same heights as weights
 // (the merges of the duplicates, at height 0, come first and are dropped).
 // Source: the definition of Ward's criterion (common practice).
 func TestWeightedWardExact(t *testing.T) {
@@ -65,26 +65,28 @@ func TestWeightedWardExact(t *testing.T) {
 			dup = append(dup, p)
 		}
 	}
-	a, err := LinkVectors(x, w, Ward, nil)
-	if err != nil {
-		t.Fatal(err)
-	}
-	b, err := LinkVectors(dup, nil, Ward, nil)
-	if err != nil {
-		t.Fatal(err)
-	}
-	var hb []float64
-	for _, m := range b.Merges {
-		if m.Height > 1e-9 {
-			hb = append(hb, m.Height)
+	for _, m := range []Linkage{Ward, Centroid} {
+		a, err := LinkVectors(x, w, m, nil)
+		if err != nil {
+			t.Fatal(err)
 		}
-	}
-	if len(hb) != len(a.Merges) {
-		t.Fatalf("%d positive heights with duplicates, %d merges with weights", len(hb), len(a.Merges))
-	}
-	for i, m := range a.Merges {
-		if !relClose(m.Height, hb[i], 1e-9) {
-			t.Errorf("merge %d: weighted %v, duplicated %v", i, m.Height, hb[i])
+		b, err := LinkVectors(dup, nil, m, nil)
+		if err != nil {
+			t.Fatal(err)
+		}
+		var hb []float64
+		for _, mg := range b.Merges {
+			if mg.Height > 1e-9 {
+				hb = append(hb, mg.Height)
+			}
+		}
+		if len(hb) != len(a.Merges) {
+			t.Fatalf("%v: %d positive heights with duplicates, %d merges with weights", m, len(hb), len(a.Merges))
+		}
+		for i, mg := range a.Merges {
+			if !relClose(mg.Height, hb[i], 1e-9) {
+				t.Errorf("%v merge %d: weighted %v, duplicated %v", m, i, mg.Height, hb[i])
+			}
 		}
 	}
 }
