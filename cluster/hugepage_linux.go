@@ -16,7 +16,7 @@ import (
 // memory is first written.
 func adviseHuge(s []float64) {
 	const page = 4096
-	if len(s)*8 < 64<<20 || !hugeHint {
+	if len(s)*8 < 64<<20 {
 		return
 	}
 	start := uintptr(unsafe.Pointer(&s[0]))
@@ -29,6 +29,3 @@ func adviseHuge(s []float64) {
 	syscall.Syscall(syscall.SYS_MADVISE, a, b-a, syscall.MADV_HUGEPAGE)
 	runtime.KeepAlive(s)
 }
-
-// hugeHint switches adviseHuge (a variable for measurements).
-var hugeHint = true

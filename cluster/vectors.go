@@ -258,7 +258,7 @@ func wardVectors(cent, w []float64, n, d, workers int) *Dendrogram {
 	last := -1                 // key of the cluster merged last
 	head := d                  // coordinates summed before the pruning test
 	switch {
-	case d >= headSplit:
+	case d >= 20:
 		head = 16
 	case d >= 16:
 		head = 12
@@ -596,7 +596,3 @@ func wardValue(a, b []float64, wa, wb float64, head int) float64 {
 	}
 	return 2 * wa * wb / (wa + wb) * s
 }
-
-// headSplit is the least d for the sixteen-coordinate stage (a variable
-// for measurements).
-var headSplit = 20
