@@ -70,7 +70,7 @@ func TestTreeScipy(t *testing.T) {
 			}
 		}
 		if c.OLO != nil {
-			got := tree.OptimalLeafOrder(nil, y)
+			got := tree.OptimalLeafOrder(nil, y, &Settings{Workers: 3})
 			rev := slices.Clone(c.OLO)
 			slices.Reverse(rev)
 			if !validOrder(tree, got) {
