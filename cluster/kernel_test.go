@@ -133,3 +133,21 @@ func TestKernel16(t *testing.T) {
 		}
 	}
 }
+
+// TestRowDist: the batched Euclidean kernel equals euclid bit for bit.
+func TestRowDist(t *testing.T) {
+	for _, d := range []int{3, 8, 9, 20, 23} {
+		x := dirichletRows(40, d, uint64(d))
+		var c []float64
+		for _, r := range x {
+			c = append(c, r...)
+		}
+		out := make([]float64, 40)
+		rowDist(x[5], c, out)
+		for k := range out {
+			if w := euclid(x[5], x[k]); out[k] != w {
+				t.Fatalf("d=%d row %d: %v vs %v", d, k, out[k], w)
+			}
+		}
+	}
+}

@@ -119,7 +119,29 @@ func LinkVectors(x [][]float64, weights []float64, method Linkage, s *Settings) 
 // nil a new slice is made; otherwise it must have length CondensedLen(n).
 // Rows are split over Settings.Workers goroutines.
 func EuclideanCondensed(dst []float64, x [][]float64, s *Settings) []float64 {
-	return PairwiseCondensed(dst, x, euclid, s)
+	n := len(x)
+	if n == 0 {
+		return PairwiseCondensed(dst, x, euclid, s)
+	}
+	d := len(x[0])
+	flat := make([]float64, n*d)
+	for i, r := range x {
+		if len(r) != d {
+			panic("cluster: rows of x differ in length")
+		}
+		copy(flat[i*d:], r)
+	}
+	return pairwise(dst, n, s, func(i int, out []float64) {
+		rowDist(flat[i*d:i*d+d], flat[(i+1)*d:], out)
+	})
+}
+
+// rowDistGo is the portable rowDist.
+func rowDistGo(x, c []float64, out []float64) {
+	d := len(x)
+	for k := range out {
+		out[k] = euclid(x, c[k*d:k*d+d])
+	}
 }
 
 // euclid is the Euclidean distance, summed in four lanes as sqdist.
@@ -135,7 +157,17 @@ func euclid(a, b []float64) float64 {
 // concurrent use. Rows are split over Settings.Workers goroutines; each
 // value is computed independently, so the result does not depend on it.
 func PairwiseCondensed(dst []float64, x [][]float64, dist func(a, b []float64) float64, s *Settings) []float64 {
-	n := len(x)
+	return pairwise(dst, len(x), s, func(i int, out []float64) {
+		for k := range out {
+			out[k] = dist(x[i], x[i+1+k])
+		}
+	})
+}
+
+// pairwise fills the condensed matrix row by row: row(i, out) stores
+// d(i, j) for j = i+1..n-1 in out. Rows are split over workers in ranges
+// of about equal numbers of values.
+func pairwise(dst []float64, n int, s *Settings, row func(i int, out []float64)) []float64 {
 	m := CondensedLen(n)
 	if dst == nil {
 		dst = make([]float64, m)
@@ -147,13 +179,12 @@ func PairwiseCondensed(dst []float64, x [][]float64, dist func(a, b []float64) f
 	if nw > n {
 		nw = n
 	}
-	// Balanced row ranges: row i holds n-1-i values.
 	var wg sync.WaitGroup
 	lo := 0
 	for k := 0; k < nw; k++ {
 		target := (m * (k + 1)) / nw
 		hi := lo
-		for hi < n && CondensedLen(n)-CondensedLen(n-hi) < target {
+		for hi < n && m-CondensedLen(n-hi) < target {
 			hi++
 		}
 		if k == nw-1 {
@@ -163,10 +194,8 @@ func PairwiseCondensed(dst []float64, x [][]float64, dist func(a, b []float64) f
 		go func(lo, hi int) {
 			defer wg.Done()
 			for i := lo; i < hi; i++ {
-				base := cidx(n, i, i+1) - (i + 1)
-				for j := i + 1; j < n; j++ {
-					dst[base+j] = dist(x[i], x[j])
-				}
+				start := m - CondensedLen(n-i) // index of d(i, i+1)
+				row(i, dst[start:start+n-1-i])
 			}
 		}(lo, hi)
 		lo = hi
