@@ -3,6 +3,7 @@ package cluster
 import (
 	"math/rand/v2"
 	"reflect"
+	"runtime"
 	"testing"
 )
 
@@ -144,5 +145,36 @@ func TestLinkVectorsTiesPartitions(t *testing.T) {
 				t.Errorf("%v: partition at height %v: %v, scipy %v", m, h, a, b)
 			}
 		}
+	}
+}
+
+// TestGOMAXPROCS: with default Settings the results are byte-identical at
+// GOMAXPROCS 1 and 2 (project rule), for the vector, matrix, summary and
+// ordering code.
+func TestGOMAXPROCS(t *testing.T) {
+	defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(0))
+	defer func(v int) { minParallel = v }(minParallel)
+	minParallel = 16
+	x := dirichletRows(2500, 20, 12)
+	run := func() []any {
+		var out []any
+		for _, m := range []Linkage{Ward, Centroid, Single} {
+			d, err := LinkVectors(x, nil, m, nil)
+			if err != nil {
+				t.Fatal(err)
+			}
+			out = append(out, d)
+		}
+		d, _ := LinkVectors(x[:800], nil, Average, nil)
+		out = append(out, d, d.OptimalLeafOrder(nil, EuclideanCondensed(nil, x[:800], nil), nil))
+		s, _ := Summarize(x, nil, &SummarySettings{K: 100, Seed: 3})
+		return append(out, s)
+	}
+	runtime.GOMAXPROCS(1)
+	a := run()
+	runtime.GOMAXPROCS(2)
+	b := run()
+	if !reflect.DeepEqual(a, b) {
+		t.Error("results differ between GOMAXPROCS 1 and 2")
 	}
 }
