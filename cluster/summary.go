@@ -44,7 +44,7 @@ type Summary struct {
 	Centroids [][]float64 // micro-cluster centroids (non-empty ones only)
 	Weights   []float64   // total weight of each micro-cluster
 	Assign    []int       // micro-cluster of every row
-	Tree      *Dendrogram // exact weighted Ward over the centroids
+	Tree      *Dendrogram // exact weighted Ward over the centroids; leaves are micro-clusters (Merge.Size counts them)
 }
 
 // Summarize groups the rows of x (optionally weighted; nil weights are
