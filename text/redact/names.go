@@ -253,8 +253,8 @@ func (d *doc) nameSeq(i int) (end int, parts []string) {
 		parts = append(parts, strings.ToLower(d.word(j)))
 		j++
 	}
-	if len(parts) == 1 && d.isPunct(j, ",") && d.nameToken(j+1) && givenNames[strings.ToLower(d.word(j+1))] {
-		parts = append(parts, strings.ToLower(d.word(j+1)))
+	if len(parts) == 1 && d.lastFirst(j) {
+		parts = append(parts, d.lower[j+1])
 		j += 2
 	}
 	return j, parts
@@ -271,6 +271,8 @@ var nameCues = [][]string{
 	{"daughter"}, {"wife"}, {"husband"}, {"girlfriend"}, {"boyfriend"}, {"brother"},
 	{"sister"}, {"neighbor"}, {"neighbour"}, {"friend"}, {"parent"}, {"guardian"},
 	{"employee"}, {"coworker"}, {"supervisor"}, {"manager"},
+	{"vic"}, {"vict"}, {"susp"}, {"comp"}, {"compl"}, {"wit"}, {"subj"}, {"keyholder"},
+	{"reportee"}, {"registered", "to"}, {"name", "of"}, {"registered", "owner"},
 	// police shorthand: V/ victim, S/ suspect, R/P reporting party, W/ is "with".
 	{"v", "/"}, {"s", "/"}, {"r", "/", "p"},
 }
@@ -324,8 +326,8 @@ func (d *doc) names(cs []cand) []cand {
 			continue
 		}
 		lw := d.lower[i]
-		// titles: "Mr. Quosby", "Dr Ann Lee"
-		if titleWords[lw] {
+		// titles: "Mr. Quosby", "Dr Ann Lee"; but "Pellinger Dr. Parking ..." is a street.
+		if titleWords[lw] && !(lw == "dr" && i > 0 && d.toks[i-1].kind != tPunct && (d.toks[i-1].kind == tNum || capitalised(d.word(i-1)) || allUpper(d.word(i-1)) || ordinalRe.MatchString(d.word(i-1)))) {
 			j := i + 1
 			if d.isPunct(j, ".") {
 				j++
@@ -356,7 +358,7 @@ func (d *doc) names(cs []cand) []cand {
 			if end, parts := d.nameSeq(j); len(parts) > 0 {
 				// "Coworker #1", "Unit 12": a label, not a name; "contacted Dispatch": an
 				// ordinary word, not a name.
-				if !(end < len(d.toks) && (d.toks[end].kind == tNum || d.isPunct(end, "#"))) && nameLike(parts) {
+				if !d.roleLabel(end, parts) && nameLike(parts) {
 					cs = d.addName(cs, j, end, parts)
 				}
 				i = end - 1
@@ -508,6 +510,11 @@ func (d *doc) heuristicNames(cs []cand) []cand {
 				lastOK = true
 			}
 			ok = nonDict >= 1 && firstOK && lastOK
+			// "Crystal Nwachurin explained": a surname no dictionary knows and a person's
+			// verb after it.
+			if !ok && !isDictWord(lw) && verb && strongVerbs[d.lower[last+1]] {
+				ok = true
+			}
 			if d.quoted(idx[0], idx[len(idx)-1]) {
 				ok = false
 			}
@@ -520,6 +527,13 @@ func (d *doc) heuristicNames(cs []cand) []cand {
 			// a single word needs a person's verb after it or a person's context before it.
 			ok = nonDict >= 1 && utf8.RuneCountInString(w) >= 3 && !placePrepsBefore[prev] && !d.quoted(idx[0], idx[0])
 			verb := next < len(d.toks) && d.toks[next].kind == tWord && strongVerbs[d.lower[next]]
+			// "Hollifax, Carlos told me": LAST, First.
+			if nonDict >= 1 && d.lastFirst(next) && !placePrepsBefore[prev] {
+				parts = append(parts, d.lower[next+1])
+				cs = d.addName(cs, idx[0], next+2, parts)
+				i = next + 1
+				continue
+			}
 			ok = ok && (verb || personBefore[prev])
 		}
 		if ok {
@@ -883,4 +897,38 @@ func (d *doc) phoneAhead(i int) bool {
 		return false
 	}
 	return d.isPunct(i+1, "-") || d.isPunct(i+1, ".") || d.isPunct(i+1, ")")
+}
+
+// roleLabel reports whether a one-word cued name followed by "#" or a number is a role
+// label ("Coworker #1", "Employee 2") rather than a name.
+func (d *doc) roleLabel(end int, parts []string) bool {
+	if len(parts) != 1 || end >= len(d.toks) {
+		return false
+	}
+	if d.isPunct(end, "#") {
+		return true
+	}
+	t := d.toks[end]
+	return t.kind == tNum && (t.end >= len(d.text) || !isAlnumByte(d.text[t.end]))
+}
+
+// lastFirst reports whether tokens j, j+1 are ", First" completing "LAST, First": a comma,
+// then a capitalised given name or uncommon word, not itself followed by another
+// capitalised word (which would make it a list of places or businesses).
+func (d *doc) lastFirst(j int) bool {
+	if !d.isPunct(j, ",") || j+1 >= len(d.toks) || d.toks[j+1].kind != tWord || d.toks[j+1].nl > 0 {
+		return false
+	}
+	w := d.word(j + 1)
+	lw := d.lower[j+1]
+	if !(capitalised(w) || (d.caps && allUpper(w))) || stopNames[lw] || orgWords[lw] {
+		return false
+	}
+	if !givenNames[lw] && isCommonWord(w) {
+		return false
+	}
+	if k := j + 2; k < len(d.toks) && d.toks[k].kind == tWord && d.toks[k].nl == 0 && (capitalised(d.word(k)) || usStates[d.word(k)]) {
+		return false
+	}
+	return true
 }

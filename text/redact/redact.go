@@ -152,7 +152,9 @@ func (r *Redactor) pass(text string) []Span {
 			}
 		}
 	}
-	d := &doc{text: text, r: r, masks: masks}
+	// Detectors read a copy in which HTML residue ("&nbsp;", "<br />") is blanked out
+	// byte for byte, so offsets stay those of text.
+	d := &doc{text: htmlView.Replace(text), orig: text, r: r, masks: masks}
 	d.tokenize()
 	var cs []cand
 	t := r.opt.Types
@@ -189,6 +191,13 @@ func (r *Redactor) pass(text string) []Span {
 	cs = d.resolve(cs)
 	return d.finish(cs, nextName)
 }
+
+// htmlView blanks common HTML residue with as many spaces as it has bytes ("&amp;" keeps
+// its "&"), so that a cue and its value separated by "&nbsp;" are still found.
+var htmlView = strings.NewReplacer(
+	"&nbsp;", "      ", "&NBSP;", "      ", "&amp;", "&    ", "<br />", "      ", "<br/>", "     ",
+	"<br>", "    ", "<BR>", "    ", "<p>", "   ", "</p>", "    ", "<P>", "   ", "</P>", "    ",
+)
 
 // overlapsMask reports whether [s,e) overlaps a placeholder.
 func (d *doc) overlapsMask(s, e int) bool {
@@ -355,7 +364,7 @@ func (d *doc) span(c cand, num int) Span {
 	if c.typ == Name {
 		ph = "[NAME-" + strconv.Itoa(num) + "]"
 	}
-	return Span{Type: c.typ, Start: c.start, End: c.end, Placeholder: ph, Text: d.text[c.start:c.end]}
+	return Span{Type: c.typ, Start: c.start, End: c.end, Placeholder: ph, Text: d.orig[c.start:c.end]}
 }
 
 // matchPerson finds the person a name with these parts refers to, or nil.

@@ -134,6 +134,7 @@ func TestDOBAndAge(t *testing.T) {
 		{"born in 1985", []string{"1985"}},
 		{"on 01/02/1990 the car", nil}, // a date with no cue
 		{"1/2/1990 (DOB)", []string{"1/2/1990"}},
+		{"date of birth&nbsp;07/23/1958.", []string{"07/23/1958"}}, // HTML residue between cue and date
 	})
 	runDet(t, Age, []detCase{
 		{"a 23 y/o male", []string{"23 y/o"}},
@@ -152,7 +153,7 @@ func TestPlate(t *testing.T) {
 		{"CA plate 7ABC123", []string{"7ABC123"}},
 		{"tag ABC-1234 was", []string{"ABC-1234"}},
 		{"plate AB 12345 was", []string{"AB 12345"}}, // AB is no state code
-		{"plate TX 12345 was", []string{"12345"}},    // TX is
+		{"plate TX 12345 was", []string{"TX 12345"}}, // a state code before digits is kept with them
 		{"Lic# 4KJ8822", []string{"4KJ8822"}},
 		{"registration XYZ 1234", []string{"XYZ 1234"}},
 		{"on the tag out board", nil},
@@ -191,6 +192,7 @@ func TestCaseNo(t *testing.T) {
 		{"a Case 1150 bulldozer", nil},
 		{"the Paradise fire incident 10/21/2000, the", nil}, // a date, not a number
 		{"ticket #2105006 for", []string{"2105006"}},
+		{"See supplemental report. 10-98, back in service", nil}, // a radio code after a sentence end
 	})
 }
 

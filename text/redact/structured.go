@@ -150,7 +150,7 @@ func (d *doc) emails(cs []cand) []cand {
 // memory). An optional country code 1 and an extension ("ext. 12", "x12", "#12") may follow.
 var (
 	phoneRe      = regexp.MustCompile(`(?:\+\s?1[ .-]?|\b1[ .-])?(?:\(\s?([2-9][0-9]{2})\s?\)[ .-]?|\b([2-9][0-9]{2})([ .-]?))([2-9][0-9]{2})([ .-]?)([0-9]{4})(?:\s{0,2}(?i:ext\.?|extension|x|#)\s{0,2}[0-9]{1,6})?`)
-	phone7Re     = regexp.MustCompile(`\b[2-9][0-9]{2}[.-][0-9]{4}\b`)
+	phone7Re     = regexp.MustCompile(`\b[2-9][0-9]{2}[.-][0-9]{4}\b(?:\s{0,2}(?i:ext\.?|extension|x|#)\s{0,2}[0-9]{1,6}\b)?`)
 	phoneCueRe   = regexp.MustCompile(`(?i)(?:\b(?:phone|ph|tel|telephone|cell|cellphone|mobile|call|called|calling|callback|cb|contact|number|num|nbr|fax|home|work|reached|text|texted|pager|at)\b|#)[^.\n]*$`)
 	phoneDigitRe = regexp.MustCompile(`^[0-9]+$`)
 )
@@ -171,7 +171,7 @@ func (d *doc) phones(cs []cand) []cand {
 		}
 		cs = append(cs, cand{typ: Phone, start: s, end: e})
 	})
-	d.scan(phone7Re, d.triggers(d.numLen(3)), 0, 9, func(m []int) {
+	d.scan(phone7Re, d.triggers(d.numLen(3)), 0, 24, func(m []int) {
 		s, e := m[0], m[1]
 		if s > 0 && (d.text[s-1] == '-' || d.text[s-1] == '.' || d.text[s-1] == ')') {
 			return
@@ -179,7 +179,7 @@ func (d *doc) phones(cs []cand) []cand {
 		if e < len(d.text)-1 && (d.text[e] == '-' || d.text[e] == '.') && isDigitByte(d.text[e+1]) {
 			return
 		}
-		if !d.cueBefore(s, 24, phoneCueRe) {
+		if d.wordAfter(e) || !d.cueBefore(s, 24, phoneCueRe) {
 			return
 		}
 		cs = append(cs, cand{typ: Phone, start: s, end: e})
@@ -423,6 +423,10 @@ func (d *doc) plates(cs []cand) []cand {
 				return
 			}
 		}
+		// "plate AZ 71305": a state code before digits is part of the plate as written.
+		if letters == 0 && s >= 3 && d.text[s-1] == ' ' && isUpperByte(d.text[s-2]) && isUpperByte(d.text[s-3]) && (s == 3 || !isAlnumByte(d.text[s-4])) {
+			s -= 3
+		}
 		cs = append(cs, cand{typ: Plate, start: s, end: e})
 	})
 	return cs
@@ -450,6 +454,10 @@ func (d *doc) caseNos(cs []cand) []cand {
 		if digits < 4 || dateRe.MatchString(v) {
 			return // too short, or a date ("incident 10/21/2000")
 		}
+		// "See supplemental report. 10-98, back in service": a sentence ends after the cue.
+		if marker == "" && strings.Contains(d.text[m[0]:s], ". ") {
+			return
+		}
 		if marker == "" {
 			if y, err := strconv.Atoi(v); err == nil && len(v) == 4 && y >= 1900 && y <= 2099 {
 				return // "incident 2017" is a year
@@ -460,11 +468,13 @@ func (d *doc) caseNos(cs []cand) []cand {
 			if strings.HasPrefix(cue, "dr") || strings.HasPrefix(cue, "ir") || strings.HasPrefix(cue, "cr") {
 				return
 			}
-			if digits < 5 && !strings.ContainsAny(v, "-/ABCDEFGHIJKLMNOPQRSTUVWXYZabcdefghijklmnopqrstuvwxyz") {
-				return
+			if digits < 5 {
+				return // "Case 1150" is a bulldozer, "10-98" a radio code
 			}
 		}
 		cs = append(cs, cand{typ: CaseNo, start: s, end: e})
 	})
 	return cs
 }
+
+func isUpperByte(b byte) bool { return b >= 'A' && b <= 'Z' }
