@@ -154,7 +154,7 @@ func (r *Redactor) pass(text string) []Span {
 	}
 	// Detectors read a copy in which HTML residue ("&nbsp;", "<br />") is blanked out
 	// byte for byte, so offsets stay those of text.
-	d := &doc{text: htmlView.Replace(text), orig: text, r: r, masks: masks}
+	d := &doc{text: ocrCues(htmlView.Replace(text)), orig: text, r: r, masks: masks}
 	d.tokenize()
 	var cs []cand
 	t := r.opt.Types
@@ -198,6 +198,76 @@ var htmlView = strings.NewReplacer(
 	"&nbsp;", "      ", "&NBSP;", "      ", "&amp;", "&    ", "<br />", "      ", "<br/>", "     ",
 	"<br>", "    ", "<BR>", "    ", "<p>", "   ", "</p>", "    ", "<P>", "   ", "</P>", "    ",
 )
+
+// cueWords are the cue words that ocrCues restores.
+var cueWords = []string{"case", "plate", "registration", "report", "incident", "birth", "phone",
+	"victim", "suspect", "witness", "caller", "identified", "complainant", "driver", "named"}
+
+// ocrCues returns text with each word that is not a dictionary word but differs from a cue
+// word in exactly one letter of the same length ("casc", "platc", "registrati0n") spelled
+// as that cue word: OCR confusions of a cue should not hide what follows it. Offsets are
+// kept.
+func ocrCues(text string) string {
+	listsOnce.Do(loadLists)
+	var b []byte
+	for i := 0; i < len(text); {
+		if !isAlnumByte(text[i]) {
+			i++
+			continue
+		}
+		j := i
+		for j < len(text) && isAlnumByte(text[j]) {
+			j++
+		}
+		if w := text[i:j]; len(w) >= 4 && len(w) <= 12 {
+			if c := ocrCue(w); c != "" {
+				if b == nil {
+					b = []byte(text)
+				}
+				copy(b[i:j], c)
+			}
+		}
+		i = j
+	}
+	if b == nil {
+		return text
+	}
+	return string(b)
+}
+
+func ocrCue(w string) string {
+	var lw [12]byte
+	letters := 0
+	for k := 0; k < len(w); k++ {
+		c := w[k]
+		if c >= 'A' && c <= 'Z' {
+			c += 'a' - 'A'
+		}
+		if c >= 'a' && c <= 'z' {
+			letters++
+		}
+		lw[k] = c
+	}
+	if letters < len(w)-1 {
+		return ""
+	}
+	l := string(lw[:len(w)])
+	for _, c := range cueWords {
+		if len(c) != len(l) || c == l {
+			continue
+		}
+		diff := 0
+		for k := 0; k < len(c) && diff < 2; k++ {
+			if c[k] != l[k] {
+				diff++
+			}
+		}
+		if diff == 1 && !dict[l] {
+			return c
+		}
+	}
+	return ""
+}
 
 // overlapsMask reports whether [s,e) overlaps a placeholder.
 func (d *doc) overlapsMask(s, e int) bool {

@@ -152,8 +152,9 @@ func TestPlate(t *testing.T) {
 		{"plate 7ABC123", []string{"7ABC123"}},
 		{"CA plate 7ABC123", []string{"7ABC123"}},
 		{"tag ABC-1234 was", []string{"ABC-1234"}},
-		{"plate AB 12345 was", []string{"AB 12345"}}, // AB is no state code
-		{"plate TX 12345 was", []string{"TX 12345"}}, // a state code before digits is kept with them
+		{"plate AB 12345 was", []string{"AB 12345"}},           // AB is no state code
+		{"with registrati0n AYH4315 for", []string{"AYH4315"}}, // OCR: 0 for o
+		{"plate TX 12345 was", []string{"TX 12345"}},           // a state code before digits is kept with them
 		{"Lic# 4KJ8822", []string{"4KJ8822"}},
 		{"registration XYZ 1234", []string{"XYZ 1234"}},
 		{"on the tag out board", nil},
@@ -192,7 +193,8 @@ func TestCaseNo(t *testing.T) {
 		{"a Case 1150 bulldozer", nil},
 		{"the Paradise fire incident 10/21/2000, the", nil}, // a date, not a number
 		{"ticket #2105006 for", []string{"2105006"}},
-		{"See supplemental report. 10-98, back in service", nil}, // a radio code after a sentence end
+		{"See supplemental report. 10-98, back in service", nil},  // a radio code after a sentence end
+		{"Report taken, casc #22-001989.", []string{"22-001989"}}, // OCR: "casc" for "case"
 	})
 }
 

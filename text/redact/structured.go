@@ -389,7 +389,7 @@ func (d *doc) ages(cs []cand) []cand {
 // letters and digits with at least one digit, in one or two groups.
 var plateTrig = set("license licence plate plates tag tags registration reg lic lp")
 
-var plateRe = regexp.MustCompile(`(?i)\b(?:license\s+plate|licence\s+plate|plates?|tags?|registration|reg|lic|license|licence|lp)\b\.?(?:\s?(?:#|no\.?|num\.?|nbr\.?|number|:|-|reading|of|was|is|displaying|bearing|showing|state)\s?|\s+(?-i:A[LKZR]|C[AOT]|D[EC]|FL|GA|HI|I[DLNA]|K[SY]|LA|M[EDAINSOT]|N[EVHJMYCD]|O[HKR]|PA|RI|S[CD]|T[NX]|UT|V[TA]|W[AVIY]|PR)\s+)*\s?(?-i:([A-Z0-9]{1,4}(?:[ -][A-Z0-9]{1,5})?|[A-Z0-9]{5,8}))\b`)
+var plateRe = regexp.MustCompile(`(?i)\b(?:license\s+plate|licence\s+plate|plates?|tags?|registration|reg|lic|license|licence|lp)\b\.?(?:\s{0,8}(?:#|no\.?|num\.?|nbr\.?|number|:|-|reading|of|was|is|displaying|bearing|showing|state)\s{0,8}|\s+(?-i:A[LKZR]|C[AOT]|D[EC]|FL|GA|HI|I[DLNA]|K[SY]|LA|M[EDAINSOT]|N[EVHJMYCD]|O[HKR]|PA|RI|S[CD]|T[NX]|UT|V[TA]|W[AVIY]|PR)\s+)*\s{0,8}(?-i:([A-Z0-9]{1,4}(?:[ -][A-Z0-9]{1,5})?|[A-Z0-9]{5,8}))\b`)
 
 func (d *doc) plates(cs []cand) []cand {
 	d.scan(plateRe, d.triggers(d.flagged(fPlate)), 0, 48, func(m []int) {
@@ -438,7 +438,7 @@ var dateRe = regexp.MustCompile(`^(?:[0-9]{1,2}[/-][0-9]{1,2}[/-][0-9]{2,4}|[0-9
 
 var caseTrig = set("case incident inc report rpt file complaint cad event ticket citation warrant docket booking reference ref control ccn dr ir cr rms")
 
-var caseRe = regexp.MustCompile(`(?i)\b(?:case|incident|inc|report|rpt|file|complaint|cad|event|ticket|citation|warrant|docket|booking|reference|ref|control|ccn|dr|ir|cr|rms)\b\.?((?:\s?(?:#|no\.?|num\.?|nbr\.?|number|:)\s?)*)\s?([A-Z]{0,4}-?[0-9]{2,}(?:[-/][0-9A-Z]+)*)\b`)
+var caseRe = regexp.MustCompile(`(?i)\b(?:case|incident|inc|report|rpt|file|complaint|cad|event|ticket|citation|warrant|docket|booking|reference|ref|control|ccn|dr|ir|cr|rms)\b\.?((?:\s{0,8}(?:#|no\.?|num\.?|nbr\.?|number|:)\s{0,8})*)\s{0,8}([A-Z]{0,4}-?[0-9]{2,}(?:[-/][0-9A-Z]+)*)\b`)
 
 func (d *doc) caseNos(cs []cand) []cand {
 	d.scan(caseRe, d.triggers(d.flagged(fCase)), 0, 48, func(m []int) {
