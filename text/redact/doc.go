@@ -25,6 +25,13 @@
 //     when they stand where a name stands. Options.Allow keeps street, business and place
 //     names.
 //
+// Detectors read a copy of the narrative in which HTML residue ("&nbsp;", "<br />") is
+// blanked and a non-word one letter away from a cue word ("casc", "platc", "registrati0n")
+// is spelled as the cue, byte for byte, so offsets always refer to the text as given. Names
+// in capitals ("JOHN QUOSBY") and "LAST, First" forms are handled; the capitalised-word
+// guess is weaker in all-capital narratives, where it needs a known given name or a
+// person's context ("saw", "told").
+//
 // Overlapping finds are resolved by a fixed priority, then length, then position. Names are
 // numbered in order of first appearance within one narrative, and a later mention of a
 // part of a name ("Smith" after "John Smith") gets the same number. Any other occurrence of
@@ -33,6 +40,11 @@
 // nothing new is found, and placeholders are never detected.
 //
 // Redaction misses things. Read Cautions before publishing anything redacted with it.
+//
+// Measured quality (see quality_test.go and the JSON lines it prints with -v): on the
+// generated test set every structured type is found at least 99.5% of the time and listed
+// names always; on the OSHA accident abstracts, which name almost no one, fewer than 0.1
+// redactions per 1,000 tokens are not ages.
 //
 // Word lists: words_en.txt (see testdata/gen_words.py for its sources: the Snowball English
 // sample vocabulary, lower-case words of the SAFENET reports, and a hand-written
