@@ -154,7 +154,11 @@ func (r *Redactor) pass(text string) []Span {
 	}
 	// Detectors read a copy in which HTML residue ("&nbsp;", "<br />") is blanked out
 	// byte for byte, so offsets stay those of text.
-	d := &doc{text: ocrCues(htmlView.Replace(text)), orig: text, r: r, masks: masks}
+	view := text
+	if strings.ContainsAny(view, "&<") {
+		view = htmlView.Replace(view)
+	}
+	d := &doc{text: ocrCues(view), orig: text, r: r, masks: masks}
 	d.tokenize()
 	var cs []cand
 	t := r.opt.Types
@@ -236,6 +240,9 @@ func ocrCues(text string) string {
 }
 
 func ocrCue(w string) string {
+	if len(w) != 4 && len(w) != 5 && len(w) != 6 && len(w) != 7 && len(w) != 8 && len(w) != 10 && len(w) != 11 && len(w) != 12 {
+		return ""
+	}
 	var lw [12]byte
 	letters := 0
 	for k := 0; k < len(w); k++ {

@@ -143,7 +143,7 @@ func (d *doc) addresses(cs []cand) []cand {
 	d.scan(crossRe, cross, 64, 80, sub)
 	// "at Marrowell and Quennel": two bare street names after "at", "near", "to" ...; each must be an
 	// ordinal or a word that is not an ordinary word or a given name.
-	d.scan(atAndRe, d.triggers(func(i int) bool { return d.toks[i].kind == tWord && atAndPreps[d.lower[i]] }), 0, 64, func(m []int) {
+	d.scan(atAndRe, d.triggers(func(i int) bool { return d.toks[i].kind == tWord && atAndPreps[d.lower[i]] && d.pairAhead(i+1) }), 0, 64, func(m []int) {
 		listsOnce.Do(loadLists)
 		for _, g := range [][2]int{{m[4], m[5]}, {m[6], m[7]}} {
 			w := d.text[g[0]:g[1]]
@@ -168,4 +168,21 @@ func (d *doc) addresses(cs []cand) []cand {
 		sub(m)
 	})
 	return cs
+}
+
+// pairAhead reports whether token i starts "Name and" or "4th and" (or "&"): the start of
+// a bare street pair.
+func (d *doc) pairAhead(i int) bool {
+	if i >= len(d.toks) {
+		return false
+	}
+	j := i + 1
+	switch t := d.toks[i]; {
+	case t.kind == tWord && d.text[t.start] >= 'A' && d.text[t.start] <= 'Z':
+	case t.kind == tNum && j < len(d.toks) && d.toks[j].kind == tWord && d.toks[j].start == t.end:
+		j++ // "4th"
+	default:
+		return false
+	}
+	return j < len(d.toks) && (d.lower[j] == "and" || d.isPunct(j, "&"))
 }
