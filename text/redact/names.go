@@ -524,8 +524,9 @@ func (d *doc) heuristicNames(cs []cand) []cand {
 			if idx[0] > 0 && d.toks[idx[0]-1].kind == tWord {
 				prev = strings.ToLower(d.word(idx[0] - 1))
 			}
-			// a single word needs a person's verb after it or a person's context before it.
-			ok = nonDict >= 1 && utf8.RuneCountInString(w) >= 3 && !placePrepsBefore[prev] && !d.quoted(idx[0], idx[0])
+			// a single word needs a person's verb after it or a person's context before it,
+			// and must not be a misspelt common word ("Nieghbors stated").
+			ok = nonDict >= 1 && utf8.RuneCountInString(w) >= 3 && !placePrepsBefore[prev] && !d.quoted(idx[0], idx[0]) && !nearCommonWord(d.lower[idx[0]])
 			verb := next < len(d.toks) && d.toks[next].kind == tWord && strongVerbs[d.lower[next]]
 			// "Hollifax, Carlos told me": LAST, First.
 			if nonDict >= 1 && d.lastFirst(next) && !placePrepsBefore[prev] {
@@ -935,4 +936,48 @@ func (d *doc) lastFirst(j int) bool {
 		return false
 	}
 	return true
+}
+
+// nearCommonWord reports whether lw, of six or more letters, is one edit (a deletion,
+// insertion, substitution or swap of neighbours) away from a dictionary word: a misspelling
+// rather than a name.
+func nearCommonWord(lw string) bool {
+	if len(lw) < 6 || !isASCII(lw) {
+		return false
+	}
+	b := []byte(lw)
+	try := func(s []byte) bool { return dict[string(s)] }
+	buf := make([]byte, 0, len(b)+1)
+	for i := range b {
+		buf = append(append(buf[:0], b[:i]...), b[i+1:]...) // deletion
+		if try(buf) {
+			return true
+		}
+		if i+1 < len(b) {
+			buf = append(buf[:0], b...)
+			buf[i], buf[i+1] = buf[i+1], buf[i] // swap
+			if try(buf) {
+				return true
+			}
+		}
+		for c := byte('a'); c <= 'z'; c++ {
+			if c == b[i] {
+				continue
+			}
+			buf = append(buf[:0], b...)
+			buf[i] = c // substitution
+			if try(buf) {
+				return true
+			}
+		}
+	}
+	for i := 0; i <= len(b); i++ {
+		for c := byte('a'); c <= 'z'; c++ {
+			buf = append(append(append(buf[:0], b[:i]...), c), b[i:]...) // insertion
+			if try(buf) {
+				return true
+			}
+		}
+	}
+	return false
 }

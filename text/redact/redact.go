@@ -207,7 +207,8 @@ var htmlView = strings.NewReplacer(
 var cueWords = []string{"case", "plate", "registration", "report", "incident", "birth", "phone",
 	"victim", "suspect", "witness", "caller", "identified", "complainant", "driver", "named"}
 
-// ocrCues returns text with each word that is not a dictionary word but differs from a cue
+// ocrCues returns text with each word that is not a dictionary word (or is one, before "#")
+// but differs from a cue
 // word in exactly one letter of the same length ("casc", "platc", "registrati0n") spelled
 // as that cue word: OCR confusions of a cue should not hide what follows it. Offsets are
 // kept.
@@ -224,7 +225,7 @@ func ocrCues(text string) string {
 			j++
 		}
 		if w := text[i:j]; len(w) >= 4 && len(w) <= 12 {
-			if c := ocrCue(w); c != "" {
+			if c := ocrCue(w, hashAfter(text, j)); c != "" {
 				if b == nil {
 					b = []byte(text)
 				}
@@ -239,7 +240,17 @@ func ocrCues(text string) string {
 	return string(b)
 }
 
-func ocrCue(w string) string {
+// hashAfter reports whether "#" follows position j, after optional spaces.
+func hashAfter(text string, j int) bool {
+	for j < len(text) && text[j] == ' ' {
+		j++
+	}
+	return j < len(text) && text[j] == '#'
+}
+
+// ocrCue returns the cue word that w (one letter off) stands for, or "". A dictionary word
+// ("ease") counts only when "#" follows it, as in "ease #24-085853".
+func ocrCue(w string, hash bool) string {
 	if len(w) != 4 && len(w) != 5 && len(w) != 6 && len(w) != 7 && len(w) != 8 && len(w) != 10 && len(w) != 11 && len(w) != 12 {
 		return ""
 	}
@@ -269,7 +280,7 @@ func ocrCue(w string) string {
 				diff++
 			}
 		}
-		if diff == 1 && !dict[l] {
+		if diff == 1 && (!dict[l] || hash) {
 			return c
 		}
 	}
