@@ -356,3 +356,40 @@ func TestMergeSpans(t *testing.T) {
 		t.Errorf("numbering after existing placeholders: %q %+v", o, spans)
 	}
 }
+
+// TestWordLists checks the embedded lists load as their headers say (see
+// testdata/gen_words.py and names_en.txt).
+func TestWordLists(t *testing.T) {
+	listsOnce.Do(loadLists)
+	for w, want := range map[string]bool{
+		"employee": true, "forklift": true, "the": true, "neighbors": true, "toyota": true,
+		"quosby": false, "nwachurin": false, "I've": true, "Quosby's": false,
+	} {
+		if got := isDictWord(w); got != want {
+			t.Errorf("isDictWord(%q) = %v", w, got)
+		}
+	}
+	if !givenNames["john"] || !surnames["smith"] || givenNames["smith"] {
+		t.Error("names_en.txt")
+	}
+	if len(dict) < 40000 || len(common) < 5000 {
+		t.Errorf("dictionary sizes %d, %d", len(dict), len(common))
+	}
+	for w, want := range map[string]bool{"nieghbors": true, "neigbors": true, "nwachurin": false, "quosby": false} {
+		if got := nearCommonWord(w); got != want {
+			t.Errorf("nearCommonWord(%q) = %v", w, got)
+		}
+	}
+}
+
+// TestOCRCues: one-letter OCR confusions of cue words are restored for detection only.
+func TestOCRCues(t *testing.T) {
+	for in, want := range map[string]string{
+		"casc #1": "case #1", "ease #2": "case #2", "ease of use": "ease of use",
+		"registrati0n AYH4315": "registration AYH4315", "platc": "plate", "plates": "plates",
+	} {
+		if got := ocrCues(in); got != want {
+			t.Errorf("ocrCues(%q) = %q, want %q", in, got, want)
+		}
+	}
+}
