@@ -309,6 +309,9 @@ func TestTypes(t *testing.T) {
 			t.Errorf("ParseType(%q) = %v, %v", ty.String(), p, ok)
 		}
 	}
+	if ty, ok := ParseType("intersection"); !ok || ty != Address {
+		t.Error("ParseType(intersection)")
+	}
 	var all TypeSet
 	if !all.Has(Name) || !Types(Phone).Has(Phone) || Types(Phone).Has(Name) {
 		t.Error("TypeSet")
