@@ -297,7 +297,7 @@ func (d *doc) matchCue(i int, cue []string) int {
 			if !d.isPunct(j, w) {
 				return -1
 			}
-		} else if d.toks[j].kind != tWord || !strings.EqualFold(d.word(j), w) {
+		} else if d.toks[j].kind != tWord || !(strings.EqualFold(d.word(j), w) || longCuePrefix(d.lower[j], w)) {
 			return -1
 		}
 		j++
@@ -341,7 +341,11 @@ func (d *doc) names(cs []cand) []cand {
 			}
 			continue
 		}
-		for _, cue := range cuesByFirst[lw] {
+		cues := cuesByFirst[lw]
+		if len(lw) >= 8 && cues == nil {
+			cues = cuesByFirst[longCues[lw[:8]]] // "identifiecl as": OCR noise in a long cue
+		}
+		for _, cue := range cues {
 			j := d.matchCue(i, cue)
 			if j < 0 {
 				continue
@@ -980,4 +984,18 @@ func nearCommonWord(lw string) bool {
 		}
 	}
 	return false
+}
+
+// longCues maps the first eight letters of the long cue words to the words.
+var longCues = map[string]string{"identifi": "identified", "complain": "complainant", "register": "registered", "intervie": "interviewed"}
+
+// longCuePrefix reports whether the word lw, of the lower-case cue word w of eight or more
+// letters, shares w's first eight letters and is within two letters of its length: OCR
+// noise at the end of a long cue ("identifiecl").
+func longCuePrefix(lw, w string) bool {
+	if len(w) < 8 || len(lw) < 8 || lw[:8] != w[:8] {
+		return false
+	}
+	d := len(lw) - len(w)
+	return d >= -2 && d <= 2
 }

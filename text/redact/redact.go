@@ -232,12 +232,46 @@ func ocrCues(text string) string {
 				copy(b[i:j], c)
 			}
 		}
+		// a cue split in two by a stray space or a line-end hyphen ("pla te",
+		// "num- ber"): written joined, the gap moved after it.
+		if k, gap := splitGap(text, j); gap > 0 {
+			m := k
+			for m < len(text) && isAlnumByte(text[m]) {
+				m++
+			}
+			if joined := strings.ToLower(text[i:j] + text[k:m]); m > k && splitCues[joined] {
+				if b == nil {
+					b = []byte(text)
+				}
+				copy(b[i:], joined)
+				for p := i + len(joined); p < m; p++ {
+					b[p] = ' '
+				}
+				i = m
+				continue
+			}
+		}
 		i = j
 	}
 	if b == nil {
 		return text
 	}
 	return string(b)
+}
+
+// splitCues are the cue words ocrCues rejoins when split.
+var splitCues = set("case plate registration report incident birth phone victim suspect witness caller identified complainant driver named number stated")
+
+// splitGap returns the start of the next word and the gap's length when text[j:] is a
+// single space, or "-" followed by a space or a line break, before a letter or digit.
+func splitGap(text string, j int) (int, int) {
+	switch {
+	case j+1 < len(text) && text[j] == ' ' && isAlnumByte(text[j+1]):
+		return j + 1, 1
+	case j+2 < len(text) && text[j] == '-' && (text[j+1] == ' ' || text[j+1] == '\n') && isAlnumByte(text[j+2]):
+		return j + 2, 2
+	}
+	return 0, 0
 }
 
 // hashAfter reports whether "#" follows position j, after optional spaces.

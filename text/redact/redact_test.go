@@ -134,7 +134,8 @@ func TestDOBAndAge(t *testing.T) {
 		{"born in 1985", []string{"1985"}},
 		{"on 01/02/1990 the car", nil}, // a date with no cue
 		{"1/2/1990 (DOB)", []string{"1/2/1990"}},
-		{"date of birth&nbsp;07/23/1958.", []string{"07/23/1958"}}, // HTML residue between cue and date
+		{"date of birth&nbsp;07/23/1958.", []string{"07/23/1958"}},  // HTML residue between cue and date
+		{"her clate of birth as 4/22/2004.", []string{"4/22/2004"}}, // OCR: "cl" for "d"
 	})
 	runDet(t, Age, []detCase{
 		{"a 23 y/o male", []string{"23 y/o"}},
@@ -206,6 +207,7 @@ func TestNames(t *testing.T) {
 		{"quillane and QUILLANE and Quilane", "[NAME-1] and [NAME-1] and [NAME-1]"},
 		{"Victim Ann Orvby met Suspect Dell Krelton at Varnell Hardware.", "Victim [NAME-1] met Suspect [NAME-2] at Varnell Hardware."},
 		{"The suspect was identified as Ysa K. Tullwick.", "The suspect was identified as [NAME-1]."},
+		{"the driver, identifiecl as Amanda Quarrison by license.", "the driver, identifiecl as [NAME-1] by license."},
 		{"A bystander saw Corvin Ashvley near the gate.", "A bystander saw [NAME-1] near the gate."},
 		{"SUSPECT JOHN SMITH FLED ON FOOT.", "SUSPECT [NAME-1] FLED ON FOOT."},
 		{"The Honda Civic was parked on the sidewalk.", "The Honda Civic was parked on the sidewalk."},
@@ -390,6 +392,8 @@ func TestOCRCues(t *testing.T) {
 	for in, want := range map[string]string{
 		"casc #1": "case #1", "ease #2": "case #2", "ease of use": "ease of use",
 		"registrati0n AYH4315": "registration AYH4315", "platc": "plate", "plates": "plates",
+		"pla te 2WCB244": "plate  2WCB244", "Case num- ber 25": "Case number   25", "iden tified as": "identified  as",
+		"the plate is": "the plate is",
 	} {
 		if got := ocrCues(in); got != want {
 			t.Errorf("ocrCues(%q) = %q, want %q", in, got, want)

@@ -323,7 +323,7 @@ func (d *doc) vins(cs []cand) []cand {
 const (
 	monthPat = `(?:Jan(?:uary)?|Feb(?:ruary)?|Mar(?:ch)?|Apr(?:il)?|May|June?|July?|Aug(?:ust)?|Sep(?:t(?:ember)?)?|Oct(?:ober)?|Nov(?:ember)?|Dec(?:ember)?)\.?`
 	datePat  = `(?:[0-9]{1,2}[/.-][0-9]{1,2}[/.-](?:[0-9]{4}|[0-9]{2})|[0-9]{4}-[0-9]{1,2}-[0-9]{1,2}|` + monthPat + `\s+[0-9]{1,2}(?:st|nd|rd|th)?,?\s+[0-9]{4}|[0-9]{1,2}(?:st|nd|rd|th)?\s+` + monthPat + `,?\s+[0-9]{4})`
-	dobCue   = `(?:\bd\.?\s?o\.?\s?b\b\.?|\bdate\s+of\s+birth\b|\bbirth\s?date\b|\bbirthday\b|\bborn\b)`
+	dobCue   = `(?:\bd\.?\s?o\.?\s?b\b\.?|\b[a-z]{2,6}\s+of\s+birth\b|\bbirth\s?date\b|\bbirthday\b|\bborn\b)`
 	dobGap   = `[\s:;,(=#-]*(?:(?:on|of|is|was|in|listed|given|as|reported|approx\.?|approximately)[\s:;,(=#-]+){0,3}`
 )
 
@@ -336,7 +336,7 @@ var (
 
 func (d *doc) dobs(cs []cand) []cand {
 	trig := d.triggers(d.flagged(fDOB))
-	d.scan(dobRe, trig, 0, 64, func(m []int) {
+	d.scan(dobRe, trig, 16, 64, func(m []int) {
 		s, e := m[2], m[3]
 		if d.wordAfter(e) {
 			return
