@@ -342,7 +342,7 @@ func (d *doc) names(cs []cand) []cand {
 			continue
 		}
 		cues := cuesByFirst[lw]
-		if len(lw) >= 8 && cues == nil {
+		if len(lw) >= 8 && cues == nil && !dict[lw] {
 			cues = cuesByFirst[longCues[lw[:8]]] // "identifiecl as": OCR noise in a long cue
 		}
 		for _, cue := range cues {
@@ -993,8 +993,8 @@ var longCues = map[string]string{"identifi": "identified", "complain": "complain
 // letters, shares w's first eight letters and is within two letters of its length: OCR
 // noise at the end of a long cue ("identifiecl").
 func longCuePrefix(lw, w string) bool {
-	if len(w) < 8 || len(lw) < 8 || lw[:8] != w[:8] {
-		return false
+	if len(w) < 8 || len(lw) < 8 || lw[:8] != w[:8] || dict[lw] {
+		return false // "complaint" is a word, not a noisy "complainant"
 	}
 	d := len(lw) - len(w)
 	return d >= -2 && d <= 2

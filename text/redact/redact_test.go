@@ -208,6 +208,7 @@ func TestNames(t *testing.T) {
 		{"Victim Ann Orvby met Suspect Dell Krelton at Varnell Hardware.", "Victim [NAME-1] met Suspect [NAME-2] at Varnell Hardware."},
 		{"The suspect was identified as Ysa K. Tullwick.", "The suspect was identified as [NAME-1]."},
 		{"the driver, identifiecl as Amanda Quarrison by license.", "the driver, identifiecl as [NAME-1] by license."},
+		{"Animal complaint, German shepherd at large.", "Animal complaint, German shepherd at large."},
 		{"A bystander saw Corvin Ashvley near the gate.", "A bystander saw [NAME-1] near the gate."},
 		{"SUSPECT JOHN SMITH FLED ON FOOT.", "SUSPECT [NAME-1] FLED ON FOOT."},
 		{"The Honda Civic was parked on the sidewalk.", "The Honda Civic was parked on the sidewalk."},
