@@ -23,9 +23,9 @@
 //     for names of five or more letters), after cues ("Mr.", "named", "victim", "spoke
 //     with" ...), and capitalised words that are not in the embedded English word list
 //     when they stand where a name stands. Options.Allow keeps street, business and place
-//     names. Officers are not a cue: an officer's name is redacted only when another rule
-//     finds it, so list officers in Allow when the report must show them, or in Names
-//     when it must not.
+//     names. Officers' names are redacted like anyone's, after "Officer", "Ofc.", "Sgt.",
+//     "Det.", "Deputy" ..., together with a badge number written after them ("Ofc.
+//     Quosby #4412"); list officers in Allow when the report must show them.
 //
 // Detectors read a copy of the narrative in which HTML residue ("&nbsp;", "<br />") is
 // blanked and a non-word one letter away from a cue word ("casc", "platc", "registrati0n")

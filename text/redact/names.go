@@ -15,18 +15,23 @@ var wordsEN string
 var namesEN string
 
 var (
-	listsOnce    sync.Once
-	dict         map[string]bool // ordinary English words
-	common       map[string]bool // dict words also seen in lower case in modern reports
-	givenNames   map[string]bool
-	surnames     map[string]bool
-	stopNames    map[string]bool // capitalised words that never start or continue a name
-	orgWords     map[string]bool // words that make a capitalised run a business or place
-	orgOnly      map[string]bool // orgWords without the street suffixes
-	titleWords   = map[string]bool{"mr": true, "mrs": true, "ms": true, "miss": true, "mx": true, "dr": true, "mister": true}
-	personVerbs  map[string]bool
-	personBefore = set("told asked saw called met per")
-	strongVerbs  = set("said says stated states told tells reported advised explained admitted denied asked yelled fled")
+	listsOnce  sync.Once
+	dict       map[string]bool // ordinary English words
+	common     map[string]bool // dict words also seen in lower case in modern reports
+	givenNames map[string]bool
+	surnames   map[string]bool
+	stopNames  map[string]bool // capitalised words that never start or continue a name
+	orgWords   map[string]bool // words that make a capitalised run a business or place
+	orgOnly    map[string]bool // orgWords without the street suffixes
+	titleWords = set("mr mrs ms miss mx dr mister " + officerTitles)
+	// officerTitles are ranks and titles of officers: their names are redacted like
+	// anyone's (list them in Options.Allow to keep them), with a badge number after them.
+	officerTitles = "officer ofc ofcr sgt sergeant det detective deputy dep cpl corporal lt lieutenant capt captain trooper tpr"
+	officerTitle  = set(officerTitles)
+	fullTitle     = set("officer sergeant detective deputy corporal lieutenant captain trooper mister miss")
+	personVerbs   map[string]bool
+	personBefore  = set("told asked saw called met per")
+	strongVerbs   = set("said says stated states told tells reported advised explained admitted denied asked yelled fled")
 	// words before a capitalised run that make it a thing, not a person: "a Timberjack
 	// Feller Buncher", "caused by Myocardial Infarction" is kept out by "of"/"as" ...
 	thingBefore      = set("a an the this that these those his her their its our your my each every any some of as using into onto")
@@ -330,12 +335,21 @@ func (d *doc) names(cs []cand) []cand {
 		if titleWords[lw] && !(lw == "dr" && i > 0 && d.toks[i-1].kind != tPunct && (d.toks[i-1].kind == tNum || capitalised(d.word(i-1)) || allUpper(d.word(i-1)) || ordinalRe.MatchString(d.word(i-1)))) {
 			j := i + 1
 			if d.isPunct(j, ".") {
+				if fullTitle[lw] {
+					continue // "the duty officer. During ...": a sentence ends
+				}
 				j++
 			}
 			if end, parts := d.nameSeq(j); len(parts) > 0 {
+				if officerTitle[lw] {
+					if !nameLike(parts) {
+						continue // "Deputy Forest Supervisor", "Officer Trainee": a job title
+					}
+					end = d.badgeAfter(end) // "Ofc. Quosby #4412"
+				}
 				cs = d.addName(cs, j, end, parts)
 				i = end - 1
-			} else if d.capsSurname(j) {
+			} else if d.caps && d.capsSurname(j) {
 				cs = d.addName(cs, j, j+1, []string{d.lower[j]}) // "MS. STONE"
 				i = j
 			}
@@ -496,7 +510,7 @@ func (d *doc) heuristicNames(cs []cand) []cand {
 		if len(idx) >= 2 {
 			// given-name position and surname position must both look like names.
 			fw, lw := d.word(idx[0]), d.word(idx[len(idx)-1])
-			firstOK := givenNames[first] || !isDictWord(fw)
+			firstOK := givenNames[first] || !isDictWord(fw) || givenNames[strings.SplitN(first, "-", 2)[0]] // "Mary-Jane"
 			lastOK := surnames[strings.ToLower(lw)] || !isCommonWord(lw)
 			// a person's context before or a person's verb after vouches for a surname that
 			// is also a dictionary word ("Staff called Tamo Bromley").
@@ -911,7 +925,7 @@ func (d *doc) phoneAhead(i int) bool {
 // roleLabel reports whether a one-word cued name followed by "#" or a number is a role
 // label ("Coworker #1", "Employee 2") rather than a name.
 func (d *doc) roleLabel(end int, parts []string) bool {
-	if len(parts) != 1 || end >= len(d.toks) {
+	if len(parts) != 1 || end >= len(d.toks) || !isCommonWord(parts[0]) {
 		return false
 	}
 	if d.isPunct(end, "#") {
@@ -998,4 +1012,27 @@ func longCuePrefix(lw, w string) bool {
 	}
 	d := len(lw) - len(w)
 	return d >= -2 && d <= 2
+}
+
+// badgeAfter returns the index after a badge number that follows token end-1 ("#4412",
+// "(#4412)", "badge 4412"), or end when there is none.
+func (d *doc) badgeAfter(end int) int {
+	j := end
+	if d.isPunct(j, "(") {
+		j++
+	}
+	if j < len(d.toks) && d.toks[j].kind == tWord && d.lower[j] == "badge" {
+		j++
+	}
+	if d.isPunct(j, "#") {
+		j++
+	}
+	if j > end && j < len(d.toks) && d.toks[j].kind == tNum {
+		j++
+		if d.isPunct(end, "(") && d.isPunct(j, ")") {
+			j++
+		}
+		return j
+	}
+	return end
 }
