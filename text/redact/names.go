@@ -544,7 +544,7 @@ func (d *doc) heuristicNames(cs []cand) []cand {
 			}
 			// a single word needs a person's verb after it or a person's context before it,
 			// and must not be a misspelt common word ("Nieghbors stated").
-			ok = nonDict >= 1 && utf8.RuneCountInString(w) >= 3 && !placePrepsBefore[prev] && !d.quoted(idx[0], idx[0]) && !nearCommonWord(d.lower[idx[0]])
+			ok = nonDict >= 1 && utf8.RuneCountInString(w) >= 3 && !placePrepsBefore[prev] && !d.quoted(idx[0], idx[0])
 			verb := next < len(d.toks) && d.toks[next].kind == tWord && strongVerbs[d.lower[next]]
 			// "Hollifax, Carlos told me": LAST, First.
 			if nonDict >= 1 && d.lastFirst(next) && !placePrepsBefore[prev] {
@@ -553,7 +553,7 @@ func (d *doc) heuristicNames(cs []cand) []cand {
 				i = next + 1
 				continue
 			}
-			ok = ok && (verb || personBefore[prev])
+			ok = ok && (verb || personBefore[prev]) && !nearCommonWord(d.lower[idx[0]])
 		}
 		if ok {
 			cs = d.addName(cs, idx[0], idx[len(idx)-1]+1, parts)
