@@ -826,7 +826,7 @@ func (d *doc) capsNames(cs []cand) []cand {
 			if d.isInitial(j) {
 				j += 2
 			}
-			if j < len(d.toks) && d.capsOdd(i) && d.capsOdd(j) && d.toks[j].nl == 0 && d.personContext(i, j) {
+			if j < len(d.toks) && d.capsOdd(i) && d.capsOdd(j) && d.toks[j].nl == 0 && (d.personContext(i, j) || d.capsPair(i, j)) {
 				cs = d.addName(cs, i, j+1, []string{d.lower[i], d.lower[j]})
 				i = j
 			}
@@ -1035,4 +1035,43 @@ func (d *doc) badgeAfter(end int) int {
 		return j
 	}
 	return end
+}
+
+// technicalEndings are word endings common in technical and medical terms and rare in
+// given names and surnames.
+var technicalEndings = []string{"ion", "ity", "ism", "ide", "ate", "ent", "ant", "ic", "al", "ous", "ive", "ary", "ory", "ine", "ene", "ane", "ose", "ase", "osis", "itis", "emia", "ics", "ure", "ing", "ed", "er", "or", "ers", "ors", "ment", "ness", "able", "ible", "ly"}
+
+// nameShaped reports whether lw ends in none of technicalEndings: in capitals, two such
+// uncommon words side by side are taken as a name ("TAMO QUOSBY").
+func nameShaped(lw string) bool {
+	for _, e := range technicalEndings {
+		if strings.HasSuffix(lw, e) {
+			return false
+		}
+	}
+	return true
+}
+
+// capsPair reports whether capitals words i and j, both uncommon, look like a name without
+// a person's context: both name-shaped, no third such word after them, and no article,
+// preposition or number before them ("THE CRUCIBLE TRAIN", "FROM CARDIAC TAMPONADE").
+func (d *doc) capsPair(i, j int) bool {
+	if !nameShaped(d.lower[i]) || !nameShaped(d.lower[j]) {
+		return false
+	}
+	if j+1 < len(d.toks) && d.toks[j+1].kind == tWord && d.capsOdd(j+1) {
+		return false
+	}
+	if i > 0 {
+		p := d.toks[i-1]
+		if p.kind == tNum {
+			return false
+		}
+		if p.kind == tWord {
+			if w := d.lower[i-1]; thingBefore[w] || placePrepsBefore[w] || w == "by" || w == "with" {
+				return false
+			}
+		}
+	}
+	return true
 }
