@@ -16,11 +16,13 @@ type Options struct {
 	// Names lists people to redact wherever they appear: full names ("Ann Quosby") or single
 	// names. Matching ignores case; each word of five or more letters also matches a word
 	// one edit away (a substitution, insertion, deletion or swap of neighbours). Each part of
-	// a listed full name is also redacted on its own when it is written capitalised.
+	// a listed full name is also redacted on its own when it is written capitalised, except
+	// before a street suffix or a business word ("Hallowmere Cir", "Tarrowby Hardware").
 	Names []string
 	// Allow lists words and phrases that must never be redacted as names, such as street,
 	// business and place names ("Quosby Hardware", "Elm"). Matching ignores case and respects
-	// word boundaries. Allow does not stop a street address from being redacted.
+	// word boundaries. Allow wins over every name rule, listed names included; it does not
+	// stop a street address from being redacted.
 	Allow []string
 	// Types selects the detectors to run. The zero value runs all of them.
 	Types TypeSet
@@ -70,16 +72,18 @@ const maxPasses = 32
 
 // Redact returns text with every detected item replaced by its placeholder, and the
 // replacements in input order. Spans refer to byte offsets in text. The same text always
-// gives the same output, and Redact(out) returns out unchanged.
+// gives the same output, and Redact(out) returns out unchanged: the detectors run again on
+// their own output until they find nothing new, and placeholders already in text are
+// kept (new names are numbered after the highest [NAME-n] present).
 func (r *Redactor) Redact(text string) (out string, spans []Span) {
 	out = text
 	var all []Span // in original coordinates, sorted, non-overlapping
-	for pass := 0; pass < maxPasses; pass++ {
+	for n := 0; n < maxPasses; n++ {
 		found := r.pass(out)
 		if len(found) == 0 {
 			break
 		}
-		if pass == 0 {
+		if n == 0 {
 			all = found
 		} else {
 			all = mergeSpans(all, found, text)
@@ -92,7 +96,6 @@ func (r *Redactor) Redact(text string) (out string, spans []Span) {
 // mergeSpans maps spans found in render(text, prev) back to text and merges them with prev.
 // Spans found in a later pass never overlap a placeholder, so each lies in literal text.
 func mergeSpans(prev, found []Span, text string) []Span {
-	// segment i of the rendered text: literal text between placeholders.
 	out := make([]Span, 0, len(prev)+len(found))
 	out = append(out, prev...)
 	for _, f := range found {
