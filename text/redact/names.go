@@ -609,15 +609,15 @@ func (d *doc) listNames(cs []cand) []cand {
 			continue
 		}
 		// a single word of an entry, written with a capital (or in capitals); a one-word
-		// entry matches in any case. Followed by a street suffix or a business word
+		// entry matches in any case unless it is a dictionary word. Followed by a street suffix or a business word
 		// ("Hallowmere Cir", "Tarrowby Hardware") it names a place, not the person.
 		if n := i + 1; n < len(d.toks) && d.toks[n].kind == tWord && (d.flags[n]&fSuffix != 0 || orgOnly[d.lower[n]]) {
 			continue
 		}
 		for _, h := range hits {
 			ws := d.r.list[h.entry]
-			if len(ws) > 1 && !(capitalised(w) || allUpper(w)) {
-				continue
+			if (len(ws) > 1 || isDictWord(ws[0])) && !(capitalised(w) || allUpper(w)) {
+				continue // a listed "Will" or "Rose" is not the verb or the flower
 			}
 			if l := ws[h.word]; len(l) >= 2 && !stopNames[l] {
 				cs = d.addName(cs, i, i+1, []string{l})

@@ -18,6 +18,7 @@ type Options struct {
 	// one edit away (a substitution, insertion, deletion or swap of neighbours). Each part of
 	// a listed full name is also redacted on its own when it is written capitalised, except
 	// before a street suffix or a business word ("Hallowmere Cir", "Tarrowby Hardware").
+	// A one-word entry that is a dictionary word ("Will", "Rose") matches only when capitalised.
 	Names []string
 	// Allow lists words and phrases that must never be redacted as names, such as street,
 	// business and place names ("Quosby Hardware", "Elm"). Matching ignores case and respects

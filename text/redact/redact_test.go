@@ -327,6 +327,14 @@ func TestTypes(t *testing.T) {
 	}
 }
 
+func TestListedCommonWord(t *testing.T) {
+	r := mustNew(t, Options{Names: []string{"Rose", "Quillane"}})
+	got, _ := r.Redact("Rose said the rose bush and quillane were cut.")
+	if want := "[NAME-1] said the rose bush and [NAME-2] were cut."; got != want {
+		t.Errorf("got %q, want %q", got, want)
+	}
+}
+
 func TestAllowAndTypes(t *testing.T) {
 	r := mustNew(t, Options{Allow: []string{"Ostrander", "Pell Creek Market"}})
 	in := "Caller Tamo Quosby said Ostrander was closed; staff at Pell Creek Market saw Quosby. Call 555-555-0142."
