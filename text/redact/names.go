@@ -146,6 +146,9 @@ func isCommonWord(w string) bool {
 // baseWord lower-cases w and removes a possessive or a contraction ("Quosby's" → "quosby",
 // "I've" → "i"), so that contractions are found in the dictionary.
 func baseWord(w string) string {
+	if !strings.ContainsAny(w, "'’") {
+		return strings.ToLower(w)
+	}
 	lw := strings.ReplaceAll(strings.ToLower(w), "’", "'")
 	for _, suf := range []string{"'s", "'ve", "'d", "'re", "'ll", "'m", "n't"} {
 		if strings.HasSuffix(lw, suf) && len(lw) > len(suf) {

@@ -292,33 +292,24 @@ func ocrCue(w string, hash bool) string {
 	if len(w) != 4 && len(w) != 5 && len(w) != 6 && len(w) != 7 && len(w) != 8 && len(w) != 10 && len(w) != 11 && len(w) != 12 {
 		return ""
 	}
-	var lw [12]byte
-	letters := 0
-	for k := 0; k < len(w); k++ {
-		c := w[k]
-		if c >= 'A' && c <= 'Z' {
-			c += 'a' - 'A'
-		}
-		if c >= 'a' && c <= 'z' {
-			letters++
-		}
-		lw[k] = c
-	}
-	if letters < len(w)-1 {
-		return ""
-	}
-	l := string(lw[:len(w)])
 	for _, c := range cueWords {
-		if len(c) != len(l) || c == l {
+		if len(c) != len(w) {
 			continue
 		}
-		diff := 0
+		diff, digits := 0, 0
 		for k := 0; k < len(c) && diff < 2; k++ {
-			if c[k] != l[k] {
+			b := w[k]
+			if b >= 'A' && b <= 'Z' {
+				b += 'a' - 'A'
+			}
+			if b >= '0' && b <= '9' {
+				digits++
+			}
+			if c[k] != b {
 				diff++
 			}
 		}
-		if diff == 1 && (!dict[l] || hash) {
+		if diff == 1 && digits <= 1 && (hash || !dict[strings.ToLower(w)]) {
 			return c
 		}
 	}

@@ -87,6 +87,37 @@ func (d *doc) scan(re *regexp.Regexp, trig []int, before, after int, f func(m []
 	}
 }
 
+// scanAt runs re, anchored at each trigger, over [t, t+after) widened forward to
+// whitespace, and calls f with the absolute offsets of a match that starts at t. The small
+// windows let the regexp package use its backtracker instead of its slower NFA for
+// patterns with large alternations (the street suffixes). re must start with \b or match
+// only at a word start; a trigger that continues a word is skipped.
+func (d *doc) scanAt(re *regexp.Regexp, trig []int, after int, f func(m []int)) {
+	text := d.text
+	for _, t := range trig {
+		if d.wordBefore(t) {
+			continue
+		}
+		b := t + after
+		if b > len(text) {
+			b = len(text)
+		}
+		for b < len(text) && !isSpaceByte(text[b]) && b-t < 4*after {
+			b++
+		}
+		m := re.FindStringSubmatchIndex(text[t:b])
+		if m == nil || m[0] != 0 {
+			continue
+		}
+		for i := range m {
+			if m[i] >= 0 {
+				m[i] += t
+			}
+		}
+		f(m)
+	}
+}
+
 func isSpaceByte(b byte) bool {
 	return b == ' ' || b == '\n' || b == '\t' || b == '\r' || b == '\f' || b == '\v'
 }

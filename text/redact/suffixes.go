@@ -122,8 +122,8 @@ func (d *doc) addresses(cs []cand) []cand {
 		return false
 	})
 	add := func(m []int) { cs = append(cs, cand{typ: Address, start: m[0], end: trim(m[0], m[1])}) }
-	d.scan(addressRe, nums, 0, 128, add)
-	d.scan(blockRe, nums, 0, 96, add)
+	d.scanAt(addressRe, nums, 128, add)
+	d.scanAt(blockRe, nums, 96, add)
 	sub := func(m []int) { cs = append(cs, cand{typ: Address, start: m[2], end: trim(m[2], m[3])}) }
 	// an intersection has a suffix word followed by a joining word or sign.
 	cross := d.triggers(func(i int) bool {
