@@ -159,3 +159,19 @@ func BenchmarkSummary100k(b *testing.B) {
 // BenchmarkWardSmall etc.: quick sizes for regressions.
 func BenchmarkWardSmall(b *testing.B)    { benchmarkLink(b, 2000, Ward) }
 func BenchmarkAverageSmall(b *testing.B) { benchmarkLink(b, 2000, Average) }
+
+// BenchmarkOptimalLeafOrder: optimal leaf ordering of Ward's tree on
+// OptimalOrderLimit Dirichlet rows (d = 20), the largest DisplayOrder
+// computes.
+func BenchmarkOptimalLeafOrder(b *testing.B) {
+	x := dirichletRows(OptimalOrderLimit, 20, benchSeed)
+	t, err := LinkVectors(x, nil, Ward, nil)
+	if err != nil {
+		b.Fatal(err)
+	}
+	d := EuclideanCondensed(nil, x, nil)
+	b.ResetTimer()
+	for b.Loop() {
+		t.OptimalLeafOrder(nil, d, nil)
+	}
+}

@@ -8,31 +8,55 @@ import (
 // mstSingle is Müllner's MST algorithm (Prim): grow one tree from point 0,
 // keeping for every point outside it the smallest distance to the tree.
 // Ties go to the lowest index. O(n²) time, O(n) extra memory.
-func mstSingle(dist []float64, n int) *Dendrogram {
+func mstSingle(dist []float64, n int, workers int) *Dendrogram {
+	return prim(n, workers, func(x, i int) float64 { return dist[cidx(n, x, i)] })
+}
+
+// prim runs Prim's algorithm over points 0..n-1 with distances from
+// dist(x, i), which is called once per pair. The scan over the points
+// outside the tree is split over workers; each keeps the smallest value
+// with the lowest index, and the parts are combined in order, so the
+// result does not depend on the split.
+func prim(n, workers int, dist func(x, i int) float64) *Dendrogram {
 	z := make([]Merge, n-1)
-	merged := make([]bool, n)
+	// out lists the points outside the tree, ascending.
+	out := make([]int, n-1)
+	for i := range out {
+		out[i] = i + 1
+	}
 	d := make([]float64, n)
 	for i := range d {
 		d[i] = math.Inf(1)
 	}
-	x, y := 0, 0
+	type best struct {
+		v float64
+		i int
+	}
+	parts := make([]best, max(1, workers))
+	x := 0
 	for k := 0; k < n-1; k++ {
-		cur := math.Inf(1)
-		merged[x] = true
-		for i := 0; i < n; i++ {
-			if merged[i] {
-				continue
+		used := parallelRanges(len(out), workers, minParallel, func(w, lo, hi int) {
+			b := best{math.Inf(1), -1}
+			for _, i := range out[lo:hi] {
+				if v := dist(x, i); d[i] > v {
+					d[i] = v
+				}
+				if d[i] < b.v || b.i < 0 {
+					b = best{d[i], i}
+				}
 			}
-			if v := dist[cidx(n, x, i)]; d[i] > v {
-				d[i] = v
-			}
-			if d[i] < cur {
-				y = i
-				cur = d[i]
+			parts[w] = b
+		})
+		r := parts[0]
+		for w := 1; w < used; w++ {
+			if p := parts[w]; p.i >= 0 && (r.i < 0 || p.v < r.v) {
+				r = p
 			}
 		}
-		z[k] = Merge{A: x, B: y, Height: cur}
-		x = y
+		z[k] = Merge{A: x, B: r.i, Height: r.v}
+		x = r.i
+		j, _ := slices.BinarySearch(out, x)
+		out = slices.Delete(out, j, j+1)
 	}
 	sortAndLabel(z, n)
 	return &Dendrogram{N: n, Merges: z}
@@ -57,6 +81,7 @@ func nnChainCondensed(dist []float64, n int, m Linkage, workers int, own bool) *
 	d := dist
 	if !own {
 		d = make([]float64, len(dist))
+		adviseHuge(d)
 		copy(d, dist)
 	}
 	z := make([]Merge, n-1)
@@ -84,11 +109,22 @@ func nnChainCondensed(dist []float64, n int, m Linkage, workers int, own bool) *
 			}
 			used := parallelRanges(len(act), workers, minParallel, func(w, lo, hi int) {
 				b := b0
-				for _, i := range act[lo:hi] {
+				part := act[lo:hi]
+				mid, _ := slices.BinarySearch(part, x)
+				// Points below x: d(i, x) lies in row i (one read per row).
+				for _, i := range part[:mid] {
+					v := d[n*i-i*(i+1)/2+x-i-1]
+					if v < b.v || (v == b.v && !b.prev && i < b.key) {
+						b = cand{v: v, prev: i == prev, key: i}
+					}
+				}
+				// Points above x: row x, contiguous.
+				base := n*x - x*(x+1)/2 - x - 1 // d(x, i) = d[base+i]
+				for _, i := range part[mid:] {
 					if i == x {
 						continue
 					}
-					v := d[cidx(n, x, i)]
+					v := d[base+i]
 					if v < b.v || (v == b.v && !b.prev && i < b.key) {
 						b = cand{v: v, prev: i == prev, key: i}
 					}
@@ -118,7 +154,19 @@ func nnChainCondensed(dist []float64, n int, m Linkage, workers int, own bool) *
 		ax, _ := slices.BinarySearch(act, x)
 		act = slices.Delete(act, ax, ax+1)
 		parallelRanges(len(act), workers, minParallel, func(_, lo, hi int) {
-			for _, i := range act[lo:hi] {
+			part := act[lo:hi]
+			if m == Average {
+				// update(Average, ...) written out, same operations.
+				for _, i := range part {
+					if i == y {
+						continue
+					}
+					iy := cidx(n, i, y)
+					d[iy] = (float64(nx*d[cidx(n, i, x)]) + float64(ny*d[iy])) / (nx + ny)
+				}
+				return
+			}
+			for _, i := range part {
 				if i == y {
 					continue
 				}
@@ -141,6 +189,7 @@ func genericCondensed(dist []float64, n int, m Linkage, own bool) *Dendrogram {
 	d := dist
 	if !own {
 		d = make([]float64, len(dist))
+		adviseHuge(d)
 		copy(d, dist)
 	}
 	z := make([]Merge, n-1)

@@ -164,7 +164,7 @@ func HeatmapOrder(x [][]float64, seed uint64, s *Settings) ([]int, error) {
 		return nil, err
 	}
 	if n <= OptimalOrderLimit {
-		return t.OptimalLeafOrder(nil, EuclideanCondensed(nil, x, s)), nil
+		return t.OptimalLeafOrder(nil, EuclideanCondensed(nil, x, s), s), nil
 	}
 	return t.Leaves(nil), nil
 }

@@ -81,3 +81,23 @@ func ward16(x *[16]float64, c []float64, d int, w []float64, out []float64, mask
 	}
 	ward16Go(x, c, d, w, out, mask, ww, lim, limwx)
 }
+
+//go:noescape
+func rowDistAVX2(x *float64, c *float64, d int, out []float64)
+
+// rowDist stores in out[k] the Euclidean distance between x and row k of
+// c (stride len(x)), as euclid computes it.
+func rowDist(x, c []float64, out []float64) {
+	d := len(x)
+	if len(out) == 0 {
+		return
+	}
+	if len(out)*d > len(c) {
+		panic("cluster: rowDist out of range")
+	}
+	if haveAVX2 && d >= 8 {
+		rowDistAVX2(&x[0], &c[0], d, out)
+		return
+	}
+	rowDistGo(x, c, out)
+}

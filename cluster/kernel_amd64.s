@@ -264,3 +264,67 @@ qdone:
 qret:
 	VZEROUPPER
 	RET
+
+// func rowDistAVX2(x *float64, c *float64, d int, out []float64)
+// out[k] = sqrt of the squared distance between x and row k of c (stride
+// d), summed exactly as sqdistAVX2 / sqdistGo sum (four lanes, tail into
+// lane 0, then (s0+s1)+(s2+s3)); VSQRTSD is correctly rounded, as
+// math.Sqrt.
+TEXT ·rowDistAVX2(SB), NOSPLIT, $0-48
+	MOVQ x+0(FP), AX
+	MOVQ c+8(FP), SI
+	MOVQ d+16(FP), DX
+	MOVQ out_base+24(FP), DI
+	MOVQ out_len+32(FP), R12
+
+rrow:
+	TESTQ R12, R12
+	JZ    rdone
+	MOVQ  AX, R10
+	MOVQ  SI, R11
+	MOVQ  DX, CX
+	VXORPD Y0, Y0, Y0
+
+rvec:
+	CMPQ CX, $4
+	JLT  rtail
+	VMOVUPD (R10), Y1
+	VMOVUPD (R11), Y2
+	VSUBPD  Y2, Y1, Y1
+	VMULPD  Y1, Y1, Y1
+	VADDPD  Y1, Y0, Y0
+	ADDQ    $32, R10
+	ADDQ    $32, R11
+	SUBQ    $4, CX
+	JMP     rvec
+
+rtail:
+	TESTQ CX, CX
+	JZ    rsum
+	VMOVSD (R10), X1
+	VSUBSD (R11), X1, X1
+	VMULSD X1, X1, X1
+	VADDSD X1, X0, X3
+	VBLENDPD $1, Y3, Y0, Y0
+	ADDQ   $8, R10
+	ADDQ   $8, R11
+	DECQ   CX
+	JMP    rtail
+
+rsum:
+	VEXTRACTF128 $1, Y0, X1
+	VPERMILPD $1, X0, X2
+	VADDSD X2, X0, X2
+	VPERMILPD $1, X1, X3
+	VADDSD X3, X1, X3
+	VADDSD X3, X2, X0
+	VSQRTSD X0, X0, X0
+	VMOVSD X0, (DI)
+	LEAQ  (SI)(DX*8), SI
+	ADDQ  $8, DI
+	DECQ  R12
+	JMP   rrow
+
+rdone:
+	VZEROUPPER
+	RET

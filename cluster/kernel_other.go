@@ -15,3 +15,5 @@ func ward12(x *[12]float64, c []float64, d int, w []float64, out []float64, mask
 func ward16(x *[16]float64, c []float64, d int, w []float64, out []float64, mask []uint64, ww, lim, limwx float64) {
 	ward16Go(x, c, d, w, out, mask, ww, lim, limwx)
 }
+
+func rowDist(x, c []float64, out []float64) { rowDistGo(x, c, out) }

@@ -224,7 +224,7 @@ func link(dist []float64, method Linkage, s *Settings, own bool) (*Dendrogram, e
 	}
 	switch method {
 	case Single:
-		return mstSingle(dist, n), nil
+		return mstSingle(dist, n, s.workers()), nil
 	case Centroid, Median:
 		return genericCondensed(dist, n, method, own), nil
 	default:

@@ -10,11 +10,11 @@ const OptimalOrderLimit = 2000
 // t.N ≤ OptimalOrderLimit, the plain dendrogram order (Leaves) otherwise.
 // dist is the condensed distance matrix the tree was built from; it is
 // only read when the optimal order is computed and may then not be nil.
-func (t *Dendrogram) DisplayOrder(dist []float64) []int {
+func (t *Dendrogram) DisplayOrder(dist []float64, s *Settings) []int {
 	if t.N > OptimalOrderLimit || dist == nil {
 		return t.Leaves(nil)
 	}
-	return t.OptimalLeafOrder(nil, dist)
+	return t.OptimalLeafOrder(nil, dist, s)
 }
 
 // AdjacentCost returns the sum of dist between neighbouring leaves in
@@ -33,7 +33,10 @@ func AdjacentCost(order []int, dist []float64) float64 {
 // orders obtained by flipping merges of t (Bar-Joseph, Gifford & Jaakkola
 // 2001, "Fast optimal leaf ordering for hierarchical clustering",
 // Bioinformatics 17 suppl. 1: S22–S29), and returns it. dist is the
-// condensed distance matrix (length N(N-1)/2), not modified.
+// condensed distance matrix (length N(N-1)/2), not modified. The leaves
+// of each merge's left side are split over Settings.Workers goroutines (s
+// may be nil); every cell is computed independently, so the result does
+// not depend on the number.
 //
 // The dynamic programme keeps, for every pair of leaves i, j with lowest
 // common ancestor v, the cost M(i, j) of the best order of v's leaves that
@@ -47,7 +50,7 @@ func AdjacentCost(order []int, dist []float64) float64 {
 // dendrogram order, so the result is deterministic; when several orders
 // are optimal it may differ from scipy's optimal_leaf_ordering, with the
 // same cost.
-func (t *Dendrogram) OptimalLeafOrder(dst []int, dist []float64) []int {
+func (t *Dendrogram) OptimalLeafOrder(dst []int, dist []float64, s *Settings) []int {
 	t.check()
 	n := t.N
 	if len(dist) != CondensedLen(n) {
@@ -84,32 +87,51 @@ func (t *Dendrogram) OptimalLeafOrder(dst []int, dist []float64) []int {
 		}
 		return lo[a], hi[a]
 	}
-	tmp := make([]float64, n)
+	workers := s.workers()
+	tmps := make([][]float64, workers)
+	for k := range tmps {
+		tmps[k] = make([]float64, n)
+	}
 	for idx := range t.Merges {
 		c := n + idx
 		l, r := child(c)
-		for i := lo[l]; i < hi[l]; i++ {
-			k0, k1 := other(l, i)
-			for m := lo[r]; m < hi[r]; m++ {
-				best := math.Inf(1)
-				for k := k0; k < k1; k++ {
-					if v := M[i*n+k] + D[k*n+m]; v < best {
-						best = v
-					}
-				}
-				tmp[m] = best
-			}
-			for j := lo[r]; j < hi[r]; j++ {
-				m0, m1 := other(r, j)
-				best := math.Inf(1)
-				for m := m0; m < m1; m++ {
-					if v := tmp[m] + M[m*n+j]; v < best {
-						best = v
-					}
-				}
-				M[i*n+j], M[j*n+i] = best, best
-			}
+		work := (hi[l] - lo[l]) * (hi[r] - lo[r]) * (hi[c] - lo[c])
+		w := workers
+		if work < 1<<16 {
+			w = 1
 		}
+		parallelRanges(hi[l]-lo[l], w, 1, func(wk, a, b int) {
+			tmp := tmps[wk]
+			for i := lo[l] + a; i < lo[l]+b; i++ {
+				// tmp[m] = min over k of M(i,k) + d(k,m), for m in r;
+				// rows of D and M are read contiguously (M is symmetric).
+				k0, k1 := other(l, i)
+				row := tmp[lo[r]:hi[r]]
+				for q := range row {
+					row[q] = math.Inf(1)
+				}
+				for k := k0; k < k1; k++ {
+					a := M[i*n+k]
+					dk := D[k*n+lo[r] : k*n+hi[r]]
+					for q, v := range dk {
+						if sum := a + v; sum < row[q] {
+							row[q] = sum
+						}
+					}
+				}
+				for j := lo[r]; j < hi[r]; j++ {
+					m0, m1 := other(r, j)
+					best := math.Inf(1)
+					mj := M[j*n+m0 : j*n+m1]
+					for q, v := range mj {
+						if sum := tmp[m0+q] + v; sum < best {
+							best = sum
+						}
+					}
+					M[i*n+j], M[j*n+i] = best, best
+				}
+			}
+		})
 	}
 	root := 2*n - 2
 	l, r := child(root)

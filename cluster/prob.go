@@ -119,7 +119,7 @@ func NewThemeTree(phi [][]float64, dist func(p, q []float64) float64, s *Setting
 	if err != nil {
 		return nil, err
 	}
-	return &ThemeTree{Tree: t, Dist: d, Order: t.DisplayOrder(d)}, nil
+	return &ThemeTree{Tree: t, Dist: d, Order: t.DisplayOrder(d, s)}, nil
 }
 
 // Suggestions returns the groups of two or more themes that the cut at

@@ -44,7 +44,7 @@ type Summary struct {
 	Centroids [][]float64 // micro-cluster centroids (non-empty ones only)
 	Weights   []float64   // total weight of each micro-cluster
 	Assign    []int       // micro-cluster of every row
-	Tree      *Dendrogram // exact weighted Ward over the centroids
+	Tree      *Dendrogram // exact weighted Ward over the centroids; leaves are micro-clusters (Merge.Size counts them)
 }
 
 // Summarize groups the rows of x (optionally weighted; nil weights are
@@ -122,7 +122,7 @@ func (s *Summary) CutCount(dst []int, k int) []int {
 }
 
 // CutHeight labels the rows by the cut of the micro-cluster tree at height
-// h (see Dendrogram.CutHeight). Labels follow the micro-clusters' order.
+// h (see Dendrogram.CutHeight). Labels are 0, 1, ... by first row.
 func (s *Summary) CutHeight(dst []int, h float64) []int {
 	return s.mapLabels(dst, s.Tree.CutHeight(nil, h))
 }

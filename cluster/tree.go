@@ -16,6 +16,9 @@ func (t *Dendrogram) check() {
 // where order is the dendrogram's leaf order (A before B).
 func (t *Dendrogram) members() (order []int, lo, hi []int) {
 	n := t.N
+	if n == 0 {
+		return nil, nil, nil
+	}
 	order = t.Leaves(nil)
 	lo = make([]int, 2*n-1)
 	hi = make([]int, 2*n-1)
@@ -142,6 +145,9 @@ func (t *Dendrogram) labelsFor(dst []int, keep func(i int) bool) []int {
 		dst = make([]int, n)
 	} else if len(dst) != n {
 		panic("cluster: len(dst) != N")
+	}
+	if n == 0 {
+		return dst
 	}
 	parent := make([]int, 2*n-1)
 	for i := range parent {

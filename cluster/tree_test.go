@@ -70,7 +70,7 @@ func TestTreeScipy(t *testing.T) {
 			}
 		}
 		if c.OLO != nil {
-			got := tree.OptimalLeafOrder(nil, y)
+			got := tree.OptimalLeafOrder(nil, y, &Settings{Workers: 3})
 			rev := slices.Clone(c.OLO)
 			slices.Reverse(rev)
 			if !validOrder(tree, got) {
@@ -142,4 +142,15 @@ func bruteOrderCost(t *Dendrogram, dist []float64) float64 {
 		best = min(best, AdjacentCost(f.Leaves(nil), dist))
 	}
 	return best
+}
+
+// TestTinyTrees: trees of zero and one leaf have empty results, no panics.
+func TestTinyTrees(t *testing.T) {
+	for _, n := range []int{0, 1} {
+		d := &Dendrogram{N: n}
+		if len(d.Leaves(nil)) != n || len(d.Cophenetic(nil)) != 0 || len(d.CutHeight(nil, 1)) != n ||
+			len(d.CutCount(nil, 1)) != n || len(d.OptimalLeafOrder(nil, nil, nil)) != n {
+			t.Errorf("n=%d: wrong lengths", n)
+		}
+	}
 }

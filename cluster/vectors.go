@@ -75,8 +75,9 @@ func flatten(x [][]float64, weights []float64) (flat []float64, w []float64, d i
 // distances computed from centroids and weights on the fly (squared Ward
 // distance 2·wA·wB/(wA+wB)·‖a−b‖², compared without square roots and
 // pruned by partial sums over the first coordinates); Centroid and
-// Median run the generic algorithm. Single, Complete, Average and
-// Weighted compute the condensed Euclidean matrix (n(n-1)/2 values, the
+// Median run the generic algorithm. Single runs the MST algorithm with
+// distances computed on the fly, also in O(n·d) memory. Complete, Average
+// and Weighted compute the condensed Euclidean matrix (n(n-1)/2 values, the
 // only copy: it is then used as Link's working matrix). Distance computations are split over Settings.Workers
 // goroutines and reduced in a fixed order with an associative tie rule,
 // so results do not depend on the number of workers.
@@ -99,6 +100,13 @@ func LinkVectors(x [][]float64, weights []float64, method Linkage, s *Settings) 
 		return wardVectors(flat, w, n, d, s.workers()), nil
 	case Centroid, Median:
 		return genericVectors(flat, w, n, d, method, s.workers()), nil
+	case Single:
+		if weights != nil {
+			panic("cluster: weights need Ward, Centroid or Median linkage")
+		}
+		return prim(n, s.workers(), func(a, b int) float64 {
+			return euclid(flat[a*d:a*d+d], flat[b*d:b*d+d])
+		}), nil
 	}
 	if weights != nil {
 		panic("cluster: weights need Ward, Centroid or Median linkage")
@@ -111,16 +119,37 @@ func LinkVectors(x [][]float64, weights []float64, method Linkage, s *Settings) 
 // nil a new slice is made; otherwise it must have length CondensedLen(n).
 // Rows are split over Settings.Workers goroutines.
 func EuclideanCondensed(dst []float64, x [][]float64, s *Settings) []float64 {
-	return PairwiseCondensed(dst, x, euclid, s)
+	n := len(x)
+	if n == 0 {
+		return PairwiseCondensed(dst, x, euclid, s)
+	}
+	d := len(x[0])
+	flat := make([]float64, n*d)
+	for i, r := range x {
+		if len(r) != d {
+			panic("cluster: rows of x differ in length")
+		}
+		copy(flat[i*d:], r)
+	}
+	return pairwise(dst, n, s, func(i int, out []float64) {
+		rowDist(flat[i*d:i*d+d], flat[(i+1)*d:], out)
+	})
 }
 
-func euclid(a, b []float64) float64 {
-	var s float64
-	for k := range a {
-		t := a[k] - b[k]
-		s += t * t
+// rowDistGo is the portable rowDist.
+func rowDistGo(x, c []float64, out []float64) {
+	d := len(x)
+	for k := range out {
+		out[k] = euclid(x, c[k*d:k*d+d])
 	}
-	return math.Sqrt(s)
+}
+
+// euclid is the Euclidean distance, summed in four lanes as sqdist.
+func euclid(a, b []float64) float64 {
+	if len(a) != len(b) {
+		panic("cluster: slice lengths do not match")
+	}
+	return math.Sqrt(sqdist(a, b))
 }
 
 // PairwiseCondensed stores dist(x[i], x[j]) for all i < j in dst
@@ -128,10 +157,21 @@ func euclid(a, b []float64) float64 {
 // concurrent use. Rows are split over Settings.Workers goroutines; each
 // value is computed independently, so the result does not depend on it.
 func PairwiseCondensed(dst []float64, x [][]float64, dist func(a, b []float64) float64, s *Settings) []float64 {
-	n := len(x)
+	return pairwise(dst, len(x), s, func(i int, out []float64) {
+		for k := range out {
+			out[k] = dist(x[i], x[i+1+k])
+		}
+	})
+}
+
+// pairwise fills the condensed matrix row by row: row(i, out) stores
+// d(i, j) for j = i+1..n-1 in out. Rows are split over workers in ranges
+// of about equal numbers of values.
+func pairwise(dst []float64, n int, s *Settings, row func(i int, out []float64)) []float64 {
 	m := CondensedLen(n)
 	if dst == nil {
 		dst = make([]float64, m)
+		adviseHuge(dst)
 	} else if len(dst) != m {
 		panic("cluster: len(dst) != n(n-1)/2")
 	}
@@ -139,13 +179,12 @@ func PairwiseCondensed(dst []float64, x [][]float64, dist func(a, b []float64) f
 	if nw > n {
 		nw = n
 	}
-	// Balanced row ranges: row i holds n-1-i values.
 	var wg sync.WaitGroup
 	lo := 0
 	for k := 0; k < nw; k++ {
 		target := (m * (k + 1)) / nw
 		hi := lo
-		for hi < n && CondensedLen(n)-CondensedLen(n-hi) < target {
+		for hi < n && m-CondensedLen(n-hi) < target {
 			hi++
 		}
 		if k == nw-1 {
@@ -155,10 +194,8 @@ func PairwiseCondensed(dst []float64, x [][]float64, dist func(a, b []float64) f
 		go func(lo, hi int) {
 			defer wg.Done()
 			for i := lo; i < hi; i++ {
-				base := cidx(n, i, i+1) - (i + 1)
-				for j := i + 1; j < n; j++ {
-					dst[base+j] = dist(x[i], x[j])
-				}
+				start := m - CondensedLen(n-i) // index of d(i, i+1)
+				row(i, dst[start:start+n-1-i])
 			}
 		}(lo, hi)
 		lo = hi
@@ -250,7 +287,7 @@ func wardVectors(cent, w []float64, n, d, workers int) *Dendrogram {
 	last := -1                 // key of the cluster merged last
 	head := d                  // coordinates summed before the pruning test
 	switch {
-	case d >= headSplit:
+	case d >= 20:
 		head = 16
 	case d >= 16:
 		head = 12
@@ -588,7 +625,3 @@ func wardValue(a, b []float64, wa, wb float64, head int) float64 {
 	}
 	return 2 * wa * wb / (wa + wb) * s
 }
-
-// headSplit is the least d for the sixteen-coordinate stage (a variable
-// for measurements).
-var headSplit = 20

@@ -3,6 +3,7 @@ package cluster
 import (
 	"math/rand/v2"
 	"reflect"
+	"runtime"
 	"testing"
 )
 
@@ -13,6 +14,8 @@ import (
 // (1e-9 relative) rather than bit for bit; pairs and sizes are identical,
 // including the grid whose heights tie up to a 1e-9 jitter.
 func TestLinkVectorsScipy(t *testing.T) {
+	defer func(v int) { minParallel = v }(minParallel)
+	minParallel = 4
 	for _, c := range loadScipy(t) {
 		if c.Vectors == nil {
 			continue
@@ -47,7 +50,7 @@ func TestWard1D(t *testing.T) {
 }
 
 // TestWeightedWardExact checks that a point of weight w behaves as w
-// coincident points: duplicating rows gives the same heights as weights
+// coincident points, for Ward and Centroid: duplicating rows gives the same heights as weights
 // (the merges of the duplicates, at height 0, come first and are dropped).
 // Source: the definition of Ward's criterion (common practice).
 func TestWeightedWardExact(t *testing.T) {
@@ -63,26 +66,28 @@ func TestWeightedWardExact(t *testing.T) {
 			dup = append(dup, p)
 		}
 	}
-	a, err := LinkVectors(x, w, Ward, nil)
-	if err != nil {
-		t.Fatal(err)
-	}
-	b, err := LinkVectors(dup, nil, Ward, nil)
-	if err != nil {
-		t.Fatal(err)
-	}
-	var hb []float64
-	for _, m := range b.Merges {
-		if m.Height > 1e-9 {
-			hb = append(hb, m.Height)
+	for _, m := range []Linkage{Ward, Centroid} {
+		a, err := LinkVectors(x, w, m, nil)
+		if err != nil {
+			t.Fatal(err)
 		}
-	}
-	if len(hb) != len(a.Merges) {
-		t.Fatalf("%d positive heights with duplicates, %d merges with weights", len(hb), len(a.Merges))
-	}
-	for i, m := range a.Merges {
-		if !relClose(m.Height, hb[i], 1e-9) {
-			t.Errorf("merge %d: weighted %v, duplicated %v", i, m.Height, hb[i])
+		b, err := LinkVectors(dup, nil, m, nil)
+		if err != nil {
+			t.Fatal(err)
+		}
+		var hb []float64
+		for _, mg := range b.Merges {
+			if mg.Height > 1e-9 {
+				hb = append(hb, mg.Height)
+			}
+		}
+		if len(hb) != len(a.Merges) {
+			t.Fatalf("%v: %d positive heights with duplicates, %d merges with weights", m, len(hb), len(a.Merges))
+		}
+		for i, mg := range a.Merges {
+			if !relClose(mg.Height, hb[i], 1e-9) {
+				t.Errorf("%v merge %d: weighted %v, duplicated %v", m, i, mg.Height, hb[i])
+			}
 		}
 	}
 }
@@ -140,5 +145,36 @@ func TestLinkVectorsTiesPartitions(t *testing.T) {
 				t.Errorf("%v: partition at height %v: %v, scipy %v", m, h, a, b)
 			}
 		}
+	}
+}
+
+// TestGOMAXPROCS: with default Settings the results are byte-identical at
+// GOMAXPROCS 1 and 2 (project rule), for the vector, matrix, summary and
+// ordering code.
+func TestGOMAXPROCS(t *testing.T) {
+	defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(0))
+	defer func(v int) { minParallel = v }(minParallel)
+	minParallel = 16
+	x := dirichletRows(2500, 20, 12)
+	run := func() []any {
+		var out []any
+		for _, m := range []Linkage{Ward, Centroid, Single} {
+			d, err := LinkVectors(x, nil, m, nil)
+			if err != nil {
+				t.Fatal(err)
+			}
+			out = append(out, d)
+		}
+		d, _ := LinkVectors(x[:800], nil, Average, nil)
+		out = append(out, d, d.OptimalLeafOrder(nil, EuclideanCondensed(nil, x[:800], nil), nil))
+		s, _ := Summarize(x, nil, &SummarySettings{K: 100, Seed: 3})
+		return append(out, s)
+	}
+	runtime.GOMAXPROCS(1)
+	a := run()
+	runtime.GOMAXPROCS(2)
+	b := run()
+	if !reflect.DeepEqual(a, b) {
+		t.Error("results differ between GOMAXPROCS 1 and 2")
 	}
 }

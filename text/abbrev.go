@@ -7,6 +7,7 @@ import (
 	"io"
 	"sort"
 	"strings"
+	"sync"
 )
 
 //go:embed abbrev.txt
@@ -70,12 +71,24 @@ func ParseAbbrev(name string, r io.Reader) (map[string]string, error) {
 // ShippedAbbrev returns a copy of the shipped abbreviation table (common practice, written
 // from memory; see abbrev.txt).
 func ShippedAbbrev() map[string]string {
-	m, err := ParseAbbrev("abbrev.txt", strings.NewReader(shippedAbbrev))
-	if err != nil {
-		panic(err) // checked by the tests
+	shippedOnce.Do(func() {
+		m, err := ParseAbbrev("abbrev.txt", strings.NewReader(shippedAbbrev))
+		if err != nil {
+			panic(err) // checked by the tests
+		}
+		shippedTable = m
+	})
+	out := make(map[string]string, len(shippedTable))
+	for k, v := range shippedTable {
+		out[k] = v
 	}
-	return m
+	return out
 }
+
+var (
+	shippedOnce  sync.Once
+	shippedTable map[string]string
+)
 
 // Abbrev expands abbreviations. The zero value expands nothing.
 type Abbrev struct {

@@ -83,8 +83,22 @@ func peakMB() float64 {
 	return 0
 }
 
-func benchBuild(b *testing.B, name string, docs []string) {
+// coreSettings keep only the steps the scikit-learn baseline has (tokenize, stopwords, stem,
+// count, prune): no abbreviations, repair, phrases or routine detection.
+func coreSettings() Settings {
 	s := DefaultSettings()
+	s.Abbrev.NoShipped = true
+	s.Repair.Enabled = false
+	s.Phrases.Enabled = false
+	s.Routine = RoutineSettings{}
+	return s
+}
+
+func benchBuild(b *testing.B, name string, docs []string) {
+	benchBuildWith(b, name, docs, DefaultSettings())
+}
+
+func benchBuildWith(b *testing.B, name string, docs []string, s Settings) {
 	n := totalBytes(docs)
 	b.SetBytes(n)
 	b.ReportAllocs()
@@ -127,10 +141,22 @@ func BenchmarkPipeline1M(b *testing.B) {
 }
 
 // BenchmarkPipeline runs Build (the whole corpus pipeline) on the OSHA abstracts and on a
-// generated corpus; MB/s is raw narrative bytes per second.
+// generated corpus of 100,000 narratives, each also with only the steps the scikit-learn
+// baseline has ("-core"); MB/s is raw narrative bytes per second. With
+// UNDERCURRENT_BENCH_JSON set it also prints one JSON line per run (the last line of each
+// corpus is the measured one):
+//
+//	UNDERCURRENT_BENCH_JSON=1 go test ./text -run XXX -bench 'Pipeline$' -benchtime 3x | grep '^{'
+//
+// The scikit-learn baseline on the same text: testdata/bench_sklearn.py (the generated corpus
+// is written by TestWriteGeneratedCorpus).
 func BenchmarkPipeline(b *testing.B) {
 	b.Run("osha", func(b *testing.B) { benchBuild(b, "osha", loadOSHA(b, 0)) })
 	b.Run("generated-100k", func(b *testing.B) { benchBuild(b, "generated-100k", genCorpus(100000, 1)) })
+	b.Run("osha-core", func(b *testing.B) { benchBuildWith(b, "osha-core", loadOSHA(b, 0), coreSettings()) })
+	b.Run("generated-100k-core", func(b *testing.B) {
+		benchBuildWith(b, "generated-100k-core", genCorpus(100000, 1), coreSettings())
+	})
 }
 
 // BenchmarkTransform streams narratives one at a time through a Frozen pipeline.
@@ -178,4 +204,21 @@ func TestWriteGeneratedCorpus(t *testing.T) {
 	if err := f.Close(); err != nil {
 		t.Fatal(err)
 	}
+}
+
+// BenchmarkScan measures the tokenizer alone (normalisation and scanning, no interning) on
+// the generated corpus.
+func BenchmarkScan(b *testing.B) {
+	docs := genCorpus(20000, 1)
+	n := totalBytes(docs)
+	b.SetBytes(n)
+	var sc scanner
+	b.ResetTimer()
+	cpu0 := cpuSeconds()
+	for i := 0; i < b.N; i++ {
+		for _, d := range docs {
+			sc.scan(d, false)
+		}
+	}
+	b.ReportMetric(float64(n)*float64(b.N)/1e6/(cpuSeconds()-cpu0), "MB/cpu-s")
 }

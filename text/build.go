@@ -6,6 +6,7 @@ import (
 	"io"
 	"sort"
 	"strings"
+	"sync/atomic"
 	"unicode"
 	"unicode/utf8"
 
@@ -146,6 +147,10 @@ func lettersOnly(s string, ocrDigits bool) bool {
 	return letter
 }
 
+// maxRepairLen: longer words (code blobs, glued text) are never repaired; the edit distance
+// is quadratic in the length.
+const maxRepairLen = 40
+
 // Build runs the whole pipeline over a corpus: tokenize (Analyze's rules), rejoin split words
 // and repair OCR noise (corpus frequencies), expand abbreviations, remove stopwords, stem,
 // find phrases, prune the vocabulary, count, and set routine narratives aside. It returns the
@@ -184,7 +189,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		off    []int
 		tokens int
 	}
-	const chunkDocs = 1024
+	const chunkDocs = 2048
 	nChunks := (len(docs) + chunkDocs - 1) / chunkDocs
 	scanners := make([]scanner, workers())
 	wave := 4 * workers()
@@ -294,7 +299,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		user := make(map[string]bool)
 		var targets []string
 		for id := 0; id < nScanned; id++ {
-			if sf := surfs[id]; sf.kind == Word && sf.count >= fmin && lettersOnly(sf.text, false) {
+			if sf := surfs[id]; sf.kind == Word && sf.count >= fmin && len(sf.text) <= 4*maxRepairLen && lettersOnly(sf.text, false) {
 				targets = append(targets, sf.text)
 			}
 		}
@@ -321,7 +326,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 			if _, ok := lx.abbrev.Lookup(sf.text); ok {
 				continue
 			}
-			if utf8.RuneCountInString(sf.text) < minLen {
+			if n := utf8.RuneCountInString(sf.text); n < minLen || n > maxRepairLen {
 				continue
 			}
 			cand = append(cand, int32(id))
@@ -338,10 +343,41 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 				found[k], costs[k] = tgt, cost
 			}
 		})
+		// A word with an inflection of its own in the corpus ("clump" beside "clumped") is
+		// taken for a real word: OCR seldom makes the same wrong word twice in two forms. An
+		// inflection that is itself repaired to the same family does not count.
+		family := make(map[string][]int)
+		if !s.Stem.Off {
+			for id := 0; id < nScanned; id++ {
+				if sf := surfs[id]; sf.kind == Word && lettersOnly(sf.text, true) {
+					st := lx.stems.stem(sf.text)
+					family[st] = append(family[st], id)
+				}
+			}
+		}
+		candTarget := make(map[int]string, len(cand))
+		for k, id := range cand {
+			if found[k] != "" {
+				candTarget[int(id)] = lx.stems.stem(found[k])
+			}
+		}
 		for k, id := range cand {
 			tgt := found[k]
 			if tgt == "" {
 				continue
+			}
+			if !rs.Families && !s.Stem.Off {
+				real := false
+				tstem := candTarget[int(id)]
+				for _, sib := range family[lx.stems.stem(surfs[id].text)] {
+					if sib != int(id) && candTarget[sib] != tstem {
+						real = true
+						break
+					}
+				}
+				if real {
+					continue
+				}
 			}
 			if n := surfs[id].count; n > rmax {
 				if tid, ok := intern[tgt]; !ok || float64(surfs[tid].count) < ratio*float64(n) {
@@ -356,11 +392,30 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		}
 	}
 	joinOn := rs.Enabled && !rs.NoJoin
-	joinCache := make(map[[2]int32]int32)
-	joinCount := make(map[[2]int32]int)
-	var joinBuf []byte
-	joinable := func(a, b int32) int32 {
-		if a >= int32(nScanned) || b >= int32(nScanned) {
+	// A join a+b needs a frequent word that starts with a and ends with b: mark the surfaces
+	// that are such prefixes and suffixes, so that most pairs are rejected without a lookup.
+	var joinPrefix, joinSuffix []bool
+	if joinOn {
+		joinPrefix, joinSuffix = make([]bool, nScanned), make([]bool, nScanned)
+		for id := 0; id < nScanned; id++ {
+			sf := surfs[id]
+			if sf.kind != Word || sf.count < fmin || len(sf.text) > 2*maxRepairLen || !lettersOnly(sf.text, false) {
+				continue
+			}
+			for k := 1; k < len(sf.text); k++ {
+				if pid, ok := intern[sf.text[:k]]; ok && int(pid) < nScanned {
+					joinPrefix[pid] = true
+				}
+				if sid, ok := intern[sf.text[k:]]; ok && int(sid) < nScanned {
+					joinSuffix[sid] = true
+				}
+			}
+		}
+	}
+	// joinable returns the surface id of a+b when the split-word rule joins them, else -1. It
+	// only reads shared tables; cache and buf belong to the caller's goroutine.
+	joinable := func(a, b int32, cache map[[2]int32]int32, buf *[]byte) int32 {
+		if a >= int32(nScanned) || b >= int32(nScanned) || !joinPrefix[a] || !joinSuffix[b] {
 			return -1
 		}
 		sa, sb := &surfs[a], &surfs[b]
@@ -368,17 +423,17 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 			return -1
 		}
 		k := [2]int32{a, b}
-		if j, ok := joinCache[k]; ok {
+		if j, ok := cache[k]; ok {
 			return j
 		}
 		j := int32(-1)
 		if lettersOnly(sa.text, false) && lettersOnly(sb.text, false) {
-			joinBuf = append(append(joinBuf[:0], sa.text...), sb.text...)
-			if id, ok := intern[string(joinBuf)]; ok && int(id) < nScanned && surfs[id].count >= fmin && surfs[id].kind == Word {
+			*buf = append(append((*buf)[:0], sa.text...), sb.text...)
+			if id, ok := intern[string(*buf)]; ok && int(id) < nScanned && surfs[id].count >= fmin && surfs[id].kind == Word {
 				j = id
 			}
 		}
-		joinCache[k] = j
+		cache[k] = j
 		return j
 	}
 
@@ -434,57 +489,111 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 	}
 	lexWords = nil
 	lexOf := func(id int32) []lexEntry { return lexCache[id] }
-	occ := make([]int, len(surfs))
-	repairCount := make([]int, nScanned)
-	out := make([]int32, 0, len(stream))
-	docOff2 := make([]int, len(docs)+1)
-	for d := range docs {
-		if d&511 == 0 {
-			if err := ctx.Err(); err != nil {
-				return nil, nil, err
-			}
+	// Pass 2 over blocks of narratives in parallel, each block writing its own stem stream and
+	// each worker its own counters; blocks are then joined in order and counters summed.
+	type p2worker struct {
+		occ, repairCount []int
+		joinCount        map[[2]int32]int
+		joinCache        map[[2]int32]int32
+		buf              []byte
+	}
+	p2 := make([]p2worker, workers())
+	for w := range p2 {
+		p2[w] = p2worker{make([]int, len(surfs)), make([]int, nScanned), make(map[[2]int32]int), make(map[[2]int32]int32), nil}
+	}
+	const p2per = 2048
+	type p2block struct {
+		out []int32
+		off []int // per narrative end offsets within out
+	}
+	p2blocks := make([]p2block, (len(docs)+p2per-1)/p2per)
+	var cancelled atomic.Bool
+	parallelFor(len(p2blocks), func(w, blk int) {
+		if ctx.Err() != nil {
+			cancelled.Store(true)
+			return
 		}
-		ss := stream[docOff[d]:docOff[d+1]]
-		start := len(out)
-		brk := func() {
-			if len(out) > start && out[len(out)-1] != -1 {
-				out = append(out, -1)
-			}
-		}
-		for i := 0; i < len(ss); i++ {
-			id := ss[i]
-			if id < 0 {
-				brk()
-				continue
-			}
-			joined := false
-			if joinOn && i+1 < len(ss) && ss[i+1] >= 0 {
-				if j := joinable(id, ss[i+1]); j >= 0 {
-					joinCount[[2]int32{id, ss[i+1]}]++
-					id, joined = j, true
-					i++
+		st := &p2[w]
+		lo, hi := blk*p2per, min((blk+1)*p2per, len(docs))
+		out := make([]int32, 0, docOff[hi]-docOff[lo])
+		off := make([]int, 0, hi-lo)
+		for d := lo; d < hi; d++ {
+			ss := stream[docOff[d]:docOff[d+1]]
+			start := len(out)
+			for i := 0; i < len(ss); i++ {
+				id := ss[i]
+				if id < 0 {
+					if len(out) > start && out[len(out)-1] != -1 {
+						out = append(out, -1)
+					}
+					continue
+				}
+				joined := false
+				if joinOn && i+1 < len(ss) && ss[i+1] >= 0 {
+					if j := joinable(id, ss[i+1], st.joinCache, &st.buf); j >= 0 {
+						st.joinCount[[2]int32{id, ss[i+1]}]++
+						id, joined = j, true
+						i++
+					}
+				}
+				if !joined && int(id) < nScanned && repairTo[id] >= 0 {
+					st.repairCount[id]++
+					id = repairTo[id]
+				}
+				st.occ[id]++
+				le := lexOf(id)
+				if len(le) == 0 {
+					if len(out) > start && out[len(out)-1] != -1 {
+						out = append(out, -1)
+					}
+					continue
+				}
+				for _, e := range le {
+					out = append(out, e.stem)
 				}
 			}
-			if !joined && int(id) < nScanned && repairTo[id] >= 0 {
-				repairCount[id]++
-				id = repairTo[id]
+			if len(out) > start && out[len(out)-1] == -1 {
+				out = out[:len(out)-1]
 			}
-			occ[id]++
-			le := lexOf(id)
-			if len(le) == 0 {
-				brk()
-				continue
-			}
-			for _, e := range le {
-				out = append(out, e.stem)
-			}
+			off = append(off, len(out))
 		}
-		if len(out) > start && out[len(out)-1] == -1 {
-			out = out[:len(out)-1]
-		}
-		docOff2[d+1] = len(out)
+		p2blocks[blk] = p2block{out, off}
+	})
+	if cancelled.Load() {
+		return nil, nil, ctx.Err()
 	}
-	stream = nil
+	stream, docOff = nil, nil // the surface stream is no longer needed: let it go before joining
+	total2 := 0
+	for _, b := range p2blocks {
+		total2 += len(b.out)
+	}
+	out := make([]int32, 0, total2)
+	docOff2 := make([]int, len(docs)+1)
+	for blk, b := range p2blocks {
+		base := len(out)
+		out = append(out, b.out...)
+		for k, e := range b.off {
+			docOff2[blk*p2per+k+1] = base + e
+		}
+		p2blocks[blk] = p2block{}
+	}
+	occ, repairCount := p2[0].occ, p2[0].repairCount
+	joinCount, joinCache := p2[0].joinCount, p2[0].joinCache
+	for _, st := range p2[1:] {
+		for i, v := range st.occ {
+			occ[i] += v
+		}
+		for i, v := range st.repairCount {
+			repairCount[i] += v
+		}
+		for k, v := range st.joinCount {
+			joinCount[k] += v
+		}
+		for k, v := range st.joinCache {
+			joinCache[k] = v
+		}
+	}
+	p2 = nil
 
 	// Display forms of stems: the most frequent word, ties to the smaller (byte order).
 	type sw struct {
@@ -515,6 +624,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 
 	// Phrases.
 	var phrasePairs [][2]string
+	var phraseParts [][3]int32 // phrase id, first, second
 	if s.Phrases.Enabled {
 		// A pair cannot occur more often than its rarer word: pairs with a word seen fewer
 		// than MinCount times are counted in the margins only.
@@ -525,29 +635,52 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 				occur[t]++
 			}
 		}
-		pairCount := make(map[uint64]int, len(stemStr)*4)
-		left, right := make([]int, len(stemStr)), make([]int, len(stemStr))
-		n := 0
-		for d := range docs {
-			for k := docOff2[d]; k+1 < docOff2[d+1]; k++ {
-				a, b := out[k], out[k+1]
-				if a < 0 || b < 0 || stemProt[a] || stemProt[b] {
-					continue
-				}
-				if occur[a] >= minCount && occur[b] >= minCount {
-					pairCount[uint64(a)<<32|uint64(b)]++
-				}
-				left[a]++
-				right[b]++
-				n++
-			}
+		// Counted per worker over blocks of narratives, then summed (sums do not depend on
+		// the split).
+		type pairStats struct {
+			count       *countTable
+			left, right []int
+			n           int
 		}
-		pc := make(map[[2]int32]int, len(pairCount)/4)
-		for k, v := range pairCount {
+		ps := make([]pairStats, workers())
+		for w := range ps {
+			ps[w] = pairStats{newCountTable(len(stemStr)), make([]int, len(stemStr)), make([]int, len(stemStr)), 0}
+		}
+		const per = 2048
+		parallelFor((len(docs)+per-1)/per, func(w, blk int) {
+			st := &ps[w]
+			for d := blk * per; d < min((blk+1)*per, len(docs)); d++ {
+				for k := docOff2[d]; k+1 < docOff2[d+1]; k++ {
+					a, b := out[k], out[k+1]
+					if a < 0 || b < 0 || stemProt[a] || stemProt[b] {
+						continue
+					}
+					if occur[a] >= minCount && occur[b] >= minCount {
+						st.count.add(uint64(a)<<32|uint64(b), 1)
+					}
+					st.left[a]++
+					st.right[b]++
+					st.n++
+				}
+			}
+		})
+		left, right, n := ps[0].left, ps[0].right, ps[0].n
+		pairCount := ps[0].count
+		for _, st := range ps[1:] {
+			for i := range left {
+				left[i] += st.left[i]
+				right[i] += st.right[i]
+			}
+			n += st.n
+			st.count.each(pairCount.add)
+		}
+		ps = nil
+		pc := make(map[[2]int32]int, pairCount.n/4)
+		pairCount.each(func(k uint64, v int) {
 			if v >= minCount {
 				pc[[2]int32{int32(k >> 32), int32(uint32(k))}] = v
 			}
-		}
+		})
 		pairCount = nil
 		sel := phrase.Select(pc, left, right, n, s.Phrases.Settings)
 		phraseID := make(map[uint64]int32, len(sel))
@@ -560,28 +693,39 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 			}
 			disp[id] = disp[p.A] + "_" + disp[p.B]
 			phraseID[uint64(p.A)<<32|uint64(p.B)] = id
+			phraseParts = append(phraseParts, [3]int32{id, p.A, p.B})
 			isLeft[p.A] = true
 			phrasePairs = append(phrasePairs, [2]string{stemStr[p.A], stemStr[p.B]})
 			c.Phrases = append(c.Phrases, PhraseInfo{key, disp[id], p.Count, p.Score})
 		}
 		if len(phraseID) > 0 {
+			// Merge within each narrative's own segment in parallel, then close the gaps.
+			ends := make([]int, len(docs))
+			parallelFor((len(docs)+per-1)/per, func(_, blk int) {
+				for d := blk * per; d < min((blk+1)*per, len(docs)); d++ {
+					a, b := docOff2[d], docOff2[d+1]
+					w := a
+					for k := a; k < b; {
+						if k+1 < b && out[k] >= 0 && out[k+1] >= 0 && isLeft[out[k]] {
+							if p, ok := phraseID[uint64(out[k])<<32|uint64(out[k+1])]; ok {
+								out[w] = p
+								w++
+								k += 2
+								continue
+							}
+						}
+						out[w] = out[k]
+						w++
+						k++
+					}
+					ends[d] = w
+				}
+			})
 			w := 0
 			for d := range docs {
-				a, b := docOff2[d], docOff2[d+1]
+				a := docOff2[d]
 				docOff2[d] = w
-				for k := a; k < b; {
-					if k+1 < b && out[k] >= 0 && out[k+1] >= 0 && isLeft[out[k]] {
-						if p, ok := phraseID[uint64(out[k])<<32|uint64(out[k+1])]; ok {
-							out[w] = p
-							w++
-							k += 2
-							continue
-						}
-					}
-					out[w] = out[k]
-					w++
-					k++
-				}
+				w += copy(out[w:], out[a:ends[d]])
 			}
 			docOff2[len(docs)] = w
 			out = out[:w]
@@ -609,6 +753,9 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		if id, ok := stemID[st]; ok {
 			routineStem[id] = true
 		}
+	}
+	for _, p := range phraseParts {
+		routineStem[p[0]] = routineStem[p[1]] && routineStem[p[2]]
 	}
 	c.Routine = make([]RoutineReason, len(docs))
 	c.DupGroup = make([]int, len(docs))
@@ -708,19 +855,28 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		}
 		c.DocFreq[j] = df[t]
 	}
-	b := sparse.NewBuilder(len(keep))
-	b.Grow(len(docs), len(out)/2)
-	var ids []int32
-	for d := range docs {
-		ids = ids[:0]
-		for _, t := range out[docOff2[d]:docOff2[d+1]] {
-			if t >= 0 && newID[t] >= 0 {
-				ids = append(ids, newID[t])
+	// Rows are built in blocks in parallel and stacked in order.
+	const rowsPer = 4096
+	blocks := make([]*sparse.Matrix, (len(docs)+rowsPer-1)/rowsPer)
+	parallelFor(len(blocks), func(_, blk int) {
+		lo, hi := blk*rowsPer, min((blk+1)*rowsPer, len(docs))
+		b := sparse.NewBuilder(len(keep))
+		b.Grow(hi-lo, (docOff2[hi]-docOff2[lo])/2)
+		var ids []int32
+		for d := lo; d < hi; d++ {
+			ids = ids[:0]
+			for _, t := range out[docOff2[d]:docOff2[d+1]] {
+				if t >= 0 && newID[t] >= 0 {
+					ids = append(ids, newID[t])
+				}
 			}
+			b.AddIDs(ids)
 		}
-		b.AddIDs(ids)
-	}
-	c.Counts = b.Matrix()
+		blocks[blk] = b.Matrix()
+	})
+	c.Counts = sparse.Stack(blocks...)
+	c.Counts.Cols = len(keep)
+	blocks = nil
 
 	// Audit.
 	for id := 0; id < nScanned; id++ {

@@ -91,7 +91,7 @@ func TestSklearnTfidfVectorizer(t *testing.T) {
 // paths (ids in Build, strings in Frozen) implement one pipeline.
 func TestTransformMatchesBuild(t *testing.T) {
 	corpora := map[string][]string{"generated": genCorpus(400, 7)}
-	if _, err := os.Stat(oshaPath); err == nil {
+	if oshaPath != "" {
 		corpora["osha"] = loadOSHA(t, 800)
 	}
 	for name, docs := range corpora {
@@ -128,7 +128,7 @@ func TestTransformMatchesBuild(t *testing.T) {
 // Same input and settings give byte-identical output (RULES: determinism).
 func TestBuildDeterministic(t *testing.T) {
 	docs := genCorpus(3000, 3)
-	if _, err := os.Stat(oshaPath); err == nil {
+	if oshaPath != "" {
 		docs = append(docs, loadOSHA(t, 1500)...)
 	}
 	enc := func(procs int) []byte {
@@ -197,6 +197,11 @@ func TestSettingsJSON(t *testing.T) {
 	s.Tokens.Numbers = "round"
 	if err := s.Validate(); err == nil {
 		t.Error("bad policy accepted")
+	}
+	s = DefaultSettings()
+	s.Routine.Hashes, s.Routine.Bands = 48, 8
+	if err := s.Validate(); err == nil {
+		t.Error("hashes not a power of two accepted")
 	}
 }
 
@@ -390,5 +395,63 @@ func TestBuildDegenerate(t *testing.T) {
 	s.Stop.Lists = []string{"klingon"}
 	if _, _, err := Build(context.Background(), []string{"a"}, s); err == nil {
 		t.Error("unknown stopword list accepted")
+	}
+}
+
+// Transform matches Build under non-default settings too (every switch that changes the
+// token path).
+func TestTransformMatchesBuildVariants(t *testing.T) {
+	docs := genCorpus(300, 17)
+	docs = append(docs, "The driver's veh1cle was on Alder Ct at 10-50 w/ the 0fficer", "vehi cle vehi cle")
+	variants := map[string]func(*Settings){
+		"keep possessive": func(s *Settings) { s.Tokens.KeepPossessive = true },
+		"placeholders": func(s *Settings) {
+			s.Tokens = TokenSettings{Numbers: Placeholder, Times: Placeholder, Dates: Placeholder, Codes: Placeholder}
+		},
+		"no stemming": func(s *Settings) { s.Stem.Off = true },
+		"no shipped abbreviations, user table": func(s *Settings) {
+			s.Abbrev = AbbrevSettings{NoShipped: true, User: map[string]string{"veh": "car", "rp": "caller"}}
+		},
+		"user stopwords and keep": func(s *Settings) {
+			s.Stop.User = []string{"vehicle", "street"}
+			s.Stop.Keep = []string{"the"}
+		},
+		"plain-edit repair": func(s *Settings) { s.Repair.MaxCost, s.Repair.ShortMaxCost = 1, 1 },
+		"no join":           func(s *Settings) { s.Repair.NoJoin = true },
+		"tight vocabulary":  func(s *Settings) { s.Vocab = weight.Pruning{MinDocs: 3, MaxDocShare: 0.5, MaxTerms: 40} },
+	}
+	for name, mod := range variants {
+		s := DefaultSettings()
+		mod(&s)
+		c, f := build(t, docs, s)
+		for i, d := range docs {
+			got := map[int32]float64{}
+			for _, id := range f.Transform(d).Terms {
+				got[id]++
+			}
+			cols, vals := c.Counts.Row(i)
+			want := map[int32]float64{}
+			for k, col := range cols {
+				want[col] = vals[k]
+			}
+			if !reflect.DeepEqual(got, want) {
+				t.Fatalf("%s, doc %d: Transform %v, Build %v", name, i, got, want)
+			}
+		}
+		if name == "tight vocabulary" && len(c.Vocab) > 40 {
+			t.Errorf("MaxTerms: %d terms", len(c.Vocab))
+		}
+	}
+}
+
+// A huge glued token (a pasted blob) neither slows repair down nor breaks the build.
+func TestHugeToken(t *testing.T) {
+	docs := genCorpus(50, 3)
+	for i := 0; i < 12; i++ { // frequent, so it is a repair and join target too
+		docs = append(docs, strings.Repeat("abcdefghij", 20000))
+	}
+	c, _ := build(t, docs, DefaultSettings())
+	if c.Counts.Rows != len(docs) {
+		t.Fatal("rows")
 	}
 }

@@ -95,6 +95,11 @@ func (f *Frozen) Prepare() error {
 		}
 		f.routine[st] = true
 	}
+	for _, p := range f.Phrases {
+		if f.routine[p[0]] && f.routine[p[1]] {
+			f.routine[p[0]+"_"+p[1]] = true // a phrase of routine words is routine
+		}
+	}
 	f.prepared = true
 	return nil
 }

@@ -67,3 +67,75 @@ func (t *internTable) grow() {
 		t.slots[i] = s
 	}
 }
+
+// countTable counts uint64 keys: open addressing, linear probing, load at most 1/2, grown by
+// doubling. It replaces a map[uint64]int in the pair-counting loop, where a map's generality
+// costs about half the time.
+type countTable struct {
+	slots []cslot
+	n     int
+}
+
+type cslot struct {
+	key   uint64
+	count int // 0 marks an empty slot
+}
+
+func newCountTable(sizeHint int) *countTable {
+	n := 1 << bits.Len(uint(2*sizeHint+16))
+	return &countTable{slots: make([]cslot, n)}
+}
+
+// splitmix64's finaliser (Steele, Lea and Flood 2014).
+func mix64(z uint64) uint64 {
+	z ^= z >> 30
+	z *= 0xbf58476d1ce4e5b9
+	z ^= z >> 27
+	z *= 0x94d049bb133111eb
+	return z ^ z>>31
+}
+
+// add adds c (> 0) to key's count.
+func (t *countTable) add(key uint64, c int) {
+	mask := uint64(len(t.slots) - 1)
+	for i := mix64(key) & mask; ; i = (i + 1) & mask {
+		s := &t.slots[i]
+		if s.count == 0 {
+			s.key, s.count = key, c
+			t.n++
+			if 2*t.n > len(t.slots) {
+				t.grow()
+			}
+			return
+		}
+		if s.key == key {
+			s.count += c
+			return
+		}
+	}
+}
+
+func (t *countTable) grow() {
+	old := t.slots
+	t.slots = make([]cslot, 2*len(old))
+	mask := uint64(len(t.slots) - 1)
+	for _, s := range old {
+		if s.count == 0 {
+			continue
+		}
+		i := mix64(s.key) & mask
+		for t.slots[i].count != 0 {
+			i = (i + 1) & mask
+		}
+		t.slots[i] = s
+	}
+}
+
+// each calls f for every key with its count, in no particular order.
+func (t *countTable) each(f func(key uint64, c int)) {
+	for _, s := range t.slots {
+		if s.count != 0 {
+			f(s.key, s.count)
+		}
+	}
+}

@@ -30,3 +30,26 @@ func TestInternTable(t *testing.T) {
 		t.Fatal("reset")
 	}
 }
+
+// countTable agrees with a map on random keys (including 0).
+func TestCountTable(t *testing.T) {
+	ct := newCountTable(0)
+	ref := map[uint64]int{}
+	x := uint64(1)
+	for i := 0; i < 20000; i++ {
+		x = x*6364136223846793005 + 1442695040888963407
+		k := x % 3000
+		ct.add(k, 1+i%3)
+		ref[k] += 1 + i%3
+	}
+	got := map[uint64]int{}
+	ct.each(func(k uint64, c int) { got[k] = c })
+	if len(got) != len(ref) || ct.n != len(ref) {
+		t.Fatalf("%d keys, want %d", len(got), len(ref))
+	}
+	for k, v := range ref {
+		if got[k] != v {
+			t.Fatalf("key %d: %d, want %d", k, got[k], v)
+		}
+	}
+}

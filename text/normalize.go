@@ -34,17 +34,29 @@ func (nb *normBuf) rawSpan(a, b int) (int, int) {
 	return int(nb.start[a]), int(nb.end[b-1])
 }
 
+// needsSlowPath reports whether raw has non-ASCII bytes or the bytes that start HTML residue
+// or a backtick apostrophe; otherwise the normalised text is raw itself.
 func needsSlowPath(raw string) bool {
-	for i := 0; i < len(raw); i++ {
-		c := raw[i]
-		if c >= utf8.RuneSelf || c == '&' || c == '<' || c == '`' {
+	if strings.IndexByte(raw, '&') >= 0 || strings.IndexByte(raw, '<') >= 0 || strings.IndexByte(raw, '`') >= 0 {
+		return true
+	}
+	i := 0
+	for ; i+8 <= len(raw); i += 8 {
+		w := uint64(raw[i]) | uint64(raw[i+1])<<8 | uint64(raw[i+2])<<16 | uint64(raw[i+3])<<24 |
+			uint64(raw[i+4])<<32 | uint64(raw[i+5])<<40 | uint64(raw[i+6])<<48 | uint64(raw[i+7])<<56
+		if w&0x8080808080808080 != 0 {
+			return true
+		}
+	}
+	for ; i < len(raw); i++ {
+		if raw[i] >= utf8.RuneSelf {
 			return true
 		}
 	}
 	return false
 }
 
-// normalize fills nb from raw: HTML residue (entities, tags) decoded or removed, Unicode NFKC,
+// normalize fills nb from raw: HTML residue (entities, tags, escaped tags) decoded or removed, Unicode NFKC,
 // quotes, apostrophes, dashes and unusual spaces unified. Case folding, hyphenation and
 // whitespace are left to the tokenizer, which needs the original case to tell a line-end
 // hyphenation ("resi-\ndence") from a hyphenated name.
@@ -212,7 +224,11 @@ func tagAt(s string, i int) int {
 		return 0
 	}
 	if strings.HasPrefix(s[i:], "<!--") {
-		if k := strings.Index(s[i+4:], "-->"); k >= 0 {
+		rest := s[i+4:]
+		if len(rest) > 4096 {
+			rest = rest[:4096] // bounded, so that many unclosed comments stay linear
+		}
+		if k := strings.Index(rest, "-->"); k >= 0 {
 			return 4 + k + 3
 		}
 		return 0
@@ -228,6 +244,27 @@ func tagAt(s string, i int) int {
 	return 0
 }
 
+// escapedTagAt reports the length of an escaped tag such as "&lt;br /&gt;" at s[i] == '&'
+// (exports that escape HTML twice leave these), or 0.
+func escapedTagAt(s string, i int) int {
+	if !strings.HasPrefix(s[i:], "&lt;") || i+4 >= len(s) {
+		return 0
+	}
+	c := s[i+4]
+	if !((c >= 'a' && c <= 'z') || (c >= 'A' && c <= 'Z') || c == '/' || c == '!') {
+		return 0
+	}
+	rest := s[i+4:]
+	if len(rest) > 256 {
+		rest = rest[:256]
+	}
+	k := strings.Index(rest, "&gt;")
+	if k < 0 || strings.ContainsAny(rest[:k], "<>") {
+		return 0
+	}
+	return 4 + k + 4
+}
+
 // html decodes raw's HTML residue into nb.tmp with its byte map.
 func (nb *normBuf) html(raw string) {
 	nb.tmp, nb.tmpStart, nb.tmpEnd = nb.tmp[:0], nb.tmpStart[:0], nb.tmpEnd[:0]
@@ -241,6 +278,11 @@ func (nb *normBuf) html(raw string) {
 	for i := 0; i < len(raw); {
 		c := raw[i]
 		if c == '&' {
+			if n := escapedTagAt(raw, i); n > 0 {
+				emit(" ", i, i+n)
+				i += n
+				continue
+			}
 			if rep, n, ok := entityAt(raw, i); ok {
 				emit(rep, i, i+n)
 				i += n

@@ -100,6 +100,9 @@ type RepairSettings struct {
 	MinLength int `json:"min_length"`
 	// Words are extra correct words: targets of repair and never repaired themselves.
 	Words []string `json:"words,omitempty"`
+	// Families also repairs words that have another inflection in the corpus; zero (false)
+	// leaves them alone, taking them for real words ("clump" beside "clumped").
+	Families bool `json:"families"`
 	// NoJoin switches off rejoining split words ("veh icle" → "vehicle"); zero: on.
 	NoJoin bool `json:"no_join"`
 }
@@ -142,7 +145,10 @@ func DefaultSettings() Settings {
 			Words: []string{"gone", "arrival", "unable", "locate", "located", "action", "cleared", "clear", "cancelled",
 				"canceled", "cancel", "negative", "contact", "duplicate", "test", "checked", "check", "area", "secure",
 				"secured", "quiet", "okay", "ok", "nothing", "found", "unfounded", "answer", "voicemail", "message",
-				"callback", "disregard", "handled", "referred"},
+				"callback", "disregard", "handled", "referred", "results", "drove", "drive", "patrol", "patrolled",
+				"neighborhood", "vicinity", "block", "twice", "needed", "prior", "suspicious", "matching", "description",
+				"make", "made", "caller", "one", "signs", "sign", "activity", "seen", "report", "upon",
+				"remained", "returned", "service", "complainant", "searched", "search", "extra", "requested", "heard"},
 			NearDup:  true,
 			MinGroup: 3,
 			Settings: routine.Settings{Shingle: 3, Hashes: 32, Bands: 8, Threshold: 0.8, Seed: 1},
@@ -172,6 +178,9 @@ func (s Settings) Validate() error {
 	}
 	if b == 0 {
 		b = 16
+	}
+	if h < 0 || b < 0 || h&(h-1) != 0 {
+		return fmt.Errorf("text: routine hashes (%d) must be a power of two", h)
 	}
 	if h%b != 0 {
 		return fmt.Errorf("text: routine bands (%d) must divide hashes (%d)", b, h)

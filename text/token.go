@@ -11,7 +11,7 @@ type Kind uint8
 
 const (
 	Word   Kind = iota // letters, possibly with digits, apostrophes or a "w/"-style slash
-	Number             // digits, possibly with inner ',' or '.': 12, 1,250, 3.5
+	Number             // digits, possibly with inner ',' or '.': 12, 1,250, 3.5; ordinals 1st, 10th
 	Time               // digits with ':' (9:45, 14:30:05), with an absorbed "a.m."/"pm"
 	Date               // digit groups joined by '/' (8/10/2017) or three '-' groups (2017-08-10)
 	Code               // two or more than three digit groups joined by '-' (10-50, 11-99)
@@ -298,6 +298,9 @@ loop:
 	default:
 		kind = Number
 	}
+	if kind == Word && hasD && isOrdinal(sc.text[a:]) {
+		kind = Number
+	}
 	if kind == Time {
 		j = sc.meridiem(x, j)
 	}
@@ -308,6 +311,25 @@ loop:
 	}
 	sc.toks = append(sc.toks, rawTok{a: int32(a), b: int32(len(sc.text)), s: int32(i), e: int32(j), kind: kind, brk: brk})
 	return j
+}
+
+// isOrdinal reports whether t is digits followed by st, nd, rd or th ("1st", "22nd", "10th"),
+// which the tokenizer counts as numbers.
+func isOrdinal(t []byte) bool {
+	n := len(t)
+	if n < 3 || !isDigitASCII(t[n-3]) {
+		return false
+	}
+	for _, c := range t[:n-2] {
+		if !isDigitASCII(c) {
+			return false
+		}
+	}
+	switch string(t[n-2:]) {
+	case "st", "nd", "rd", "th":
+		return true
+	}
+	return false
 }
 
 // meridiem absorbs " a.m.", "am", " p.m." or "pm" (any case) after a time at x[j].

@@ -58,6 +58,7 @@ func TestAnalyze(t *testing.T) {
 		{"html numeric", "§it&#39;s§ §done§", []string{"it", "done"}},
 		{"html tags", "§line§<br />§two§ <b>§bold§</b>", []string{"line", "two", "bold"}},
 		{"double escaped", "§a§&amp;nbsp;§b§", []string{"a", "b"}},
+		{"escaped tag", "§one§&lt;br /&gt;§two§ &lt; §three§", []string{"one", "two", "three"}},
 		{"nfkc ligature", "§ﬁre§ §ｆｕｌｌ§", []string{"fire", "full"}},
 		{"combining accent", "§cafe\u0301§", []string{"café"}},
 		{"ocr digits stay in word", "§0fficer§ §veh1cle§", []string{"0fficer", "veh1cle"}},
@@ -96,14 +97,14 @@ func TestAnalyze(t *testing.T) {
 }
 
 func TestPolicies(t *testing.T) {
-	raw := "At 9:45 on 8/10/2017 unit 10-50 had 3 calls"
+	raw := "At 9:45 on 8/10/2017 unit 10-50 had 3 calls, the 2nd at 5uspect"
 	tests := []struct {
 		p    Policy
 		want string
 	}{
-		{Drop, "at|on|unit|had|calls"},
-		{Keep, "at|9:45|on|8/10/2017|unit|10-50|had|3|calls"},
-		{Placeholder, "at|_time_|on|_date_|unit|_code_|had|_number_|calls"},
+		{Drop, "at|on|unit|had|calls|the|at|5uspect"},
+		{Keep, "at|9:45|on|8/10/2017|unit|10-50|had|3|calls|the|2nd|at|5uspect"},
+		{Placeholder, "at|_time_|on|_date_|unit|_code_|had|_number_|calls|the|_number_|at|5uspect"},
 	}
 	for _, tt := range tests {
 		s := DefaultSettings()
@@ -177,5 +178,14 @@ func TestAbbrevTable(t *testing.T) {
 	_, err = ParseAbbrev("bad.txt", strings.NewReader("ok = fine\nno equals here\n"))
 	if err == nil || !strings.HasPrefix(err.Error(), "bad.txt:2:") {
 		t.Errorf("err = %v", err)
+	}
+}
+
+// Pathological residue stays fast (linear): many unclosed comments and tags.
+func TestPathologicalHTML(t *testing.T) {
+	raw := strings.Repeat("<!-- x ", 20000) + strings.Repeat("<a ", 20000) + strings.Repeat("&amp;", 20000)
+	toks := Analyze(raw, DefaultSettings())
+	if len(toks) == 0 {
+		t.Fatal("no tokens")
 	}
 }

@@ -23,7 +23,16 @@
 //     for names of five or more letters), after cues ("Mr.", "named", "victim", "spoke
 //     with" ...), and capitalised words that are not in the embedded English word list
 //     when they stand where a name stands. Options.Allow keeps street, business and place
-//     names.
+//     names. Officers' names are redacted like anyone's, after "Officer", "Ofc.", "Sgt.",
+//     "Det.", "Deputy" ..., together with a badge number written after them ("Ofc.
+//     Quosby #4412"); list officers in Allow when the report must show them.
+//
+// Detectors read a copy of the narrative in which HTML residue ("&nbsp;", "<br />") is
+// blanked and a non-word one letter away from a cue word ("casc", "platc", "registrati0n")
+// is spelled as the cue, byte for byte, so offsets always refer to the text as given. Names
+// in capitals ("JOHN QUOSBY") and "LAST, First" forms are handled; the capitalised-word
+// guess is weaker in all-capital narratives, where it needs a known given name or a
+// person's context ("saw", "told").
 //
 // Overlapping finds are resolved by a fixed priority, then length, then position. Names are
 // numbered in order of first appearance within one narrative, and a later mention of a
@@ -33,6 +42,12 @@
 // nothing new is found, and placeholders are never detected.
 //
 // Redaction misses things. Read Cautions before publishing anything redacted with it.
+//
+// Measured quality (see quality_test.go; the benchmark JSON lines come from
+// `go test -run 'Quality|FalsePositives|OSHA' -v ./text/redact/ | grep '^{'`): on the
+// generated test set every structured type is found at least 99.5% of the time and listed
+// names always; on the OSHA accident abstracts, which name almost no one, fewer than 0.1
+// redactions per 1,000 tokens are not ages.
 //
 // Word lists: words_en.txt (see testdata/gen_words.py for its sources: the Snowball English
 // sample vocabulary, lower-case words of the SAFENET reports, and a hand-written

@@ -15,18 +15,23 @@ var wordsEN string
 var namesEN string
 
 var (
-	listsOnce    sync.Once
-	dict         map[string]bool // ordinary English words
-	common       map[string]bool // dict words also seen in lower case in modern reports
-	givenNames   map[string]bool
-	surnames     map[string]bool
-	stopNames    map[string]bool // capitalised words that never start or continue a name
-	orgWords     map[string]bool // words that make a capitalised run a business or place
-	orgOnly      map[string]bool // orgWords without the street suffixes
-	titleWords   = map[string]bool{"mr": true, "mrs": true, "ms": true, "miss": true, "mx": true, "dr": true, "mister": true}
-	personVerbs  map[string]bool
-	personBefore = set("told asked saw called met per")
-	strongVerbs  = set("said says stated states told tells reported advised explained admitted denied asked yelled fled")
+	listsOnce  sync.Once
+	dict       map[string]bool // ordinary English words
+	common     map[string]bool // dict words also seen in lower case in modern reports
+	givenNames map[string]bool
+	surnames   map[string]bool
+	stopNames  map[string]bool // capitalised words that never start or continue a name
+	orgWords   map[string]bool // words that make a capitalised run a business or place
+	orgOnly    map[string]bool // orgWords without the street suffixes
+	titleWords = set("mr mrs ms miss mx dr mister " + officerTitles)
+	// officerTitles are ranks and titles of officers: their names are redacted like
+	// anyone's (list them in Options.Allow to keep them), with a badge number after them.
+	officerTitles = "officer ofc ofcr sgt sergeant det detective deputy dep cpl corporal lt lieutenant capt captain trooper tpr"
+	officerTitle  = set(officerTitles)
+	fullTitle     = set("officer sergeant detective deputy corporal lieutenant captain trooper mister miss")
+	personVerbs   map[string]bool
+	personBefore  = set("told asked saw called met per")
+	strongVerbs   = set("said says stated states told tells reported advised explained admitted denied asked yelled fled")
 	// words before a capitalised run that make it a thing, not a person: "a Timberjack
 	// Feller Buncher", "caused by Myocardial Infarction" is kept out by "of"/"as" ...
 	thingBefore      = set("a an the this that these those his her their its our your my each every any some of as using into onto")
@@ -141,6 +146,9 @@ func isCommonWord(w string) bool {
 // baseWord lower-cases w and removes a possessive or a contraction ("Quosby's" → "quosby",
 // "I've" → "i"), so that contractions are found in the dictionary.
 func baseWord(w string) string {
+	if !strings.ContainsAny(w, "'’") {
+		return strings.ToLower(w)
+	}
 	lw := strings.ReplaceAll(strings.ToLower(w), "’", "'")
 	for _, suf := range []string{"'s", "'ve", "'d", "'re", "'ll", "'m", "n't"} {
 		if strings.HasSuffix(lw, suf) && len(lw) > len(suf) {
@@ -253,8 +261,8 @@ func (d *doc) nameSeq(i int) (end int, parts []string) {
 		parts = append(parts, strings.ToLower(d.word(j)))
 		j++
 	}
-	if len(parts) == 1 && d.isPunct(j, ",") && d.nameToken(j+1) && givenNames[strings.ToLower(d.word(j+1))] {
-		parts = append(parts, strings.ToLower(d.word(j+1)))
+	if len(parts) == 1 && d.lastFirst(j) {
+		parts = append(parts, d.lower[j+1])
 		j += 2
 	}
 	return j, parts
@@ -271,6 +279,8 @@ var nameCues = [][]string{
 	{"daughter"}, {"wife"}, {"husband"}, {"girlfriend"}, {"boyfriend"}, {"brother"},
 	{"sister"}, {"neighbor"}, {"neighbour"}, {"friend"}, {"parent"}, {"guardian"},
 	{"employee"}, {"coworker"}, {"supervisor"}, {"manager"},
+	{"vic"}, {"vict"}, {"susp"}, {"comp"}, {"compl"}, {"wit"}, {"subj"}, {"keyholder"},
+	{"reportee"}, {"registered", "to"}, {"name", "of"}, {"registered", "owner"},
 	// police shorthand: V/ victim, S/ suspect, R/P reporting party, W/ is "with".
 	{"v", "/"}, {"s", "/"}, {"r", "/", "p"},
 }
@@ -295,7 +305,7 @@ func (d *doc) matchCue(i int, cue []string) int {
 			if !d.isPunct(j, w) {
 				return -1
 			}
-		} else if d.toks[j].kind != tWord || !strings.EqualFold(d.word(j), w) {
+		} else if d.toks[j].kind != tWord || !(strings.EqualFold(d.word(j), w) || longCuePrefix(d.lower[j], w)) {
 			return -1
 		}
 		j++
@@ -324,22 +334,35 @@ func (d *doc) names(cs []cand) []cand {
 			continue
 		}
 		lw := d.lower[i]
-		// titles: "Mr. Quosby", "Dr Ann Lee"
-		if titleWords[lw] {
+		// titles: "Mr. Quosby", "Dr Ann Lee"; but "Pellinger Dr. Parking ..." is a street.
+		if titleWords[lw] && !(lw == "dr" && i > 0 && d.toks[i-1].kind != tPunct && (d.toks[i-1].kind == tNum || capitalised(d.word(i-1)) || allUpper(d.word(i-1)) || ordinalRe.MatchString(d.word(i-1)))) {
 			j := i + 1
 			if d.isPunct(j, ".") {
+				if fullTitle[lw] {
+					continue // "the duty officer. During ...": a sentence ends
+				}
 				j++
 			}
 			if end, parts := d.nameSeq(j); len(parts) > 0 {
+				if officerTitle[lw] {
+					if !nameLike(parts) {
+						continue // "Deputy Forest Supervisor", "Officer Trainee": a job title
+					}
+					end = d.badgeAfter(end) // "Ofc. Quosby #4412"
+				}
 				cs = d.addName(cs, j, end, parts)
 				i = end - 1
-			} else if d.capsSurname(j) {
+			} else if d.caps && d.capsSurname(j) {
 				cs = d.addName(cs, j, j+1, []string{d.lower[j]}) // "MS. STONE"
 				i = j
 			}
 			continue
 		}
-		for _, cue := range cuesByFirst[lw] {
+		cues := cuesByFirst[lw]
+		if len(lw) >= 8 && cues == nil && !dict[lw] {
+			cues = cuesByFirst[longCues[lw[:8]]] // "identifiecl as": OCR noise in a long cue
+		}
+		for _, cue := range cues {
 			j := d.matchCue(i, cue)
 			if j < 0 {
 				continue
@@ -356,7 +379,7 @@ func (d *doc) names(cs []cand) []cand {
 			if end, parts := d.nameSeq(j); len(parts) > 0 {
 				// "Coworker #1", "Unit 12": a label, not a name; "contacted Dispatch": an
 				// ordinary word, not a name.
-				if !(end < len(d.toks) && (d.toks[end].kind == tNum || d.isPunct(end, "#"))) && nameLike(parts) {
+				if !d.roleLabel(end, parts) && nameLike(parts) {
 					cs = d.addName(cs, j, end, parts)
 				}
 				i = end - 1
@@ -490,7 +513,7 @@ func (d *doc) heuristicNames(cs []cand) []cand {
 		if len(idx) >= 2 {
 			// given-name position and surname position must both look like names.
 			fw, lw := d.word(idx[0]), d.word(idx[len(idx)-1])
-			firstOK := givenNames[first] || !isDictWord(fw)
+			firstOK := givenNames[first] || !isDictWord(fw) || givenNames[strings.SplitN(first, "-", 2)[0]] // "Mary-Jane"
 			lastOK := surnames[strings.ToLower(lw)] || !isCommonWord(lw)
 			// a person's context before or a person's verb after vouches for a surname that
 			// is also a dictionary word ("Staff called Tamo Bromley").
@@ -508,6 +531,11 @@ func (d *doc) heuristicNames(cs []cand) []cand {
 				lastOK = true
 			}
 			ok = nonDict >= 1 && firstOK && lastOK
+			// "Crystal Nwachurin explained": a surname no dictionary knows and a person's
+			// verb after it.
+			if !ok && !isDictWord(lw) && verb && strongVerbs[d.lower[last+1]] {
+				ok = true
+			}
 			if d.quoted(idx[0], idx[len(idx)-1]) {
 				ok = false
 			}
@@ -517,10 +545,18 @@ func (d *doc) heuristicNames(cs []cand) []cand {
 			if idx[0] > 0 && d.toks[idx[0]-1].kind == tWord {
 				prev = strings.ToLower(d.word(idx[0] - 1))
 			}
-			// a single word needs a person's verb after it or a person's context before it.
+			// a single word needs a person's verb after it or a person's context before it,
+			// and must not be a misspelt common word ("Nieghbors stated").
 			ok = nonDict >= 1 && utf8.RuneCountInString(w) >= 3 && !placePrepsBefore[prev] && !d.quoted(idx[0], idx[0])
 			verb := next < len(d.toks) && d.toks[next].kind == tWord && strongVerbs[d.lower[next]]
-			ok = ok && (verb || personBefore[prev])
+			// "Hollifax, Carlos told me": LAST, First.
+			if nonDict >= 1 && d.lastFirst(next) && !placePrepsBefore[prev] {
+				parts = append(parts, d.lower[next+1])
+				cs = d.addName(cs, idx[0], next+2, parts)
+				i = next + 1
+				continue
+			}
+			ok = ok && (verb || personBefore[prev]) && !nearCommonWord(d.lower[idx[0]])
 		}
 		if ok {
 			cs = d.addName(cs, idx[0], idx[len(idx)-1]+1, parts)
@@ -576,11 +612,15 @@ func (d *doc) listNames(cs []cand) []cand {
 			continue
 		}
 		// a single word of an entry, written with a capital (or in capitals); a one-word
-		// entry matches in any case.
+		// entry matches in any case unless it is a dictionary word. Followed by a street suffix or a business word
+		// ("Hallowmere Cir", "Tarrowby Hardware") it names a place, not the person.
+		if n := i + 1; n < len(d.toks) && d.toks[n].kind == tWord && (d.flags[n]&fSuffix != 0 || orgOnly[d.lower[n]]) {
+			continue
+		}
 		for _, h := range hits {
 			ws := d.r.list[h.entry]
-			if len(ws) > 1 && !(capitalised(w) || allUpper(w)) {
-				continue
+			if (len(ws) > 1 || isDictWord(ws[0])) && !(capitalised(w) || allUpper(w)) {
+				continue // a listed "Will" or "Rose" is not the verb or the flower
 			}
 			if l := ws[h.word]; len(l) >= 2 && !stopNames[l] {
 				cs = d.addName(cs, i, i+1, []string{l})
@@ -789,7 +829,7 @@ func (d *doc) capsNames(cs []cand) []cand {
 			if d.isInitial(j) {
 				j += 2
 			}
-			if j < len(d.toks) && d.capsOdd(i) && d.capsOdd(j) && d.toks[j].nl == 0 && d.personContext(i, j) {
+			if j < len(d.toks) && d.capsOdd(i) && d.capsOdd(j) && d.toks[j].nl == 0 && (d.personContext(i, j) || d.capsPair(i, j)) {
 				cs = d.addName(cs, i, j+1, []string{d.lower[i], d.lower[j]})
 				i = j
 			}
@@ -883,4 +923,158 @@ func (d *doc) phoneAhead(i int) bool {
 		return false
 	}
 	return d.isPunct(i+1, "-") || d.isPunct(i+1, ".") || d.isPunct(i+1, ")")
+}
+
+// roleLabel reports whether a one-word cued name followed by "#" or a number is a role
+// label ("Coworker #1", "Employee 2") rather than a name.
+func (d *doc) roleLabel(end int, parts []string) bool {
+	if len(parts) != 1 || end >= len(d.toks) || !isCommonWord(parts[0]) {
+		return false
+	}
+	if d.isPunct(end, "#") {
+		return true
+	}
+	t := d.toks[end]
+	return t.kind == tNum && (t.end >= len(d.text) || !isAlnumByte(d.text[t.end]))
+}
+
+// lastFirst reports whether tokens j, j+1 are ", First" completing "LAST, First": a comma,
+// then a capitalised given name or uncommon word, not itself followed by another
+// capitalised word (which would make it a list of places or businesses).
+func (d *doc) lastFirst(j int) bool {
+	if !d.isPunct(j, ",") || j+1 >= len(d.toks) || d.toks[j+1].kind != tWord || d.toks[j+1].nl > 0 {
+		return false
+	}
+	w := d.word(j + 1)
+	lw := d.lower[j+1]
+	if !(capitalised(w) || (d.caps && allUpper(w))) || stopNames[lw] || orgWords[lw] {
+		return false
+	}
+	if !givenNames[lw] && isCommonWord(w) {
+		return false
+	}
+	if k := j + 2; k < len(d.toks) && d.toks[k].kind == tWord && d.toks[k].nl == 0 && (capitalised(d.word(k)) || usStates[d.word(k)]) {
+		return false
+	}
+	return true
+}
+
+// nearCommonWord reports whether lw, of six or more letters, is one edit (a deletion,
+// insertion, substitution or swap of neighbours) away from a dictionary word: a misspelling
+// rather than a name.
+func nearCommonWord(lw string) bool {
+	if len(lw) < 6 || !isASCII(lw) {
+		return false
+	}
+	b := []byte(lw)
+	try := func(s []byte) bool { return dict[string(s)] }
+	buf := make([]byte, 0, len(b)+1)
+	for i := range b {
+		buf = append(append(buf[:0], b[:i]...), b[i+1:]...) // deletion
+		if try(buf) {
+			return true
+		}
+		if i+1 < len(b) {
+			buf = append(buf[:0], b...)
+			buf[i], buf[i+1] = buf[i+1], buf[i] // swap
+			if try(buf) {
+				return true
+			}
+		}
+		for c := byte('a'); c <= 'z'; c++ {
+			if c == b[i] {
+				continue
+			}
+			buf = append(buf[:0], b...)
+			buf[i] = c // substitution
+			if try(buf) {
+				return true
+			}
+		}
+	}
+	for i := 0; i <= len(b); i++ {
+		for c := byte('a'); c <= 'z'; c++ {
+			buf = append(append(append(buf[:0], b[:i]...), c), b[i:]...) // insertion
+			if try(buf) {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+// longCues maps the first eight letters of the long cue words to the words.
+var longCues = map[string]string{"identifi": "identified", "complain": "complainant", "register": "registered", "intervie": "interviewed"}
+
+// longCuePrefix reports whether the word lw, of the lower-case cue word w of eight or more
+// letters, shares w's first eight letters and is within two letters of its length: OCR
+// noise at the end of a long cue ("identifiecl").
+func longCuePrefix(lw, w string) bool {
+	if len(w) < 8 || len(lw) < 8 || lw[:8] != w[:8] || dict[lw] {
+		return false // "complaint" is a word, not a noisy "complainant"
+	}
+	d := len(lw) - len(w)
+	return d >= -2 && d <= 2
+}
+
+// badgeAfter returns the index after a badge number that follows token end-1 ("#4412",
+// "(#4412)", "badge 4412"), or end when there is none.
+func (d *doc) badgeAfter(end int) int {
+	j := end
+	if d.isPunct(j, "(") {
+		j++
+	}
+	if j < len(d.toks) && d.toks[j].kind == tWord && d.lower[j] == "badge" {
+		j++
+	}
+	if d.isPunct(j, "#") {
+		j++
+	}
+	if j > end && j < len(d.toks) && d.toks[j].kind == tNum {
+		j++
+		if d.isPunct(end, "(") && d.isPunct(j, ")") {
+			j++
+		}
+		return j
+	}
+	return end
+}
+
+// technicalEndings are word endings common in technical and medical terms and rare in
+// given names and surnames.
+var technicalEndings = []string{"ion", "ity", "ism", "ide", "ate", "ent", "ant", "ic", "al", "ous", "ive", "ary", "ory", "ine", "ene", "ane", "ose", "ase", "osis", "itis", "emia", "ics", "ure", "ing", "ed", "er", "or", "ers", "ors", "ment", "ness", "able", "ible", "ly"}
+
+// nameShaped reports whether lw ends in none of technicalEndings: in capitals, two such
+// uncommon words side by side are taken as a name ("TAMO QUOSBY").
+func nameShaped(lw string) bool {
+	for _, e := range technicalEndings {
+		if strings.HasSuffix(lw, e) {
+			return false
+		}
+	}
+	return true
+}
+
+// capsPair reports whether capitals words i and j, both uncommon, look like a name without
+// a person's context: both name-shaped, no third such word after them, and no article,
+// preposition or number before them ("THE CRUCIBLE TRAIN", "FROM CARDIAC TAMPONADE").
+func (d *doc) capsPair(i, j int) bool {
+	if !nameShaped(d.lower[i]) || !nameShaped(d.lower[j]) {
+		return false
+	}
+	if j+1 < len(d.toks) && d.toks[j+1].kind == tWord && d.capsOdd(j+1) {
+		return false
+	}
+	if i > 0 {
+		p := d.toks[i-1]
+		if p.kind == tNum {
+			return false
+		}
+		if p.kind == tWord {
+			if w := d.lower[i-1]; thingBefore[w] || placePrepsBefore[w] || w == "by" || w == "with" {
+				return false
+			}
+		}
+	}
+	return true
 }

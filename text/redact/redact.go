@@ -16,11 +16,14 @@ type Options struct {
 	// Names lists people to redact wherever they appear: full names ("Ann Quosby") or single
 	// names. Matching ignores case; each word of five or more letters also matches a word
 	// one edit away (a substitution, insertion, deletion or swap of neighbours). Each part of
-	// a listed full name is also redacted on its own when it is written capitalised.
+	// a listed full name is also redacted on its own when it is written capitalised, except
+	// before a street suffix or a business word ("Hallowmere Cir", "Tarrowby Hardware").
+	// A one-word entry that is a dictionary word ("Will", "Rose") matches only when capitalised.
 	Names []string
 	// Allow lists words and phrases that must never be redacted as names, such as street,
 	// business and place names ("Quosby Hardware", "Elm"). Matching ignores case and respects
-	// word boundaries. Allow does not stop a street address from being redacted.
+	// word boundaries. Allow wins over every name rule, listed names included; it does not
+	// stop a street address from being redacted.
 	Allow []string
 	// Types selects the detectors to run. The zero value runs all of them.
 	Types TypeSet
@@ -70,16 +73,18 @@ const maxPasses = 32
 
 // Redact returns text with every detected item replaced by its placeholder, and the
 // replacements in input order. Spans refer to byte offsets in text. The same text always
-// gives the same output, and Redact(out) returns out unchanged.
+// gives the same output, and Redact(out) returns out unchanged: the detectors run again on
+// their own output until they find nothing new, and placeholders already in text are
+// kept (new names are numbered after the highest [NAME-n] present).
 func (r *Redactor) Redact(text string) (out string, spans []Span) {
 	out = text
 	var all []Span // in original coordinates, sorted, non-overlapping
-	for pass := 0; pass < maxPasses; pass++ {
+	for n := 0; n < maxPasses; n++ {
 		found := r.pass(out)
 		if len(found) == 0 {
 			break
 		}
-		if pass == 0 {
+		if n == 0 {
 			all = found
 		} else {
 			all = mergeSpans(all, found, text)
@@ -92,7 +97,6 @@ func (r *Redactor) Redact(text string) (out string, spans []Span) {
 // mergeSpans maps spans found in render(text, prev) back to text and merges them with prev.
 // Spans found in a later pass never overlap a placeholder, so each lies in literal text.
 func mergeSpans(prev, found []Span, text string) []Span {
-	// segment i of the rendered text: literal text between placeholders.
 	out := make([]Span, 0, len(prev)+len(found))
 	out = append(out, prev...)
 	for _, f := range found {
@@ -152,7 +156,13 @@ func (r *Redactor) pass(text string) []Span {
 			}
 		}
 	}
-	d := &doc{text: text, r: r, masks: masks}
+	// Detectors read a copy in which HTML residue ("&nbsp;", "<br />") is blanked out
+	// byte for byte, so offsets stay those of text.
+	view := text
+	if strings.ContainsAny(view, "&<") {
+		view = htmlView.Replace(view)
+	}
+	d := &doc{text: ocrCues(view), orig: text, r: r, masks: masks}
 	d.tokenize()
 	var cs []cand
 	t := r.opt.Types
@@ -188,6 +198,122 @@ func (r *Redactor) pass(text string) []Span {
 	}
 	cs = d.resolve(cs)
 	return d.finish(cs, nextName)
+}
+
+// htmlView blanks common HTML residue with as many spaces as it has bytes ("&amp;" keeps
+// its "&"), so that a cue and its value separated by "&nbsp;" are still found.
+var htmlView = strings.NewReplacer(
+	"&nbsp;", "      ", "&NBSP;", "      ", "&amp;", "&    ", "<br />", "      ", "<br/>", "     ",
+	"<br>", "    ", "<BR>", "    ", "<p>", "   ", "</p>", "    ", "<P>", "   ", "</P>", "    ",
+)
+
+// cueWords are the cue words that ocrCues restores.
+var cueWords = []string{"case", "plate", "registration", "report", "incident", "birth", "phone",
+	"victim", "suspect", "witness", "caller", "identified", "complainant", "driver", "named"}
+
+// ocrCues returns text with each word that is not a dictionary word (or is one, before "#")
+// but differs from a cue
+// word in exactly one letter of the same length ("casc", "platc", "registrati0n") spelled
+// as that cue word: OCR confusions of a cue should not hide what follows it. Offsets are
+// kept.
+func ocrCues(text string) string {
+	listsOnce.Do(loadLists)
+	var b []byte
+	for i := 0; i < len(text); {
+		if !isAlnumByte(text[i]) {
+			i++
+			continue
+		}
+		j := i
+		for j < len(text) && isAlnumByte(text[j]) {
+			j++
+		}
+		if w := text[i:j]; len(w) >= 4 && len(w) <= 12 {
+			if c := ocrCue(w, hashAfter(text, j)); c != "" {
+				if b == nil {
+					b = []byte(text)
+				}
+				copy(b[i:j], c)
+			}
+		}
+		// a cue split in two by a stray space or a line-end hyphen ("pla te",
+		// "num- ber"): written joined, the gap moved after it.
+		if k, gap := splitGap(text, j); gap > 0 {
+			m := k
+			for m < len(text) && isAlnumByte(text[m]) {
+				m++
+			}
+			if joined := strings.ToLower(text[i:j] + text[k:m]); m > k && splitCues[joined] {
+				if b == nil {
+					b = []byte(text)
+				}
+				copy(b[i:], joined)
+				for p := i + len(joined); p < m; p++ {
+					b[p] = ' '
+				}
+				i = m
+				continue
+			}
+		}
+		i = j
+	}
+	if b == nil {
+		return text
+	}
+	return string(b)
+}
+
+// splitCues are the cue words ocrCues rejoins when split.
+var splitCues = set("case plate registration report incident birth phone victim suspect witness caller identified complainant driver named number stated")
+
+// splitGap returns the start of the next word and the gap's length when text[j:] is a
+// single space, or "-" followed by a space or a line break, before a letter or digit.
+func splitGap(text string, j int) (int, int) {
+	switch {
+	case j+1 < len(text) && text[j] == ' ' && isAlnumByte(text[j+1]):
+		return j + 1, 1
+	case j+2 < len(text) && text[j] == '-' && (text[j+1] == ' ' || text[j+1] == '\n') && isAlnumByte(text[j+2]):
+		return j + 2, 2
+	}
+	return 0, 0
+}
+
+// hashAfter reports whether "#" follows position j, after optional spaces.
+func hashAfter(text string, j int) bool {
+	for j < len(text) && text[j] == ' ' {
+		j++
+	}
+	return j < len(text) && text[j] == '#'
+}
+
+// ocrCue returns the cue word that w (one letter off) stands for, or "". A dictionary word
+// ("ease") counts only when "#" follows it, as in "ease #24-085853".
+func ocrCue(w string, hash bool) string {
+	if len(w) != 4 && len(w) != 5 && len(w) != 6 && len(w) != 7 && len(w) != 8 && len(w) != 10 && len(w) != 11 && len(w) != 12 {
+		return ""
+	}
+	for _, c := range cueWords {
+		if len(c) != len(w) {
+			continue
+		}
+		diff, digits := 0, 0
+		for k := 0; k < len(c) && diff < 2; k++ {
+			b := w[k]
+			if b >= 'A' && b <= 'Z' {
+				b += 'a' - 'A'
+			}
+			if b >= '0' && b <= '9' {
+				digits++
+			}
+			if c[k] != b {
+				diff++
+			}
+		}
+		if diff == 1 && digits <= 1 && (hash || !dict[strings.ToLower(w)]) {
+			return c
+		}
+	}
+	return ""
 }
 
 // overlapsMask reports whether [s,e) overlaps a placeholder.
@@ -355,7 +481,7 @@ func (d *doc) span(c cand, num int) Span {
 	if c.typ == Name {
 		ph = "[NAME-" + strconv.Itoa(num) + "]"
 	}
-	return Span{Type: c.typ, Start: c.start, End: c.end, Placeholder: ph, Text: d.text[c.start:c.end]}
+	return Span{Type: c.typ, Start: c.start, End: c.end, Placeholder: ph, Text: d.orig[c.start:c.end]}
 }
 
 // matchPerson finds the person a name with these parts refers to, or nil.

@@ -87,6 +87,37 @@ func (d *doc) scan(re *regexp.Regexp, trig []int, before, after int, f func(m []
 	}
 }
 
+// scanAt runs re, anchored at each trigger, over [t, t+after) widened forward to
+// whitespace, and calls f with the absolute offsets of a match that starts at t. The small
+// windows let the regexp package use its backtracker instead of its slower NFA for
+// patterns with large alternations (the street suffixes). re must start with \b or match
+// only at a word start; a trigger that continues a word is skipped.
+func (d *doc) scanAt(re *regexp.Regexp, trig []int, after int, f func(m []int)) {
+	text := d.text
+	for _, t := range trig {
+		if d.wordBefore(t) {
+			continue
+		}
+		b := t + after
+		if b > len(text) {
+			b = len(text)
+		}
+		for b < len(text) && !isSpaceByte(text[b]) && b-t < 4*after {
+			b++
+		}
+		m := re.FindStringSubmatchIndex(text[t:b])
+		if m == nil || m[0] != 0 {
+			continue
+		}
+		for i := range m {
+			if m[i] >= 0 {
+				m[i] += t
+			}
+		}
+		f(m)
+	}
+}
+
 func isSpaceByte(b byte) bool {
 	return b == ' ' || b == '\n' || b == '\t' || b == '\r' || b == '\f' || b == '\v'
 }
@@ -150,7 +181,7 @@ func (d *doc) emails(cs []cand) []cand {
 // memory). An optional country code 1 and an extension ("ext. 12", "x12", "#12") may follow.
 var (
 	phoneRe      = regexp.MustCompile(`(?:\+\s?1[ .-]?|\b1[ .-])?(?:\(\s?([2-9][0-9]{2})\s?\)[ .-]?|\b([2-9][0-9]{2})([ .-]?))([2-9][0-9]{2})([ .-]?)([0-9]{4})(?:\s{0,2}(?i:ext\.?|extension|x|#)\s{0,2}[0-9]{1,6})?`)
-	phone7Re     = regexp.MustCompile(`\b[2-9][0-9]{2}[.-][0-9]{4}\b`)
+	phone7Re     = regexp.MustCompile(`\b[2-9][0-9]{2}[.-][0-9]{4}\b(?:\s{0,2}(?i:ext\.?|extension|x|#)\s{0,2}[0-9]{1,6}\b)?`)
 	phoneCueRe   = regexp.MustCompile(`(?i)(?:\b(?:phone|ph|tel|telephone|cell|cellphone|mobile|call|called|calling|callback|cb|contact|number|num|nbr|fax|home|work|reached|text|texted|pager|at)\b|#)[^.\n]*$`)
 	phoneDigitRe = regexp.MustCompile(`^[0-9]+$`)
 )
@@ -171,7 +202,7 @@ func (d *doc) phones(cs []cand) []cand {
 		}
 		cs = append(cs, cand{typ: Phone, start: s, end: e})
 	})
-	d.scan(phone7Re, d.triggers(d.numLen(3)), 0, 9, func(m []int) {
+	d.scan(phone7Re, d.triggers(d.numLen(3)), 0, 24, func(m []int) {
 		s, e := m[0], m[1]
 		if s > 0 && (d.text[s-1] == '-' || d.text[s-1] == '.' || d.text[s-1] == ')') {
 			return
@@ -179,7 +210,7 @@ func (d *doc) phones(cs []cand) []cand {
 		if e < len(d.text)-1 && (d.text[e] == '-' || d.text[e] == '.') && isDigitByte(d.text[e+1]) {
 			return
 		}
-		if !d.cueBefore(s, 24, phoneCueRe) {
+		if d.wordAfter(e) || !d.cueBefore(s, 24, phoneCueRe) {
 			return
 		}
 		cs = append(cs, cand{typ: Phone, start: s, end: e})
@@ -323,7 +354,7 @@ func (d *doc) vins(cs []cand) []cand {
 const (
 	monthPat = `(?:Jan(?:uary)?|Feb(?:ruary)?|Mar(?:ch)?|Apr(?:il)?|May|June?|July?|Aug(?:ust)?|Sep(?:t(?:ember)?)?|Oct(?:ober)?|Nov(?:ember)?|Dec(?:ember)?)\.?`
 	datePat  = `(?:[0-9]{1,2}[/.-][0-9]{1,2}[/.-](?:[0-9]{4}|[0-9]{2})|[0-9]{4}-[0-9]{1,2}-[0-9]{1,2}|` + monthPat + `\s+[0-9]{1,2}(?:st|nd|rd|th)?,?\s+[0-9]{4}|[0-9]{1,2}(?:st|nd|rd|th)?\s+` + monthPat + `,?\s+[0-9]{4})`
-	dobCue   = `(?:\bd\.?\s?o\.?\s?b\b\.?|\bdate\s+of\s+birth\b|\bbirth\s?date\b|\bbirthday\b|\bborn\b)`
+	dobCue   = `(?:\bd\.?\s?o\.?\s?b\b\.?|\b[a-z]{2,6}\s+of\s+birth\b|\bbirth\s?date\b|\bbirthday\b|\bborn\b)`
 	dobGap   = `[\s:;,(=#-]*(?:(?:on|of|is|was|in|listed|given|as|reported|approx\.?|approximately)[\s:;,(=#-]+){0,3}`
 )
 
@@ -336,7 +367,7 @@ var (
 
 func (d *doc) dobs(cs []cand) []cand {
 	trig := d.triggers(d.flagged(fDOB))
-	d.scan(dobRe, trig, 0, 64, func(m []int) {
+	d.scan(dobRe, trig, 16, 64, func(m []int) {
 		s, e := m[2], m[3]
 		if d.wordAfter(e) {
 			return
@@ -389,7 +420,7 @@ func (d *doc) ages(cs []cand) []cand {
 // letters and digits with at least one digit, in one or two groups.
 var plateTrig = set("license licence plate plates tag tags registration reg lic lp")
 
-var plateRe = regexp.MustCompile(`(?i)\b(?:license\s+plate|licence\s+plate|plates?|tags?|registration|reg|lic|license|licence|lp)\b\.?(?:\s?(?:#|no\.?|num\.?|nbr\.?|number|:|-|reading|of|was|is|displaying|bearing|showing|state)\s?|\s+(?-i:A[LKZR]|C[AOT]|D[EC]|FL|GA|HI|I[DLNA]|K[SY]|LA|M[EDAINSOT]|N[EVHJMYCD]|O[HKR]|PA|RI|S[CD]|T[NX]|UT|V[TA]|W[AVIY]|PR)\s+)*\s?(?-i:([A-Z0-9]{1,4}(?:[ -][A-Z0-9]{1,5})?|[A-Z0-9]{5,8}))\b`)
+var plateRe = regexp.MustCompile(`(?i)\b(?:license\s+plate|licence\s+plate|plates?|tags?|registration|reg|lic|license|licence|lp)\b\.?(?:\s{0,8}(?:#|no\.?|num\.?|nbr\.?|number|:|-|reading|of|was|is|displaying|bearing|showing|state)\s{0,8}|\s+(?-i:A[LKZR]|C[AOT]|D[EC]|FL|GA|HI|I[DLNA]|K[SY]|LA|M[EDAINSOT]|N[EVHJMYCD]|O[HKR]|PA|RI|S[CD]|T[NX]|UT|V[TA]|W[AVIY]|PR)\s+)*\s{0,8}(?-i:([A-Z0-9]{1,4}(?:[ -][A-Z0-9]{1,5})?|[A-Z0-9]{5,8}))\b`)
 
 func (d *doc) plates(cs []cand) []cand {
 	d.scan(plateRe, d.triggers(d.flagged(fPlate)), 0, 48, func(m []int) {
@@ -423,6 +454,10 @@ func (d *doc) plates(cs []cand) []cand {
 				return
 			}
 		}
+		// "plate AZ 71305": a state code before digits is part of the plate as written.
+		if letters == 0 && s >= 3 && d.text[s-1] == ' ' && isUpperByte(d.text[s-2]) && isUpperByte(d.text[s-3]) && (s == 3 || !isAlnumByte(d.text[s-4])) {
+			s -= 3
+		}
 		cs = append(cs, cand{typ: Plate, start: s, end: e})
 	})
 	return cs
@@ -434,7 +469,7 @@ var dateRe = regexp.MustCompile(`^(?:[0-9]{1,2}[/-][0-9]{1,2}[/-][0-9]{2,4}|[0-9
 
 var caseTrig = set("case incident inc report rpt file complaint cad event ticket citation warrant docket booking reference ref control ccn dr ir cr rms")
 
-var caseRe = regexp.MustCompile(`(?i)\b(?:case|incident|inc|report|rpt|file|complaint|cad|event|ticket|citation|warrant|docket|booking|reference|ref|control|ccn|dr|ir|cr|rms)\b\.?((?:\s?(?:#|no\.?|num\.?|nbr\.?|number|:)\s?)*)\s?([A-Z]{0,4}-?[0-9]{2,}(?:[-/][0-9A-Z]+)*)\b`)
+var caseRe = regexp.MustCompile(`(?i)\b(?:case|incident|inc|report|rpt|file|complaint|cad|event|ticket|citation|warrant|docket|booking|reference|ref|control|ccn|dr|ir|cr|rms)\b\.?((?:\s{0,8}(?:#|no\.?|num\.?|nbr\.?|number|:)\s{0,8})*)\s{0,8}([A-Z]{0,4}-?[0-9]{2,}(?:[-/][0-9A-Z]+)*)\b`)
 
 func (d *doc) caseNos(cs []cand) []cand {
 	d.scan(caseRe, d.triggers(d.flagged(fCase)), 0, 48, func(m []int) {
@@ -450,6 +485,10 @@ func (d *doc) caseNos(cs []cand) []cand {
 		if digits < 4 || dateRe.MatchString(v) {
 			return // too short, or a date ("incident 10/21/2000")
 		}
+		// "See supplemental report. 10-98, back in service": a sentence ends after the cue.
+		if marker == "" && strings.Contains(d.text[m[0]:s], ". ") {
+			return
+		}
 		if marker == "" {
 			if y, err := strconv.Atoi(v); err == nil && len(v) == 4 && y >= 1900 && y <= 2099 {
 				return // "incident 2017" is a year
@@ -460,11 +499,13 @@ func (d *doc) caseNos(cs []cand) []cand {
 			if strings.HasPrefix(cue, "dr") || strings.HasPrefix(cue, "ir") || strings.HasPrefix(cue, "cr") {
 				return
 			}
-			if digits < 5 && !strings.ContainsAny(v, "-/ABCDEFGHIJKLMNOPQRSTUVWXYZabcdefghijklmnopqrstuvwxyz") {
-				return
+			if digits < 5 {
+				return // "Case 1150" is a bulldozer, "10-98" a radio code
 			}
 		}
 		cs = append(cs, cand{typ: CaseNo, start: s, end: e})
 	})
 	return cs
 }
+
+func isUpperByte(b byte) bool { return b >= 'A' && b <= 'Z' }

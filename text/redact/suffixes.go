@@ -69,9 +69,10 @@ var (
 	// "Elm St and 4th Ave".
 	crossRe = regexp.MustCompile(`(?:^|[^A-Za-z0-9])(` + streetPat + `\s?(?:(?i:and|at)|&|/|@)\s?` + streetPat + `)`)
 	// "the corner of Elm and Oak", "intersection of Main St & 4th Ave".
-	cornerRe = regexp.MustCompile(`(?i:corner|intersection)\s(?i:of)\s(` + streetWord + `(?:\s` + streetWord + `){0,2}(?:\s` + suffixPat() + `\b\.?)?\s?(?:(?i:and)|&|/)\s?` + streetWord + `(?:\s` + streetWord + `){0,2}(?:\s` + suffixPat() + `\b\.?)?)`)
-	atAndRe   = regexp.MustCompile(`\b(?i:at)\s((` + streetWord + `)\s?(?:(?i:and)|&)\s?(` + streetWord + `))\b(?:\s[A-Z])?`)
-	ordinalRe = regexp.MustCompile(`^[0-9]{1,3}(?i:st|nd|rd|th)$`)
+	cornerRe   = regexp.MustCompile(`(?i:corner|intersection)\s(?i:of)\s(` + streetWord + `(?:\s` + streetWord + `){0,2}(?:\s` + suffixPat() + `\b\.?)?\s?(?:(?i:and)|&|/)\s?` + streetWord + `(?:\s` + streetWord + `){0,2}(?:\s` + suffixPat() + `\b\.?)?)`)
+	atAndPreps = set("at near to on from")
+	atAndRe    = regexp.MustCompile(`\b(?i:at|near|to|on|from)\s((` + streetWord + `)\s?(?:(?i:and)|&)\s?(` + streetWord + `))\b(?:\s[A-Z])?`)
+	ordinalRe  = regexp.MustCompile(`^[0-9]{1,3}(?i:st|nd|rd|th)$`)
 	// "at Main/Oak", "near 4th/Elm" (only after "at" or "near": "on Air/Ground" and
 	// "from Bendix/King" are not places).
 	slashRe = regexp.MustCompile(`\b(?i:at|near)\s((?:[A-Z][A-Za-z]+|[0-9]{1,3}(?i:st|nd|rd|th))\s?/\s?(?:[A-Z][A-Za-z]+|[0-9]{1,3}(?i:st|nd|rd|th)))\b`)
@@ -121,8 +122,8 @@ func (d *doc) addresses(cs []cand) []cand {
 		return false
 	})
 	add := func(m []int) { cs = append(cs, cand{typ: Address, start: m[0], end: trim(m[0], m[1])}) }
-	d.scan(addressRe, nums, 0, 128, add)
-	d.scan(blockRe, nums, 0, 96, add)
+	d.scanAt(addressRe, nums, 128, add)
+	d.scanAt(blockRe, nums, 96, add)
 	sub := func(m []int) { cs = append(cs, cand{typ: Address, start: m[2], end: trim(m[2], m[3])}) }
 	// an intersection has a suffix word followed by a joining word or sign.
 	cross := d.triggers(func(i int) bool {
@@ -140,9 +141,9 @@ func (d *doc) addresses(cs []cand) []cand {
 		return w == "and" || w == "&" || w == "at" || w == "/" || w == "@"
 	})
 	d.scan(crossRe, cross, 64, 80, sub)
-	// "at Marrowell and Quennel": two bare street names after "at"; each must be an
+	// "at Marrowell and Quennel": two bare street names after "at", "near", "to" ...; each must be an
 	// ordinal or a word that is not an ordinary word or a given name.
-	d.scan(atAndRe, d.triggers(func(i int) bool { return d.toks[i].kind == tWord && d.lower[i] == "at" }), 0, 64, func(m []int) {
+	d.scan(atAndRe, d.triggers(func(i int) bool { return d.toks[i].kind == tWord && atAndPreps[d.lower[i]] && d.pairAhead(i+1) }), 0, 64, func(m []int) {
 		listsOnce.Do(loadLists)
 		for _, g := range [][2]int{{m[4], m[5]}, {m[6], m[7]}} {
 			w := d.text[g[0]:g[1]]
@@ -167,4 +168,21 @@ func (d *doc) addresses(cs []cand) []cand {
 		sub(m)
 	})
 	return cs
+}
+
+// pairAhead reports whether token i starts "Name and" or "4th and" (or "&"): the start of
+// a bare street pair.
+func (d *doc) pairAhead(i int) bool {
+	if i >= len(d.toks) {
+		return false
+	}
+	j := i + 1
+	switch t := d.toks[i]; {
+	case t.kind == tWord && d.text[t.start] >= 'A' && d.text[t.start] <= 'Z':
+	case t.kind == tNum && j < len(d.toks) && d.toks[j].kind == tWord && d.toks[j].start == t.end:
+		j++ // "4th"
+	default:
+		return false
+	}
+	return j < len(d.toks) && (d.lower[j] == "and" || d.isPunct(j, "&"))
 }

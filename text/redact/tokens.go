@@ -22,7 +22,8 @@ type tok struct {
 
 // doc is one narrative being scanned.
 type doc struct {
-	text      string
+	text      string // the narrative as detectors read it (see htmlView)
+	orig      string // the narrative as given
 	r         *Redactor
 	masks     [][]int
 	toks      []tok

@@ -42,13 +42,21 @@ func AllTypes() []Type {
 	return out
 }
 
-// ParseType returns the Type whose String is s (case-insensitive).
+// ParseType returns the Type whose String is s (case-insensitive). It also accepts the
+// ground-truth labels of the demo corpus that are finer than Type: "case_number",
+// "address_block" and "intersection".
 func ParseType(s string) (Type, bool) {
 	s = strings.ToLower(strings.TrimSpace(s))
 	for t := Name; t < numTypes; t++ {
 		if typeNames[t] == s {
 			return t, true
 		}
+	}
+	switch s {
+	case "case_number", "case":
+		return CaseNo, true
+	case "address_block", "intersection":
+		return Address, true
 	}
 	return 0, false
 }

@@ -1,16 +1,3 @@
-// Package routine finds near-duplicate narratives with MinHash signatures over word shingles.
-//
-// A narrative's shingles are its runs of k consecutive tokens (k = 3 by default; a narrative
-// shorter than k is one shingle). The signature is a one-permutation MinHash (Li, Owen and
-// Zhang 2012, "One permutation hashing", NIPS): each shingle is hashed once with a seeded
-// hash, the hash's top bits choose one of h bins and each bin keeps its least hash (an empty
-// bin holds the all-ones value). The share of equal entries among the bins that are not empty
-// in both signatures estimates the Jaccard similarity of the shingle sets (Broder 1997, "On
-// the resemblance and containment of documents"; Li et al.'s estimator without
-// densification). Candidate pairs come from banding (b bands of
-// h/b rows: two narratives are candidates when any band matches exactly; Leskovec, Rajaraman
-// and Ullman, "Mining of Massive Datasets", ch. 3) and are kept when the estimate reaches the
-// threshold. Groups are the connected components of kept pairs.
 package routine
 
 import "math/rand/v2"
@@ -144,7 +131,7 @@ func (h *Hasher) GroupsParallel(sigs [][]uint64, run func(n int, f func(b int)))
 	rows := h.s.Hashes / h.s.Bands
 	pairs := make([][][2]int32, h.s.Bands)
 	run(h.s.Bands, func(b int) {
-		first := make(map[uint64]int32, len(sigs))
+		first := newFirstTable(len(sigs))
 		var out [][2]int32
 		for i, sig := range sigs {
 			if len(sig) != h.s.Hashes {
@@ -159,9 +146,8 @@ func (h *Hasher) GroupsParallel(sigs [][]uint64, run func(n int, f func(b int)))
 			if !filled {
 				continue // an all-empty band says nothing
 			}
-			j, ok := first[key]
+			j, ok := first.getOrPut(key, int32(i))
 			if !ok {
-				first[key] = int32(i)
 				continue
 			}
 			if Similarity(sig, sigs[j]) >= h.s.Threshold {
@@ -218,4 +204,39 @@ func Similarity(a, b []uint64) float64 {
 		return 0
 	}
 	return float64(eq) / float64(n)
+}
+
+// firstTable maps a band key to the first narrative seen with it: open addressing with linear
+// probing, sized for n keys at load at most 1/2, key and value side by side (one cache line
+// per probe; faster than a map for this insert-heavy use).
+type firstTable struct {
+	slots []fslot
+	mask  uint64
+}
+
+type fslot struct {
+	key uint64
+	val int32 // index+1; 0 marks an empty slot
+}
+
+func newFirstTable(n int) *firstTable {
+	size := 16
+	for size < 2*n {
+		size *= 2
+	}
+	return &firstTable{slots: make([]fslot, size), mask: uint64(size - 1)}
+}
+
+// getOrPut returns the value stored under key and true, or stores v and returns false.
+func (t *firstTable) getOrPut(key uint64, v int32) (int32, bool) {
+	for i := mix(key) & t.mask; ; i = (i + 1) & t.mask {
+		sl := &t.slots[i]
+		if sl.val == 0 {
+			sl.key, sl.val = key, v+1
+			return 0, false
+		}
+		if sl.key == key {
+			return sl.val - 1, true
+		}
+	}
 }

@@ -174,3 +174,35 @@ func (b *Builder) Grow(rows, nnz int) {
 	b.m.Indices = slices.Grow(b.m.Indices, nnz)
 	b.m.Data = slices.Grow(b.m.Data, nnz)
 }
+
+// Stack returns the rows of parts one after another (vertical concatenation). Every part must
+// have the same number of columns; Stack panics otherwise. With no parts it returns an empty
+// 0×0 matrix.
+func Stack(parts ...*Matrix) *Matrix {
+	out := &Matrix{Indptr: []int{0}}
+	if len(parts) == 0 {
+		return out
+	}
+	out.Cols = parts[0].Cols
+	nnz, rows := 0, 0
+	for _, p := range parts {
+		if p.Cols != out.Cols {
+			panic("sparse: stacked matrices differ in column count")
+		}
+		nnz += p.NNZ()
+		rows += p.Rows
+	}
+	out.Indptr = slices.Grow(out.Indptr, rows)
+	out.Indices = make([]int32, 0, nnz)
+	out.Data = make([]float64, 0, nnz)
+	for _, p := range parts {
+		base := len(out.Indices)
+		for _, v := range p.Indptr[1:] {
+			out.Indptr = append(out.Indptr, base+v)
+		}
+		out.Indices = append(out.Indices, p.Indices...)
+		out.Data = append(out.Data, p.Data...)
+		out.Rows += p.Rows
+	}
+	return out
+}

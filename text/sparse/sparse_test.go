@@ -45,3 +45,24 @@ func TestAddIDs(t *testing.T) {
 		t.Fatalf("AddIDs %+v != AddCounts %+v", b.Matrix(), a.Matrix())
 	}
 }
+
+// Stack of row blocks equals building all rows in one Builder.
+func TestStack(t *testing.T) {
+	rows := [][]int32{{0, 2}, nil, {1, 1}, {2}}
+	all := NewBuilder(3)
+	a, b := NewBuilder(3), NewBuilder(3)
+	for i, r := range rows {
+		all.AddIDs(append([]int32(nil), r...))
+		if i < 2 {
+			a.AddIDs(append([]int32(nil), r...))
+		} else {
+			b.AddIDs(append([]int32(nil), r...))
+		}
+	}
+	if got, want := Stack(a.Matrix(), b.Matrix()), all.Matrix(); !reflect.DeepEqual(got.Dense(), want.Dense()) || !reflect.DeepEqual(got.Indptr, want.Indptr) {
+		t.Fatalf("Stack %+v, want %+v", got, want)
+	}
+	if m := Stack(); m.Rows != 0 || len(m.Indptr) != 1 {
+		t.Fatal("empty Stack")
+	}
+}

@@ -53,6 +53,10 @@ with open(os.path.join(here, '..', 'words_en.txt'), 'w') as out:
     out.write('# 2004,2005, Richard Boulton; BSD licence (snowball-data COPYING). Parts 2 and 3\n')
     out.write('# are derived by this project. One lower-case word a line; a leading "~" marks a\n')
     out.write('# word found only in part 1 (literary vocabulary, which includes some surnames).\n')
+    out.write('# The Snowball licence, as it must accompany part 1:\n')
+    with open(os.path.join(shared, 'refdata/snowball-english/COPYING')) as lic:
+        for line in lic:
+            out.write(('# ' + line.rstrip()).rstrip() + '\n')
     for w in sorted(words):
         out.write(w + '\n' if w in common else '~' + w + '\n')
 print('snowball', n1, 'safenet', len(safenet), 'total', len(words), file=sys.stderr)

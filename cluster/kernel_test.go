@@ -1,36 +1,10 @@
 package cluster
 
-import (
-	"fmt"
-	"os"
-	"syscall"
-	"testing"
-	"time"
-)
+import "testing"
 
-func cpuTime() time.Duration {
-	var r syscall.Rusage
-	syscall.Getrusage(syscall.RUSAGE_SELF, &r)
-	return time.Duration(r.Utime.Nano() + r.Stime.Nano())
-}
-
-func TestCPUWard(t *testing.T) {
-	if os.Getenv("UC_CPU") == "" {
-		t.Skip()
-	}
-	x := dirichletRows(5000, 20, benchSeed)
-	defer func(v int) { headSplit = v }(headSplit)
-	best := map[int]time.Duration{20: time.Hour, 99: time.Hour}
-	for r := 0; r < 3; r++ {
-		for _, hs := range []int{20, 99} {
-			headSplit = hs
-			c0 := cpuTime()
-			LinkVectors(x, nil, Ward, &Settings{Workers: 1})
-			best[hs] = min(best[hs], cpuTime()-c0)
-		}
-	}
-	fmt.Println("cpu head16", best[20], "head12", best[99])
-}
+// These tests check the assembly kernels (kernel_amd64.s) against the
+// portable code: the same bits and the same pruning decisions. With
+// -tags purego, or without AVX2, both sides are the portable code.
 
 // TestKernels: the AVX2 kernels agree with the portable code bit for bit
 // (partial sums) and on every pruning decision.
@@ -63,6 +37,8 @@ func TestKernels(t *testing.T) {
 	}
 }
 
+// TestSqdistKernel: sqdist (AVX2 from 8 coordinates up) equals sqdistGo
+// bit for bit for every length and tail.
 func TestSqdistKernel(t *testing.T) {
 	x := dirichletRows(50, 37, 8)
 	for n := 0; n <= 37; n++ {
@@ -73,36 +49,6 @@ func TestSqdistKernel(t *testing.T) {
 			}
 		}
 	}
-}
-
-func TestCPUAverage(t *testing.T) {
-	if os.Getenv("UC_CPU") == "" {
-		t.Skip()
-	}
-	x := dirichletRows(5000, 20, benchSeed)
-	c0 := cpuTime()
-	w0 := time.Now()
-	d := EuclideanCondensed(nil, x, &Settings{Workers: 1})
-	fmt.Println("pdist cpu", cpuTime()-c0, "wall", time.Since(w0))
-	c0 = cpuTime()
-	w0 = time.Now()
-	Link(d, Average, &Settings{Workers: 1})
-	fmt.Println("link cpu", cpuTime()-c0, "wall", time.Since(w0))
-}
-
-func TestCPUSummary(t *testing.T) {
-	if os.Getenv("UC_CPU") == "" {
-		t.Skip()
-	}
-	x := dirichletRows(20000, 20, benchSeed)
-	flat, w, d, _ := flatten(x, nil)
-	c0 := cpuTime()
-	cent := seedPlusPlus(flat, w, len(x), d, 1000, 1, 1)
-	fmt.Println("seed cpu", cpuTime()-c0)
-	c0 = cpuTime()
-	assign := make([]int, len(x))
-	lloyd(flat, w, len(x), d, 1000, cent, assign, 10, 1)
-	fmt.Println("lloyd cpu", cpuTime()-c0)
 }
 
 // TestNearest2: the pruned scan equals a full scan.
@@ -134,6 +80,7 @@ func TestNearest2(t *testing.T) {
 	}
 }
 
+// TestKernel12: as TestKernels for the twelve-coordinate stage.
 func TestKernel12(t *testing.T) {
 	x := dirichletRows(700, 20, 6)
 	var c, w []float64
@@ -160,6 +107,7 @@ func TestKernel12(t *testing.T) {
 	}
 }
 
+// TestKernel16: as TestKernels for the sixteen-coordinate stage.
 func TestKernel16(t *testing.T) {
 	x := dirichletRows(700, 20, 6)
 	var c, w []float64
@@ -181,6 +129,24 @@ func TestKernel16(t *testing.T) {
 		for k := range m1 {
 			if m1[k] != m2[k] {
 				t.Fatalf("lim %v mask %d: %x vs %x", lim, k, m1[k], m2[k])
+			}
+		}
+	}
+}
+
+// TestRowDist: the batched Euclidean kernel equals euclid bit for bit.
+func TestRowDist(t *testing.T) {
+	for _, d := range []int{3, 8, 9, 20, 23} {
+		x := dirichletRows(40, d, uint64(d))
+		var c []float64
+		for _, r := range x {
+			c = append(c, r...)
+		}
+		out := make([]float64, 40)
+		rowDist(x[5], c, out)
+		for k := range out {
+			if w := euclid(x[5], x[k]); out[k] != w {
+				t.Fatalf("d=%d row %d: %v vs %v", d, k, out[k], w)
 			}
 		}
 	}

@@ -1,0 +1,5 @@
+//go:build !linux
+
+package cluster
+
+func adviseHuge(s []float64) {}
