@@ -133,3 +133,34 @@ func TestRepairOnPlantedNoise(t *testing.T) {
 		t.Errorf("repair precision %.4f, recall %.4f: below the floors 0.95 and 0.85", precision, recall)
 	}
 }
+
+// TestRedactionOnPIIFreeNarratives counts redactions in the demo narratives that carry no
+// planted PII. Goal (issue 6): at most 1 false redaction per 1,000 tokens (tokens counted as
+// whitespace-separated words).
+func TestRedactionOnPIIFreeNarratives(t *testing.T) {
+	c := demotown.Generate(demotown.Config{})
+	r, err := redact.New(redact.Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	tokens, falses, docs := 0, 0, 0
+	for i, inc := range c.Incidents {
+		if !c.Truth[i].NoPII {
+			continue
+		}
+		docs++
+		tokens += len(strings.Fields(inc.Narrative))
+		_, found := r.Redact(inc.Narrative)
+		falses += len(found)
+		for _, s := range found {
+			if falses <= 10 {
+				t.Logf("false redaction %s %q in %s", s.Type, s.Text, inc.ID)
+			}
+		}
+	}
+	per1k := 1000 * float64(falses) / float64(tokens)
+	t.Logf("%d PII-free narratives, %d tokens, %d redactions: %.3f per 1,000 tokens", docs, tokens, falses, per1k)
+	if per1k > 1 {
+		t.Errorf("%.3f false redactions per 1,000 tokens, goal at most 1", per1k)
+	}
+}
