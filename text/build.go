@@ -792,6 +792,8 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		}
 		sigs := make([][]uint64, len(docs))
 		bufs := make([][]uint64, workers())
+		minDup := orInt(s.Routine.MinDupContent, 8)
+		short := make([]bool, len(docs))
 		const per = 256
 		parallelFor((len(docs)+per-1)/per, func(w, k int) {
 			for d := k * per; d < min((k+1)*per, len(docs)); d++ {
@@ -802,6 +804,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 					}
 				}
 				sigs[d] = h.Signature(nil, buf)
+				short[d] = len(buf) < minDup
 				bufs[w] = buf
 			}
 		})
@@ -810,9 +813,13 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		for _, r := range g {
 			size[r]++
 		}
-		minGroup := orInt(s.Routine.MinGroup, 3)
+		minGroup, minShort := orInt(s.Routine.MinGroup, 3), orInt(s.Routine.MinShortGroup, 10)
 		for d, r := range g {
-			if size[r] >= minGroup {
+			need := minGroup
+			if short[d] {
+				need = max(minGroup, minShort)
+			}
+			if size[r] >= need {
 				c.DupGroup[d] = r
 				if c.Routine[d] == NotRoutine {
 					c.Routine[d] = Duplicate

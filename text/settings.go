@@ -127,6 +127,11 @@ type RoutineSettings struct {
 	// NearDup sets aside groups of at least MinGroup exact or near-duplicate narratives.
 	NearDup  bool `json:"near_dup"`
 	MinGroup int  `json:"min_group"` // zero means 3
+	// MinDupContent: a narrative with fewer content tokens is short; short narratives
+	// coincide by chance ("dog bit a child at 3rd Ave"), so a short one is set aside as a
+	// duplicate only in a group of at least MinShortGroup. Zero means 8.
+	MinDupContent int `json:"min_dup_content"`
+	MinShortGroup int `json:"min_short_group"` // zero means 10
 	routine.Settings
 }
 
@@ -149,9 +154,11 @@ func DefaultSettings() Settings {
 				"neighborhood", "vicinity", "block", "twice", "needed", "prior", "suspicious", "matching", "description",
 				"make", "made", "caller", "one", "signs", "sign", "activity", "seen", "report", "upon",
 				"remained", "returned", "service", "complainant", "searched", "search", "extra", "requested", "heard"},
-			NearDup:  true,
-			MinGroup: 3,
-			Settings: routine.Settings{Shingle: 3, Hashes: 32, Bands: 8, Threshold: 0.8, Seed: 1},
+			NearDup:       true,
+			MinGroup:      3,
+			MinDupContent: 8,
+			MinShortGroup: 10,
+			Settings:      routine.Settings{Shingle: 3, Hashes: 32, Bands: 8, Threshold: 0.8, Seed: 1},
 		},
 	}
 }
