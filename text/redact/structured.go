@@ -361,7 +361,7 @@ const (
 var dobTrig = set("dob d date birth birthdate birthday born")
 
 var (
-	dobRe      = regexp.MustCompile(`(?i)` + dobCue + dobGap + `(` + datePat + `|[0-9]{4})\b`)
+	dobRe      = regexp.MustCompile(`(?i)` + dobCue + dobGap + `(` + datePat + `|[0-9]{8}|[0-9]{4})\b`)
 	dobAfterRe = regexp.MustCompile(`(?i)\b(` + datePat + `)\s?\(?\s?(?:d\.?o\.?b\b\.?)`)
 )
 
