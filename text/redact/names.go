@@ -241,6 +241,14 @@ func (d *doc) nameToken(i int) bool {
 // or "LAST, FIRST". It returns the index after the last token used and the name words.
 func (d *doc) nameSeq(i int) (end int, parts []string) {
 	j := i
+	// "juvenile J.D.": initials alone, two or more.
+	if k := d.initialsAt(j); k >= j+4 {
+		var b strings.Builder
+		for m := j; m < k; m += 2 {
+			b.WriteString(d.lower[m])
+		}
+		return k, []string{b.String()}
+	}
 	// In capitals a first word that is a dictionary word ("JURA") is taken when a clear
 	// name word follows it ("JURA PRITCHLEY").
 	if d.caps && !d.nameToken(j) && d.capsSurname(j) && d.nameToken(j+1) && d.toks[j+1].nl == 0 {
@@ -392,6 +400,42 @@ func (d *doc) names(cs []cand) []cand {
 			cs = d.capsNames(cs)
 		} else {
 			cs = d.heuristicNames(cs)
+		}
+	}
+	if d.r.opt.Types.Has(Age) {
+		cs = d.agesAfterNames(cs)
+	}
+	return cs
+}
+
+// initialsAt returns the index after a run of initials starting at token j ("J.D.",
+// "J. D."), or j when there is none.
+func (d *doc) initialsAt(j int) int {
+	k := j
+	for d.isInitial(k) {
+		k += 2
+	}
+	return k
+}
+
+// agesAfterNames finds an age written right after a name: "Ann Quosby (45)",
+// "Ann Quosby, 45, of ...".
+func (d *doc) agesAfterNames(cs []cand) []cand {
+	n := len(cs)
+	for _, c := range cs[:n] {
+		if c.typ != Name {
+			continue
+		}
+		i := d.tokenAt(c.end)
+		switch {
+		case d.isPunct(i, "(") && i+2 < len(d.toks) && d.toks[i+1].kind == tNum && d.isPunct(i+2, ")"):
+			if v := d.toks[i+1].end - d.toks[i+1].start; v <= 2 {
+				cs = append(cs, cand{typ: Age, start: d.toks[i].start, end: d.toks[i+2].end})
+			}
+		case d.isPunct(i, ",") && i+2 < len(d.toks) && d.toks[i+1].kind == tNum && d.isPunct(i+2, ","):
+			if v := d.toks[i+1].end - d.toks[i+1].start; v <= 2 && d.toks[i+1].start > d.toks[i].end {
+				cs = append(cs, cand{typ: Age, start: d.toks[i+1].start, end: d.toks[i+1].end})
+			}
 		}
 	}
 	return cs

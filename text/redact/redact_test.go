@@ -134,6 +134,7 @@ func TestDOBAndAge(t *testing.T) {
 		{"born in 1985", []string{"1985"}},
 		{"on 01/02/1990 the car", nil}, // a date with no cue
 		{"1/2/1990 (DOB)", []string{"1/2/1990"}},
+		{"DOB: 19900102", []string{"19900102"}},
 		{"date of birth&nbsp;07/23/1958.", []string{"07/23/1958"}},  // HTML residue between cue and date
 		{"her clate of birth as 4/22/2004.", []string{"4/22/2004"}}, // OCR: "cl" for "d"
 	})
@@ -210,6 +211,8 @@ func TestNames(t *testing.T) {
 		{"the driver, identifiecl as Amanda Quarrison by license.", "the driver, identifiecl as [NAME-1] by license."},
 		{"Animal complaint, German shepherd at large.", "Animal complaint, German shepherd at large."},
 		{"Ofc. Quosby #4412 arrived; Sgt. Marlow Trennick took the report.", "Ofc. [NAME-1] arrived; Sgt. [NAME-2] took the report."},
+		{"Victim Ann Quosby (45) and juvenile J.D. were home.", "Victim [NAME-1] [AGE] and juvenile [NAME-2] were home."},
+		{"Suspect Tamo Dellwick, 23, of Pell Lane fled.", "Suspect [NAME-1], [AGE], of Pell Lane fled."},
 		{"A bystander saw Mary-Jane Quosby near the gate.", "A bystander saw [NAME-1] near the gate."},
 		{"Victim José García said Coworker #1 left.", "Victim [NAME-1] said Coworker #1 left."},
 		{"A bystander saw Corvin Ashvley near the gate.", "A bystander saw [NAME-1] near the gate."},

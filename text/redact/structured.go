@@ -133,13 +133,6 @@ func (d *doc) triggers(keep func(i int) bool) []int {
 	return out
 }
 
-// wordIn returns a trigger test for word tokens whose lower-case form is in set.
-func (d *doc) wordIn(set map[string]bool) func(i int) bool {
-	return func(i int) bool {
-		return d.toks[i].kind == tWord && set[d.lower[i]]
-	}
-}
-
 // numLen returns a trigger test for digit tokens of the given lengths.
 func (d *doc) numLen(ls ...int) func(i int) bool {
 	return func(i int) bool {
@@ -361,7 +354,7 @@ const (
 var dobTrig = set("dob d date birth birthdate birthday born")
 
 var (
-	dobRe      = regexp.MustCompile(`(?i)` + dobCue + dobGap + `(` + datePat + `|[0-9]{4})\b`)
+	dobRe      = regexp.MustCompile(`(?i)` + dobCue + dobGap + `(` + datePat + `|[0-9]{8}|[0-9]{4})\b`)
 	dobAfterRe = regexp.MustCompile(`(?i)\b(` + datePat + `)\s?\(?\s?(?:d\.?o\.?b\b\.?)`)
 )
 
