@@ -465,7 +465,7 @@ func buildData(ctx context.Context, e *env, f *jobFlags, p *prepared, m *topics.
 	}
 
 	d.Methods = methods(f, p, m, k)
-	d.Cautions = []string{redact.Cautions}
+	d.Cautions = cautionItems(redact.Cautions)
 	d.DataQuality = dataQuality(p, series)
 	counts := map[string]int{}
 	for _, t := range redact.AllTypes() {
@@ -475,6 +475,40 @@ func buildData(ctx context.Context, e *env, f *jobFlags, p *prepared, m *topics.
 	}
 	d.Redaction = report.RedactionCountsFrom(counts)
 	return d, nil
+}
+
+// cautionItems splits a caution text into items: its opening paragraph, each "- " bullet,
+// and its closing paragraph, each with its line breaks joined.
+func cautionItems(s string) []string {
+	var items []string
+	var cur []string
+	inBullet := false
+	flush := func() {
+		if len(cur) > 0 {
+			items = append(items, strings.Join(cur, " "))
+			cur = nil
+		}
+	}
+	for _, line := range strings.Split(s, "\n") {
+		t := strings.TrimSpace(line)
+		switch {
+		case t == "":
+			flush()
+			inBullet = false
+		case strings.HasPrefix(t, "- "):
+			flush()
+			inBullet = true
+			cur = append(cur, strings.TrimPrefix(t, "- "))
+		case inBullet && !strings.HasPrefix(line, " "):
+			flush() // a paragraph after the bullets
+			inBullet = false
+			cur = append(cur, t)
+		default:
+			cur = append(cur, t)
+		}
+	}
+	flush()
+	return items
 }
 
 func nanToZero(x float64) float64 {

@@ -55,3 +55,14 @@ func TestEveryCommandHasHelp(t *testing.T) {
 		}
 	}
 }
+
+// cautionItems turns the redactor's caution text (a paragraph, "- " bullets with indented
+// continuation lines, a closing paragraph) into one report item each.
+func TestCautionItems(t *testing.T) {
+	in := "Intro line one\nline two:\n- first bullet\n  continued\n- second\nClosing one\nclosing two."
+	want := []string{"Intro line one line two:", "first bullet continued", "second", "Closing one closing two."}
+	got := cautionItems(in)
+	if strings.Join(got, "|") != strings.Join(want, "|") {
+		t.Fatalf("cautionItems = %q, want %q", got, want)
+	}
+}
