@@ -7,6 +7,7 @@ import (
 	"sort"
 	"strings"
 	"sync/atomic"
+	"undercurrent/text/lexicon"
 	"unicode"
 	"unicode/utf8"
 
@@ -320,7 +321,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		var cand []int32
 		for id := 0; id < nScanned; id++ {
 			sf := surfs[id]
-			if sf.kind != Word || sf.count >= fmin || (sf.count > rmax && ratio < 0) || user[sf.text] || lx.stop.Has(sf.text) || !lettersOnly(sf.text, true) {
+			if sf.kind != Word || sf.count >= fmin || (sf.count > rmax && ratio < 0) || user[sf.text] || lx.stop.Has(sf.text) || !lettersOnly(sf.text, true) || (rs.KeepKnown && lexicon.Has(sf.text)) {
 				continue
 			}
 			if _, ok := lx.abbrev.Lookup(sf.text); ok {

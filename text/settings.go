@@ -105,6 +105,11 @@ type RepairSettings struct {
 	Families bool `json:"families"`
 	// NoJoin switches off rejoining split words ("veh icle" → "vehicle"); zero: on.
 	NoJoin bool `json:"no_join"`
+	// KeepKnown leaves alone every word of the English word list (package lexicon), however
+	// rare in the corpus: on typed exports such as the OSHA abstracts, repair otherwise
+	// "corrected" real words (clay → day, dosing → closing). Zero (false): off;
+	// DefaultSettings turns it on.
+	KeepKnown bool `json:"keep_known"`
 }
 
 // PhraseSettings choose collocation detection.
@@ -141,7 +146,7 @@ func DefaultSettings() Settings {
 		Version: SettingsVersion,
 		Tokens:  TokenSettings{Numbers: Drop, Times: Drop, Dates: Drop, Codes: Keep, MinLength: 2},
 		Stop:    StopSettings{Lists: []string{"en", "boilerplate"}},
-		Repair:  RepairSettings{Enabled: true, RareMax: 2, RareRatio: 50, FrequentMin: 10, MaxCost: 0.5, ShortMaxCost: 0.5, ShortLen: 8, MinLength: 4},
+		Repair:  RepairSettings{Enabled: true, RareMax: 2, RareRatio: 50, FrequentMin: 10, MaxCost: 0.5, ShortMaxCost: 0.5, ShortLen: 8, MinLength: 4, KeepKnown: true},
 		Phrases: PhraseSettings{Enabled: true, Settings: phrase.Settings{MinCount: 5, MinLLR: 10.83}},
 		Vocab:   weight.Pruning{MinDocs: 2, MaxDocShare: 0.95},
 		Weight:  weight.Scheme{TF: weight.TFRaw, IDF: weight.IDFSmooth, Norm: weight.NormL2},

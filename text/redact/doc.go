@@ -49,7 +49,7 @@
 // names always; on the OSHA accident abstracts, which name almost no one, fewer than 0.1
 // redactions per 1,000 tokens are not ages.
 //
-// Word lists: words_en.txt (see testdata/gen_words.py for its sources: the Snowball English
-// sample vocabulary, lower-case words of the SAFENET reports, and a hand-written
-// supplement) and names_en.txt (common US given names and surnames, written from memory).
+// Word lists: the English word list of package lexicon (see text/lexicon for its sources: the
+// Snowball English sample vocabulary, lower-case words of the SAFENET reports, and a
+// hand-written supplement) and names_en.txt (common US given names and surnames, written from memory).
 package redact

@@ -2,22 +2,19 @@ package redact
 
 import (
 	_ "embed"
+
 	"strings"
 	"sync"
+	"undercurrent/text/lexicon"
 	"unicode"
 	"unicode/utf8"
 )
-
-//go:embed words_en.txt
-var wordsEN string
 
 //go:embed names_en.txt
 var namesEN string
 
 var (
 	listsOnce  sync.Once
-	dict       map[string]bool // ordinary English words
-	common     map[string]bool // dict words also seen in lower case in modern reports
 	givenNames map[string]bool
 	surnames   map[string]bool
 	stopNames  map[string]bool // capitalised words that never start or continue a name
@@ -48,18 +45,6 @@ func set(words string) map[string]bool {
 }
 
 func loadLists() {
-	dict, common = map[string]bool{}, map[string]bool{}
-	for _, line := range strings.Split(wordsEN, "\n") {
-		if line == "" || line[0] == '#' {
-			continue
-		}
-		if line[0] == '~' {
-			dict[line[1:]] = true
-			continue
-		}
-		dict[line] = true
-		common[line] = true
-	}
 	givenNames, surnames = map[string]bool{}, map[string]bool{}
 	for _, line := range strings.Split(namesEN, "\n") {
 		f := strings.Fields(line)
@@ -123,12 +108,12 @@ func loadLists() {
 // isDictWord reports whether w (any case) is an ordinary English word.
 func isDictWord(w string) bool {
 	lw := baseWord(w)
-	if dict[lw] {
+	if lexicon.Has(lw) {
 		return true
 	}
 	if strings.Contains(lw, "-") {
 		for _, p := range strings.Split(lw, "-") {
-			if !dict[p] {
+			if !lexicon.Has(p) {
 				return false
 			}
 		}
@@ -140,7 +125,7 @@ func isDictWord(w string) bool {
 // isCommonWord reports whether w is a dictionary word also seen in lower case in modern
 // reports (not only in the literary vocabulary, which holds surnames such as "bromley").
 func isCommonWord(w string) bool {
-	return common[baseWord(w)]
+	return lexicon.Common(baseWord(w))
 }
 
 // baseWord lower-cases w and removes a possessive or a contraction ("Quosby's" → "quosby",
@@ -156,7 +141,7 @@ func baseWord(w string) string {
 			if suf == "'s" {
 				return b
 			}
-			if dict[b] || b == "i" || b == "ca" || b == "wo" {
+			if lexicon.Has(b) || b == "i" || b == "ca" || b == "wo" {
 				return "i" // a known word with a contraction is ordinary
 			}
 		}
@@ -367,7 +352,7 @@ func (d *doc) names(cs []cand) []cand {
 			continue
 		}
 		cues := cuesByFirst[lw]
-		if len(lw) >= 8 && cues == nil && !dict[lw] {
+		if len(lw) >= 8 && cues == nil && !lexicon.Has(lw) {
 			cues = cuesByFirst[longCues[lw[:8]]] // "identifiecl as": OCR noise in a long cue
 		}
 		for _, cue := range cues {
@@ -1011,7 +996,7 @@ func nearCommonWord(lw string) bool {
 		return false
 	}
 	b := []byte(lw)
-	try := func(s []byte) bool { return dict[string(s)] }
+	try := func(s []byte) bool { return lexicon.Has(string(s)) }
 	buf := make([]byte, 0, len(b)+1)
 	for i := range b {
 		buf = append(append(buf[:0], b[:i]...), b[i+1:]...) // deletion
@@ -1054,7 +1039,7 @@ var longCues = map[string]string{"identifi": "identified", "complain": "complain
 // letters, shares w's first eight letters and is within two letters of its length: OCR
 // noise at the end of a long cue ("identifiecl").
 func longCuePrefix(lw, w string) bool {
-	if len(w) < 8 || len(lw) < 8 || lw[:8] != w[:8] || dict[lw] {
+	if len(w) < 8 || len(lw) < 8 || lw[:8] != w[:8] || lexicon.Has(lw) {
 		return false // "complaint" is a word, not a noisy "complainant"
 	}
 	d := len(lw) - len(w)

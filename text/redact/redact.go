@@ -6,6 +6,7 @@ import (
 	"sort"
 	"strconv"
 	"strings"
+	"undercurrent/text/lexicon"
 	"unicode"
 	"unicode/utf8"
 )
@@ -309,7 +310,7 @@ func ocrCue(w string, hash bool) string {
 				diff++
 			}
 		}
-		if diff == 1 && digits <= 1 && (hash || !dict[strings.ToLower(w)]) {
+		if diff == 1 && digits <= 1 && (hash || !lexicon.Has(strings.ToLower(w))) {
 			return c
 		}
 	}

@@ -110,7 +110,7 @@ func (d *doc) tokenize() {
 	for i, t := range d.toks {
 		if t.kind == tWord {
 			d.lower[i] = strings.ToLower(text[t.start:t.end])
-			d.flags[i] = lexicon[d.lower[i]]
+			d.flags[i] = cueFlags[d.lower[i]]
 		}
 	}
 	d.caps = letters >= 12 && upper*10 >= letters*7
@@ -221,8 +221,8 @@ const (
 	fSuffix                     // a street suffix
 )
 
-// lexicon maps lower-case words to their flags, so that each word is looked up once.
-var lexicon = func() map[string]lexFlag {
+// cueFlags maps lower-case words to their flags, so that each word is looked up once.
+var cueFlags = func() map[string]lexFlag {
 	m := map[string]lexFlag{}
 	for f, set := range map[lexFlag]map[string]bool{fDOB: dobTrig, fAge1: ageTrig1, fAge2: ageTrig2, fPlate: plateTrig, fCase: caseTrig, fCorner: cornerTrig} {
 		for w := range set {
