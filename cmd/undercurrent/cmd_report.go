@@ -23,6 +23,7 @@ column, and writes into -out:
 	flags.csv/.json        months that stand out, explained in plain words
 	trends.csv/.json       long-run trend tests per theme
 	groups-<col>.csv/.json theme shares per group, and the chi-square test (-test)
+	words-<col>.csv/.json  words that set each group apart from the rest (weighted log-odds)
 	repairs.csv            every OCR repair the text pipeline made
 	rejects.csv            every input row not kept, with its line and reason
 	themes.ucmodel         the model file, for 'undercurrent tag' and 'describe'

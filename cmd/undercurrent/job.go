@@ -816,6 +816,23 @@ func writeExports(ctx context.Context, f *jobFlags, p *prepared, m *topics.Model
 				return trend.GroupTestTable(gt, trend.GroupSettings{}, pb)
 			}})
 	}
+	for g, name := range p.set.GroupNames {
+		wt, err := groupWordsTable(p, g, pub)
+		if err != nil {
+			return files, err
+		}
+		gname, wtab := "words-"+slugify(name)+".csv", wt
+		tables = append(tables, struct {
+			name string
+			make func(trend.Publish) *trend.Table
+		}{gname, func(pb trend.Publish) *trend.Table {
+			if pb.Everything {
+				t, _ := groupWordsTable(p, g, pb)
+				return t
+			}
+			return wtab
+		}})
+	}
 	for _, t := range tables {
 		path := filepath.Join(out, t.name)
 		if err := trend.WriteFiles(path, t.make(pub)); err != nil {
@@ -833,6 +850,64 @@ func writeExports(ctx context.Context, f *jobFlags, p *prepared, m *topics.Model
 	_ = k
 	_ = ctx
 	return files, nil
+}
+
+// wordsAlpha0 is α_0 of the informative Dirichlet prior of the distinctive-word comparisons:
+// the prior's weight in pseudo-words, spread over the words by their share of the whole
+// collection (Monroe, Colaresi & Quinn 2008, section 3.5). Our choice, not the paper's.
+const wordsAlpha0 = 500
+
+// groupWordsTable compares the words of each value of group column g with the words of all
+// the other values (weighted log-odds with an informative Dirichlet prior), 15 words a side.
+func groupWordsTable(p *prepared, g int, pub trend.Publish) (*trend.Table, error) {
+	disp := p.corpus.Display
+	byGroup := map[string]map[string]int{}
+	total := map[string]int{}
+	for i, r := range p.set.Records {
+		v := r.Groups[g]
+		m := byGroup[v]
+		if m == nil {
+			m = map[string]int{}
+			byGroup[v] = m
+		}
+		cols, vals := p.corpus.Counts.Row(i)
+		for k, c := range cols {
+			w := strings.ReplaceAll(disp[c], "_", " ")
+			m[w] += int(vals[k])
+			total[w] += int(vals[k])
+		}
+	}
+	groups := make([]string, 0, len(byGroup))
+	for v := range byGroup {
+		groups = append(groups, v)
+	}
+	sort.Strings(groups)
+	var out *trend.Table
+	for _, v := range groups {
+		rest := map[string]int{}
+		for w, c := range total {
+			if d := c - byGroup[v][w]; d > 0 {
+				rest[w] = d
+			}
+		}
+		if len(rest) == 0 || len(byGroup[v]) == 0 {
+			continue
+		}
+		scores, err := trend.LogOdds(byGroup[v], rest, trend.WordSettings{Background: total, Alpha0: wordsAlpha0})
+		if err != nil {
+			return nil, err
+		}
+		t := trend.WordTable(scores, v, "rest", 15, pub)
+		if out == nil {
+			out = t
+		} else {
+			out.Rows = append(out.Rows, t.Rows...)
+		}
+	}
+	if out == nil {
+		out = trend.WordTable(nil, "", "rest", 15, pub)
+	}
+	return out, nil
 }
 
 func slugify(s string) string {
