@@ -61,6 +61,7 @@ fi
 if want corpora; then
   note "public corpora (issue 9): whole pipeline and fit, NMI against the ground-truth columns"
   go test -run '^$' -bench '^BenchmarkCorpora$' -benchtime 1x -timeout 60m ./cmd/undercurrent | emit
+  OMP_NUM_THREADS=1 $PY testdata/bench/corpora_ref.py "$SHARED" | emit
 fi
 
 if want tag; then
