@@ -94,7 +94,8 @@ type FileInfo struct {
 	InvalidLines int    // lines not valid in the chosen encoding
 }
 
-// Set is everything Read produced. Read = len(Records) + len(Rejects) always.
+// Set is everything Read produced. Read = Kept() + len(Rejects) always; Kept() is
+// len(Records) for Read; Stream passes its records on and leaves Records empty.
 type Set struct {
 	Records    []Record
 	Rejects    []Reject
@@ -109,12 +110,22 @@ type Set struct {
 	ExtraNames []string
 	Notes      []string // automatic choices and warnings, human-readable, in order
 	Read       int      // data rows read
+	kept       int      // records passed on by Stream (Records is then empty)
+}
+
+// Kept is the number of rows kept: len(Records), or for a Set from Stream or Reader the
+// number of records passed on.
+func (s *Set) Kept() int {
+	if s.kept > 0 {
+		return s.kept
+	}
+	return len(s.Records)
 }
 
 // Summary returns "read R: kept K, rejected J (reason n, ...)"; reasons by count, then name.
 func (s *Set) Summary() string {
 	var b strings.Builder
-	fmt.Fprintf(&b, "read %d: kept %d, rejected %d", s.Read, len(s.Records), len(s.Rejects))
+	fmt.Fprintf(&b, "read %d: kept %d, rejected %d", s.Read, s.Kept(), len(s.Rejects))
 	if rs := RejectCounts(s.Rejects); len(rs) > 0 {
 		b.WriteString(" (")
 		for i, r := range rs {

@@ -25,6 +25,8 @@ type tally struct {
 	step   int
 	sample []sampled
 	tabs   []*tableTally
+	// headers, when not nil, are the files' whole headers (known from an earlier pass).
+	headers [][]string
 }
 
 type sampled struct {
@@ -59,6 +61,9 @@ func (s *tally) add(ti int, header []string, r rawRow) {
 		s.tabs = append(s.tabs, &tableTally{timeIdx: -1})
 	}
 	tt := s.tabs[ti]
+	if s.headers != nil {
+		header = s.headers[ti]
+	}
 	if len(header) > len(tt.cols) || len(r.f) > len(tt.cols) {
 		for c := len(tt.cols); c < max(len(header), len(r.f)); c++ {
 			var ct colTally
