@@ -26,8 +26,9 @@ import (
 // Read makes them, so the records, rejects and notes are Read's (tested record for
 // record). Standard input and gzip files are spooled to a temporary file first, as Read
 // does. The second pass builds the records. Memory, besides a record in flight and the
-// sample: the tally's 64-bit hash and count per distinct value of each id-like column
-// (about 20-30 bytes each), and, for the chosen id column, the ids that occur more than
+// sample: the first pass's 64-bit hash of each row's value in each id-like column (8
+// bytes a row and column, freed after the first pass), and, for the chosen id column,
+// the ids that occur more than
 // once (or look like the file:line of a row without id) with the file, line and a hash
 // of the text of their kept row. Rejects are kept in the Set (there are few; a file of
 // many repeated versions of its reports makes many duplicate-id rejects).
@@ -143,7 +144,7 @@ type streamer struct {
 	s         *Set
 	b         *builder
 	fileIndex map[string]int
-	ids       map[uint64]uint32 // rows per id value (hash), for the chosen id column
+	ids       map[uint64]uint32 // rows per id value (hash) of the chosen id column, for values in several rows
 	first     map[string]keptRow
 	pend      map[string]*pending
 	kept      int
@@ -205,7 +206,7 @@ func openStream(ctx context.Context, paths []string, stdin io.Reader, opt Option
 		return nil, err
 	}
 	if st.b.idCol >= 0 {
-		st.ids = sv.ids[st.b.idCol]
+		st.ids = sv.repeated[st.b.idCol]
 	}
 	for fi, t := range st.tabs {
 		st.note(t.info.Path, fi)

@@ -1,6 +1,7 @@
 package intake
 
 import (
+	"slices"
 	"strings"
 )
 
@@ -15,8 +16,9 @@ const sampleSize = 5000
 //     order), s the smallest power of two that leaves at most sampleSize rows. It is
 //     kept while reading by doubling s (and dropping every other sampled row) whenever
 //     the sample would grow past sampleSize;
-//   - for columns whose header looks like an id (or names Options.ID), the number of rows
-//     per value, by a 64-bit FNV-1a hash of the trimmed value (memory O(distinct values));
+//   - for columns whose header looks like an id (or names Options.ID), a 64-bit FNV-1a
+//     hash of each row's trimmed value (8 bytes a row, sorted at the end to count the
+//     distinct values and find the repeated ones);
 //   - for every column, the counts that decide a date column's reading (dateTally),
 //     taken with Options.Time's column as the date column's time.
 type tally struct {
@@ -43,8 +45,9 @@ type tableTally struct {
 }
 
 type colTally struct {
-	ids   map[uint64]uint32 // id-like columns only
-	dates dateTally
+	idLike bool
+	ids    []uint64 // id-like columns only: the hash of each non-empty value
+	dates  dateTally
 }
 
 func newTally(opt *Options) *tally { return &tally{opt: opt, step: 1} }
@@ -67,9 +70,7 @@ func (s *tally) add(ti int, header []string, r rawRow) {
 	if len(header) > len(tt.cols) || len(r.f) > len(tt.cols) {
 		for c := len(tt.cols); c < max(len(header), len(r.f)); c++ {
 			var ct colTally
-			if c < len(header) && idLike(header[c], s.opt) {
-				ct.ids = map[uint64]uint32{}
-			}
+			ct.idLike = c < len(header) && idLike(header[c], s.opt)
 			tt.cols = append(tt.cols, ct)
 		}
 		if s.opt.Time != "" {
@@ -113,8 +114,8 @@ func (s *tally) add(ti int, header []string, r rawRow) {
 			continue
 		}
 		ct := &tt.cols[c]
-		if ct.ids != nil {
-			ct.ids[hashString(v)]++
+		if ct.idLike {
+			ct.ids = append(ct.ids, hashString(v))
 		}
 		ct.dates.add(v, tv)
 	}
@@ -124,26 +125,23 @@ func (s *tally) add(ti int, header []string, r rawRow) {
 type survey struct {
 	n         int
 	sample    []rowRef
-	ids       []map[uint64]uint32 // per column; nil when not counted
+	distinctN []int               // per column: distinct non-empty values, -1 when not counted
+	repeated  []map[uint64]uint32 // per id-like column: rows per value hash, for values in several rows
 	dates     []dateTally
 	timeMoved bool
 }
 
 // distinct is the number of distinct non-empty values of column c (-1: not counted).
-func (sv *survey) distinct(c int) int {
-	if sv.ids[c] == nil {
-		return -1
-	}
-	return len(sv.ids[c])
-}
+func (sv *survey) distinct(c int) int { return sv.distinctN[c] }
 
 // finish merges the files' tallies; perms are align's permutations.
 func (s *tally) finish(tabs []*table, perms [][]int) *survey {
 	header := tabs[0].header
-	sv := &survey{n: s.n, ids: make([]map[uint64]uint32, len(header)), dates: make([]dateTally, len(header))}
-	for ti, tt := range s.tabs {
-		sv.timeMoved = sv.timeMoved || tt.timeMoved
-		for c := range header {
+	sv := &survey{n: s.n, distinctN: make([]int, len(header)), repeated: make([]map[uint64]uint32, len(header)), dates: make([]dateTally, len(header))}
+	for c := range header {
+		var hs []uint64
+		counted := false
+		for ti, tt := range s.tabs {
 			p := c
 			if perms[ti] != nil {
 				p = perms[ti][c]
@@ -151,18 +149,40 @@ func (s *tally) finish(tabs []*table, perms [][]int) *survey {
 			if p >= len(tt.cols) {
 				continue
 			}
-			ct := tt.cols[p]
+			ct := &tt.cols[p]
 			sv.dates[c].addAll(ct.dates)
-			switch {
-			case ct.ids == nil:
-			case sv.ids[c] == nil:
-				sv.ids[c] = ct.ids
-			default:
-				for h, n := range ct.ids {
-					sv.ids[c][h] += n
+			if ct.idLike {
+				counted = true
+				if hs == nil {
+					hs = ct.ids
+				} else {
+					hs = append(hs, ct.ids...)
 				}
+				ct.ids = nil
 			}
 		}
+		sv.distinctN[c] = -1
+		if !counted {
+			continue
+		}
+		slices.Sort(hs)
+		sv.distinctN[c] = 0
+		rep := map[uint64]uint32{}
+		for i := 0; i < len(hs); {
+			j := i + 1
+			for j < len(hs) && hs[j] == hs[i] {
+				j++
+			}
+			sv.distinctN[c]++
+			if j-i > 1 {
+				rep[hs[i]] = uint32(j - i)
+			}
+			i = j
+		}
+		sv.repeated[c] = rep
+	}
+	for _, tt := range s.tabs {
+		sv.timeMoved = sv.timeMoved || tt.timeMoved
 	}
 	sv.sample = make([]rowRef, len(s.sample))
 	for i, x := range s.sample {
