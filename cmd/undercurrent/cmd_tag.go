@@ -36,8 +36,10 @@ or their order. Tagging a file in one run or in pieces on several machines gives
 rows, so very large files can be split and tagged in parallel by any batch system and the
 outputs joined. (Without an id column, ids are file:line and therefore change when a file
 is split: name the id column with -id.) Narratives stream through in small batches, so
-memory does not grow with the number of tagged narratives beyond what reading the input
-holds.
+memory does not grow with the number of rows: the input is read twice (a first pass makes
+the column choices exactly as the other commands make them; standard input is first
+copied to a temporary file), and between rows only a hash per id value and the repeated
+ids are kept. An Excel workbook is held whole while it is read.
 
 Routine narratives (whose content reduces to a few routine words, as the pipeline settings
 in the model define them) are not tagged with a theme: they get the extra last theme,
@@ -113,10 +115,13 @@ Example:
 				if err != nil {
 					return fmt.Errorf("%s: %w", path, err)
 				}
-				set, err := readInputs(ctx, e, &in, args)
+				rd, err := openInputs(ctx, e, &in, args)
 				if err != nil {
 					return err
 				}
+				defer rd.Close()
+				set := rd.Set()
+				nNotes := len(set.Notes) // printed; the second pass adds its own
 				tg := topics.NewTagger(m, topics.InferSettings{Iterations: iters, Workers: workers})
 				var st tagStats
 				write := func(wide, longW io.Writer) error {
@@ -128,8 +133,7 @@ Example:
 						lw = newChunkWriter(longW, export.WriteLong)
 					}
 					folded := make([]float64, k+1)
-					st, err = tagRecords(ctx, set.Records, red, pipes, tg, func(i int, theta []float64) error {
-						r := &set.Records[i]
+					st, err = tagRecords(ctx, rd.Next, red, pipes, tg, func(r *intake.Record, theta []float64) error {
 						tm.Fold(folded, theta)
 						row := export.WideRow{ID: r.ID, Groups: r.Groups, Theta: append([]float64(nil), folded...)}
 						if r.HasDate {
@@ -172,6 +176,10 @@ Example:
 				if err != nil {
 					return err
 				}
+				for _, n := range set.Notes[nNotes:] {
+					fmt.Fprintf(e.stderr, "note: %s\n", n)
+				}
+				fmt.Fprintln(e.stderr, set.Summary())
 				fmt.Fprintf(e.stderr, "tagged %d narratives: %d with themes, %d routine (theme %d), %d without any word of the model's vocabulary (given the prior mean)\n",
 					st.n, st.n-st.routine, st.routine, k, st.empty)
 				return nil
@@ -247,15 +255,16 @@ type prepDoc struct {
 	routine bool
 }
 
-// tagRecords redacts each record, runs it through the frozen pipeline (one copy per worker,
-// in parallel, in batches of tagBatch narratives) and folds it in with tg.Stream, then calls
-// emit with the record's index and its K+1 theme shares (the last one is the routine
-// column) in record order. At most a fixed number of narratives are in flight, so memory
-// does not grow with len(recs). theta passed to emit is reused afterwards.
+// tagRecords pulls records from next until io.EOF, redacts each, runs it through the
+// frozen pipeline (one copy per worker, in parallel, in batches of tagBatch narratives)
+// and folds it in with tg.Stream, then calls emit with the record and its K+1 theme
+// shares (the last one is the routine column) in input order. At most a fixed number of
+// narratives are in flight, so memory does not grow with the number of records. theta
+// passed to emit is reused afterwards; the record is not.
 //
 // The processing of one narrative is exactly prepare's for fitting: redactor.Redact, then
 // redact.Blank, then the frozen pipeline's Transform.
-func tagRecords(ctx context.Context, recs []intake.Record, red *redact.Redactor, pipes []*text.Frozen, tg *topics.Tagger, emit func(i int, theta []float64) error) (tagStats, error) {
+func tagRecords(ctx context.Context, next func() (intake.Record, error), red *redact.Redactor, pipes []*text.Frozen, tg *topics.Tagger, emit func(r *intake.Record, theta []float64) error) (tagStats, error) {
 	ctx, cancel := context.WithCancel(ctx)
 	defer cancel()
 	var st tagStats
@@ -265,17 +274,33 @@ func tagRecords(ctx context.Context, recs []intake.Record, red *redact.Redactor,
 	}
 	window := 2 * W // batches in flight in the preprocessing stage
 	type batch struct {
-		lo, hi int
-		docs   []prepDoc
-		ready  chan struct{}
+		recs  []intake.Record
+		docs  []prepDoc
+		ready chan struct{}
 	}
 	jobs := make(chan *batch, window)
 	order := make(chan *batch, window)
+	var readErr error // set by the producer before it closes order
 	go func() {
 		defer close(jobs)
 		defer close(order)
-		for lo := 0; lo < len(recs); lo += tagBatch {
-			b := &batch{lo: lo, hi: min(lo+tagBatch, len(recs)), ready: make(chan struct{})}
+		for done := false; !done; {
+			b := &batch{recs: make([]intake.Record, 0, tagBatch), ready: make(chan struct{})}
+			for len(b.recs) < tagBatch {
+				r, err := next()
+				if err == io.EOF {
+					done = true
+					break
+				}
+				if err != nil {
+					readErr, done = err, true
+					break
+				}
+				b.recs = append(b.recs, r)
+			}
+			if len(b.recs) == 0 {
+				break
+			}
 			select {
 			case order <- b:
 			case <-ctx.Done():
@@ -292,26 +317,27 @@ func tagRecords(ctx context.Context, recs []intake.Record, red *redact.Redactor,
 		fr := pipes[w]
 		go func() {
 			for b := range jobs {
-				b.docs = make([]prepDoc, 0, b.hi-b.lo)
-				for i := b.lo; i < b.hi; i++ {
-					out, _ := red.Redact(recs[i].Text)
+				b.docs = make([]prepDoc, len(b.recs))
+				for i := range b.recs {
+					out, _ := red.Redact(b.recs[i].Text)
 					d := fr.Transform(redact.Blank(out))
-					b.docs = append(b.docs, prepDoc{terms: d.Terms, routine: d.Routine != text.NotRoutine})
+					b.docs[i] = prepDoc{terms: d.Terms, routine: d.Routine != text.NotRoutine}
 				}
 				close(b.ready)
 			}
 		}()
 	}
-	// fifo carries each narrative's index and routine flag from the source to emit: Stream
-	// calls Next and emit in the same (input) order and holds at most 4 × Workers
-	// narratives, so the queue stays that short.
+	// fifo carries each narrative's record and routine flag from the source to emit:
+	// Stream calls Next and emit in the same (input) order and holds at most
+	// 4 × Workers narratives, so the queue stays that short.
 	type entry struct {
-		i       int
+		r       *intake.Record
 		routine bool
 	}
 	var (
 		mu   sync.Mutex
 		fifo []entry
+		head int
 	)
 	var cur *batch
 	at := 0
@@ -321,6 +347,9 @@ func tagRecords(ctx context.Context, recs []intake.Record, red *redact.Redactor,
 			if !ok {
 				if err := ctx.Err(); err != nil {
 					return topics.Doc{}, err
+				}
+				if readErr != nil {
+					return topics.Doc{}, readErr
 				}
 				return topics.Doc{}, io.EOF
 			}
@@ -332,22 +361,26 @@ func tagRecords(ctx context.Context, recs []intake.Record, red *redact.Redactor,
 			cur, at = b, 0
 		}
 		p := cur.docs[at]
-		i := cur.lo + at
+		r := &cur.recs[at]
 		at++
 		mu.Lock()
-		fifo = append(fifo, entry{i, p.routine})
+		if head > 0 && head == len(fifo) {
+			fifo, head = fifo[:0], 0 // reuse the queue's array
+		}
+		fifo = append(fifo, entry{r, p.routine})
 		mu.Unlock()
 		ids := p.terms
 		if p.routine {
 			ids = nil // not a theme of the model: no need to sample
 		}
-		return topics.Doc{ID: recs[i].ID, IDs: ids}, nil
+		return topics.Doc{ID: r.ID, IDs: ids}, nil
 	}}
 	var full []float64
 	err := tg.Stream(ctx, src, func(d topics.Doc, theta []float64) error {
 		mu.Lock()
-		en := fifo[0]
-		fifo = fifo[1:]
+		en := fifo[head]
+		fifo[head] = entry{}
+		head++
 		mu.Unlock()
 		if full == nil {
 			full = make([]float64, len(theta)+1)
@@ -364,7 +397,7 @@ func tagRecords(ctx context.Context, recs []intake.Record, red *redact.Redactor,
 				st.empty++
 			}
 		}
-		return emit(en.i, full)
+		return emit(en.r, full)
 	})
 	if err != nil {
 		cancel()
@@ -374,6 +407,39 @@ func tagRecords(ctx context.Context, recs []intake.Record, red *redact.Redactor,
 		return st, err
 	}
 	return st, nil
+}
+
+// sliceRecords returns a next function over recs, for tagRecords.
+func sliceRecords(recs []intake.Record) func() (intake.Record, error) {
+	i := 0
+	return func() (intake.Record, error) {
+		if i == len(recs) {
+			return intake.Record{}, io.EOF
+		}
+		i++
+		return recs[i-1], nil
+	}
+}
+
+// openInputs opens the files (or stdin for "-") for streaming and prints the notes of
+// the column choices to stderr; the caller prints the rest and the accounting summary
+// when the reader is done.
+func openInputs(ctx context.Context, e *env, f *inputFlags, args []string) (*intake.Reader, error) {
+	opt, err := f.options()
+	if err != nil {
+		return nil, err
+	}
+	if len(args) == 0 {
+		return nil, usagef("no input files (use - for standard input)")
+	}
+	rd, err := intake.NewReader(ctx, args, e.stdin, opt)
+	if err != nil {
+		return nil, err
+	}
+	for _, n := range rd.Set().Notes {
+		fmt.Fprintf(e.stderr, "note: %s\n", n)
+	}
+	return rd, nil
 }
 
 // tagBatch is the number of narratives a preprocessing worker takes at a time.

@@ -17,6 +17,7 @@ import (
 
 	"undercurrent/report/export"
 	"undercurrent/text/demotown"
+	"undercurrent/text/intake"
 	"undercurrent/topics"
 )
 
@@ -514,5 +515,40 @@ func TestChunkWriter(t *testing.T) {
 		if got.String() != want.String() {
 			t.Errorf("%d rows: chunked output differs", n)
 		}
+	}
+}
+
+// Tagging streams its input (intake.Reader): standard input gives the rows the file
+// gives, and the notes and accounting summary are those of the commands that hold the
+// rows in memory (intake.Read, whose agreement with intake.Stream intake's tests check).
+func TestTagStdinAndAccounting(t *testing.T) {
+	csvPath, model := fitted(t)
+	wide, errs := tagFile(t, model, csvPath)
+	b, err := os.ReadFile(csvPath)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var o, e bytes.Buffer
+	args := append([]string{"tag", "-model", model}, inputArgs...)
+	code := run(context.Background(), &env{stdin: bytes.NewReader(b), stdout: &o, stderr: &e, quiet: true}, append(args, "-"))
+	if code != exitOK || o.String() != wide {
+		t.Fatalf("tag - : exit %d, output equal %v: %s", code, o.String() == wide, e.String())
+	}
+	fl := inputFlags{id: "incident_id", date: "reported", text: "narrative", now: "2026-01-01"}
+	opt, err := fl.options()
+	if err != nil {
+		t.Fatal(err)
+	}
+	set, err := intake.Read(context.Background(), []string{csvPath}, nil, opt)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, n := range set.Notes {
+		if !strings.Contains(errs, "note: "+n+"\n") {
+			t.Errorf("tag's stderr lacks the note %q", n)
+		}
+	}
+	if !strings.Contains(errs, set.Summary()+"\n") {
+		t.Errorf("tag's stderr lacks %q:\n%s", set.Summary(), errs)
 	}
 }

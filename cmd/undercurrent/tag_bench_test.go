@@ -85,7 +85,7 @@ func BenchmarkTag(b *testing.B) {
 		runtime.GC()
 		runtime.ReadMemStats(&ms0)
 		start(b)
-		if _, err := tagRecords(context.Background(), all, red, pipes, tg, func(int, []float64) error { return nil }); err != nil {
+		if _, err := tagRecords(context.Background(), sliceRecords(all), red, pipes, tg, func(*intake.Record, []float64) error { return nil }); err != nil {
 			b.Fatal(err)
 		}
 		b.StopTimer()

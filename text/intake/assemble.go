@@ -24,41 +24,276 @@ var earliest = time.Date(1900, 1, 1, 0, 0, 0, 0, time.UTC)
 
 const zoneSlack = 14 * time.Hour
 
-func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
+// alignAll returns align's permutation of each table against the first.
+func alignAll(tabs []*table) ([][]int, error) {
+	perms := make([][]int, len(tabs))
+	for i, t := range tabs {
+		p, err := align(tabs[0], t)
+		if err != nil {
+			return nil, err
+		}
+		perms[i] = p
+	}
+	return perms, nil
+}
+
+// decide makes the run's column choices and date reading from the tables (their headers,
+// notes, parse rejects) and the survey of their rows. It returns the Set with everything
+// but the records and the rejects of the record checks, and the builder of the records.
+func decide(ctx context.Context, tabs []*table, perms [][]int, sv *survey, opt *Options) (*Set, *builder, error) {
 	header := tabs[0].header
 	s := &Set{Columns: header}
 	xlsx := true
-	total := 0
-	for _, t := range tabs {
-		total += len(t.rows)
-	}
-	rows := make([]rowRef, 0, total)
 	s.Notes = mergeNotes(tabs)
 	for fi, t := range tabs {
 		s.Files = append(s.Files, t.info)
 		s.Read += t.read()
 		xlsx = xlsx && t.xlsx
-		perm, err := align(tabs[0], t)
-		if err != nil {
-			return nil, err
-		}
-		if perm != nil {
+		if perms[fi] != nil {
 			s.Notes = append(s.Notes, fmt.Sprintf("%s: same columns as %s in another order; matched by name", t.info.Path, tabs[0].info.Path))
 		}
-		for _, r := range t.rows {
-			f := r.f
-			if perm != nil {
-				g := make([]string, len(f))
-				for j, p := range perm {
-					g[j] = f[p]
+	}
+	if err := ctx.Err(); err != nil {
+		return nil, nil, err
+	}
+	first := tabs[0].info.Path
+	idCol, dateCol, textCols, groupCols, notes, err := chooseColumns(first, header, sv, xlsx, opt)
+	if err != nil {
+		return nil, nil, err
+	}
+	s.Notes = append(s.Notes, notes...)
+	// Rows rejected while parsing get their id from the id column when they have one.
+	for fi, t := range tabs {
+		perm := perms[fi]
+		for i, rj := range t.rejects {
+			if f, ok := t.rejFields[i]; ok && idCol >= 0 {
+				c := idCol
+				if perm != nil {
+					c = perm[idCol]
 				}
-				f = g
+				if c < len(f) {
+					rj.ID = clip(strings.ToValidUTF8(strings.TrimSpace(f[c]), "\uFFFD"), 64)
+				}
 			}
-			file := t.info.Path
-			if r.file != "" {
-				file = r.file
+			s.Rejects = append(s.Rejects, rj)
+		}
+	}
+	b := &builder{s: s, opt: opt, idCol: idCol, dateCol: dateCol, timeCol: -1, textCols: textCols, groupCols: groupCols, late: opt.Now.Add(zoneSlack)}
+	if opt.Time != "" {
+		if dateCol < 0 {
+			return nil, nil, &PosError{File: first, Err: fmt.Errorf("%w: a time column (%q) needs a date column", ErrNoColumn, opt.Time)}
+		}
+		if b.timeCol, err = findColumn(first, "time", opt.Time, header); err != nil {
+			return nil, nil, err
+		}
+		s.TimeName = header[b.timeCol]
+	}
+	role := map[int]bool{idCol: true, dateCol: true, b.timeCol: true}
+	if idCol >= 0 {
+		s.IDName = header[idCol]
+	}
+	if dateCol >= 0 {
+		s.DateName = header[dateCol]
+	}
+	for _, c := range textCols {
+		s.TextNames = append(s.TextNames, header[c])
+		role[c] = true
+	}
+	for _, c := range groupCols {
+		s.GroupNames = append(s.GroupNames, header[c])
+		role[c] = true
+	}
+	for c, h := range header {
+		if !role[c] {
+			b.extraCols = append(b.extraCols, c)
+			s.ExtraNames = append(s.ExtraNames, h)
+		}
+	}
+	if dateCol >= 0 {
+		var note string
+		b.reading, note, err = decideTally(header[dateCol], sv.dates[dateCol], opt, xlsx, opt.Now)
+		if err != nil {
+			return nil, nil, err
+		}
+		if note != "" {
+			s.Notes = append(s.Notes, note)
+		}
+		s.DateRead = b.reading.describe()
+	}
+	return s, b, nil
+}
+
+// builder turns rows (in the first file's column order) into records or rejects, by the
+// checks in the order the package documentation gives, duplicates aside.
+type builder struct {
+	s                                   *Set
+	opt                                 *Options
+	idCol, dateCol, timeCol             int
+	textCols, groupCols, extraCols      []int
+	reading                             *dateReading
+	late                                time.Time
+	rows                                int // rows built
+	synth, noDate, badDate, implausible int
+}
+
+// dateOf is the date text of a row: the date column, and the time column after it.
+func (b *builder) dateOf(f []string) string {
+	v := strings.TrimSpace(f[b.dateCol])
+	if b.timeCol >= 0 && v != "" {
+		if tv := strings.TrimSpace(f[b.timeCol]); tv != "" {
+			v += " " + tv
+		}
+	}
+	return v
+}
+
+// build makes the record of a row, or (ok false) its reject.
+func (b *builder) build(file string, line int, f []string) (rec Record, rj Reject, ok bool) {
+	b.rows++
+	s, opt := b.s, b.opt
+	rec = Record{File: file, Line: line}
+	if b.idCol >= 0 {
+		rec.ID = strings.TrimSpace(f[b.idCol])
+	}
+	if rec.ID == "" {
+		rec.ID = file + ":" + strconv.Itoa(line)
+		if b.idCol >= 0 && !allBlank(f) {
+			b.synth++
+		}
+	}
+	rej := func(reason, detail string) (Record, Reject, bool) {
+		return Record{}, Reject{File: file, Line: line, ID: rec.ID, Reason: reason, Detail: detail}, false
+	}
+	var parts []string
+	var placeholders []string
+	for _, c := range b.textCols {
+		p := strings.TrimSpace(f[c])
+		if p != "" && placeholder(p) {
+			placeholders = append(placeholders, p)
+			continue
+		}
+		if p != "" {
+			parts = append(parts, p)
+		}
+	}
+	if len(parts) == 0 && allBlank(f) {
+		return rej(ReasonBlankRow, "every field is empty")
+	}
+	if len(parts) == 0 {
+		d := "no text in " + quoteList(s.TextNames)
+		if len(placeholders) > 0 {
+			d = "only a placeholder: " + quoteList(placeholders)
+		}
+		return rej(ReasonEmptyNarrative, d)
+	}
+	if len(parts) == 1 {
+		rec.Text = parts[0]
+	} else {
+		rec.Text = strings.Join(parts, "\n\n")
+	}
+	if b.dateCol >= 0 {
+		v := b.dateOf(f)
+		switch {
+		case v == "" && opt.RequireDate:
+			return rej(ReasonMissingDate, fmt.Sprintf("%q is empty", s.DateName))
+		case v == "":
+			b.noDate++
+		default:
+			t, err := b.reading.parse(v)
+			if err != nil {
+				b.badDate++
+				return rej(ReasonUnparseableDate, fmt.Sprintf("%q: %v", clip(v, 64), err))
 			}
-			rows = append(rows, rowRef{file: file, fi: fi, line: r.line, f: f})
+			if t.Before(earliest) || t.After(b.late) {
+				b.implausible++
+				return rej(ReasonImplausibleDate, fmt.Sprintf("%q read as %s, outside 1900-01-01 .. %s", clip(v, 64), t.Format("2006-01-02"), opt.Now.UTC().Format("2006-01-02")))
+			}
+			rec.Date, rec.HasDate = t, true
+		}
+	}
+	if len(b.groupCols) > 0 {
+		rec.Groups = make([]string, len(b.groupCols))
+		for j, c := range b.groupCols {
+			rec.Groups[j] = strings.TrimSpace(f[c])
+		}
+	}
+	if len(b.extraCols) > 0 {
+		rec.Extra = make([]string, len(b.extraCols))
+		for j, c := range b.extraCols {
+			rec.Extra[j] = f[c]
+		}
+	}
+	return rec, Reject{}, true
+}
+
+// notes are the notes on the rows built: synthesized ids, missing and bad dates.
+func (b *builder) notes() []string {
+	var out []string
+	s := b.s
+	if b.synth > 0 {
+		out = append(out, fmt.Sprintf("id column %q: %s no id; their id is file:line", s.IDName, count(b.synth, "row has", "rows have")))
+	}
+	if b.noDate > 0 {
+		out = append(out, fmt.Sprintf("date column %q: %s no date; kept without one", s.DateName, count(b.noDate, "row has", "rows have")))
+	}
+	if b.dateCol >= 0 && b.badDate+b.implausible > 0 {
+		out = append(out, fmt.Sprintf("date column %q: rows rejected for an unparseable date %d, for an implausible date %d", s.DateName, b.badDate, b.implausible))
+		if nonEmpty := b.rows - b.noDate; nonEmpty > 0 && 2*b.badDate > nonEmpty {
+			out = append(out, fmt.Sprintf("date column %q is mostly not dates (%d of %d values); check the column or name another", s.DateName, b.badDate, nonEmpty))
+		}
+	}
+	return out
+}
+
+func dupNote(dups int, keepLast bool) string {
+	which := "first"
+	if keepLast {
+		which = "last"
+	}
+	return fmt.Sprintf("duplicate ids: %s an id with another row; kept the %s of each", count(dups, "row shares", "rows share"), which)
+}
+
+func dupReject(o Record, sameText bool, keptFile string, keptLine int) Reject {
+	reason := ReasonDuplicateID
+	if !sameText {
+		reason = ReasonDuplicateIDText
+	}
+	return Reject{File: o.File, Line: o.Line, ID: o.ID, Reason: reason, Detail: fmt.Sprintf("kept the row at %s:%d", keptFile, keptLine)}
+}
+
+// sortRejects orders rejects by their file's place on the command line, then file name
+// and line.
+func sortRejects(r []Reject, fileIndex map[string]int) {
+	sort.SliceStable(r, func(i, j int) bool {
+		a, b := r[i], r[j]
+		fa, fb := fileIndex[a.File], fileIndex[b.File]
+		if fa != fb {
+			return fa < fb
+		}
+		if a.File != b.File {
+			return a.File < b.File
+		}
+		return a.Line < b.Line
+	})
+}
+
+func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
+	perms, err := alignAll(tabs)
+	if err != nil {
+		return nil, err
+	}
+	tl := newTally(opt)
+	total := 0
+	for ti, t := range tabs {
+		total += len(t.rows)
+		for _, r := range t.rows {
+			tl.add(ti, t.header, r)
+		}
+	}
+	rows := make([]rowRef, 0, total)
+	for fi, t := range tabs {
+		for _, r := range t.rows {
+			rows = append(rows, rowRef{file: rowFile(t, r), fi: fi, line: r.line, f: permute(r.f, perms[fi])})
 		}
 	}
 	// fileIndex orders rejects by the file's place on the command line.
@@ -77,193 +312,25 @@ func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
 	for _, r := range rows {
 		note(r.file, r.fi)
 	}
-	if err := ctx.Err(); err != nil {
-		return nil, err
-	}
-	first := tabs[0].info.Path
-	idCol, dateCol, textCols, groupCols, notes, err := chooseColumns(first, header, rows, xlsx, opt)
+	s, b, err := decide(ctx, tabs, perms, tl.finish(tabs, perms), opt)
 	if err != nil {
 		return nil, err
 	}
-	s.Notes = append(s.Notes, notes...)
-	// Rows rejected while parsing get their id from the id column when they have one.
-	for _, t := range tabs {
-		var perm []int
-		if idCol >= 0 {
-			perm, _ = align(tabs[0], t)
-		}
-		for i, rj := range t.rejects {
-			if f, ok := t.rejFields[i]; ok && idCol >= 0 {
-				c := idCol
-				if perm != nil {
-					c = perm[idCol]
-				}
-				if c < len(f) {
-					rj.ID = clip(strings.ToValidUTF8(strings.TrimSpace(f[c]), "\uFFFD"), 64)
-				}
-			}
-			s.Rejects = append(s.Rejects, rj)
-		}
-	}
-	timeCol := -1
-	if opt.Time != "" {
-		if dateCol < 0 {
-			return nil, &PosError{File: first, Err: fmt.Errorf("%w: a time column (%q) needs a date column", ErrNoColumn, opt.Time)}
-		}
-		if timeCol, err = findColumn(first, "time", opt.Time, header); err != nil {
-			return nil, err
-		}
-		s.TimeName = header[timeCol]
-	}
-	// dateOf is the date text of a row: the date column, and the time column after it.
-	dateOf := func(f []string) string {
-		v := strings.TrimSpace(f[dateCol])
-		if timeCol >= 0 && v != "" {
-			if tv := strings.TrimSpace(f[timeCol]); tv != "" {
-				v += " " + tv
-			}
-		}
-		return v
-	}
-	role := map[int]bool{idCol: true, dateCol: true, timeCol: true}
-	if idCol >= 0 {
-		s.IDName = header[idCol]
-	}
-	if dateCol >= 0 {
-		s.DateName = header[dateCol]
-	}
-	for _, c := range textCols {
-		s.TextNames = append(s.TextNames, header[c])
-		role[c] = true
-	}
-	for _, c := range groupCols {
-		s.GroupNames = append(s.GroupNames, header[c])
-		role[c] = true
-	}
-	var extraCols []int
-	for c, h := range header {
-		if !role[c] {
-			extraCols = append(extraCols, c)
-			s.ExtraNames = append(s.ExtraNames, h)
-		}
-	}
-	var reading *dateReading
-	if dateCol >= 0 {
-		vals := make([]string, len(rows))
-		for i, r := range rows {
-			vals[i] = dateOf(r.f)
-		}
-		var note string
-		reading, note, err = decideReading(header[dateCol], vals, opt, xlsx, opt.Now)
-		if err != nil {
-			return nil, err
-		}
-		if note != "" {
-			s.Notes = append(s.Notes, note)
-		}
-		s.DateRead = reading.describe()
-	}
-
 	cands := make([]Record, 0, len(rows))
-	var synth, noDate, badDate, implausible int
-	late := opt.Now.Add(zoneSlack)
 	for i, r := range rows {
 		if i&4095 == 0 {
 			if err := ctx.Err(); err != nil {
 				return nil, err
 			}
 		}
-		rec := Record{File: r.file, Line: r.line}
-		if idCol >= 0 {
-			rec.ID = strings.TrimSpace(r.f[idCol])
-		}
-		if rec.ID == "" {
-			rec.ID = r.file + ":" + strconv.Itoa(r.line)
-			if idCol >= 0 && !allBlank(r.f) {
-				synth++
-			}
-		}
-		rej := func(reason, detail string) {
-			s.Rejects = append(s.Rejects, Reject{File: r.file, Line: r.line, ID: rec.ID, Reason: reason, Detail: detail})
-		}
-		var parts []string
-		var placeholders []string
-		for _, c := range textCols {
-			p := strings.TrimSpace(r.f[c])
-			if p != "" && placeholder(p) {
-				placeholders = append(placeholders, p)
-				continue
-			}
-			if p != "" {
-				parts = append(parts, p)
-			}
-		}
-		if len(parts) == 0 && allBlank(r.f) {
-			rej(ReasonBlankRow, "every field is empty")
+		rec, rj, ok := b.build(r.file, r.line, r.f)
+		if !ok {
+			s.Rejects = append(s.Rejects, rj)
 			continue
-		}
-		if len(parts) == 0 {
-			d := "no text in " + quoteList(s.TextNames)
-			if len(placeholders) > 0 {
-				d = "only a placeholder: " + quoteList(placeholders)
-			}
-			rej(ReasonEmptyNarrative, d)
-			continue
-		}
-		if len(parts) == 1 {
-			rec.Text = parts[0]
-		} else {
-			rec.Text = strings.Join(parts, "\n\n")
-		}
-		if dateCol >= 0 {
-			v := dateOf(r.f)
-			switch {
-			case v == "" && opt.RequireDate:
-				rej(ReasonMissingDate, fmt.Sprintf("%q is empty", s.DateName))
-				continue
-			case v == "":
-				noDate++
-			default:
-				t, err := reading.parse(v)
-				if err != nil {
-					badDate++
-					rej(ReasonUnparseableDate, fmt.Sprintf("%q: %v", clip(v, 64), err))
-					continue
-				}
-				if t.Before(earliest) || t.After(late) {
-					implausible++
-					rej(ReasonImplausibleDate, fmt.Sprintf("%q read as %s, outside 1900-01-01 .. %s", clip(v, 64), t.Format("2006-01-02"), opt.Now.UTC().Format("2006-01-02")))
-					continue
-				}
-				rec.Date, rec.HasDate = t, true
-			}
-		}
-		if len(groupCols) > 0 {
-			rec.Groups = make([]string, len(groupCols))
-			for j, c := range groupCols {
-				rec.Groups[j] = strings.TrimSpace(r.f[c])
-			}
-		}
-		if len(extraCols) > 0 {
-			rec.Extra = make([]string, len(extraCols))
-			for j, c := range extraCols {
-				rec.Extra[j] = r.f[c]
-			}
 		}
 		cands = append(cands, rec)
 	}
-	if synth > 0 {
-		s.Notes = append(s.Notes, fmt.Sprintf("id column %q: %s no id; their id is file:line", s.IDName, count(synth, "row has", "rows have")))
-	}
-	if noDate > 0 {
-		s.Notes = append(s.Notes, fmt.Sprintf("date column %q: %s no date; kept without one", s.DateName, count(noDate, "row has", "rows have")))
-	}
-	if dateCol >= 0 && badDate+implausible > 0 {
-		s.Notes = append(s.Notes, fmt.Sprintf("date column %q: rows rejected for an unparseable date %d, for an implausible date %d", s.DateName, badDate, implausible))
-		if nonEmpty := len(rows) - noDate; nonEmpty > 0 && 2*badDate > nonEmpty {
-			s.Notes = append(s.Notes, fmt.Sprintf("date column %q is mostly not dates (%d of %d values); check the column or name another", s.DateName, badDate, nonEmpty))
-		}
-	}
+	s.Notes = append(s.Notes, b.notes()...)
 
 	// Duplicate ids: keep the first (or, with KeepLast, the last) row of each id.
 	firstOf := make(map[string]int, len(cands)) // id -> index of its first row
@@ -296,21 +363,11 @@ func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
 			}
 			drop[j] = true
 			dups++
-			o := cands[j]
-			reason := ReasonDuplicateID
-			if o.Text != k.Text {
-				reason = ReasonDuplicateIDText
-			}
-			s.Rejects = append(s.Rejects, Reject{File: o.File, Line: o.Line, ID: o.ID, Reason: reason,
-				Detail: fmt.Sprintf("kept the row at %s:%d", k.File, k.Line)})
+			s.Rejects = append(s.Rejects, dupReject(cands[j], cands[j].Text == k.Text, k.File, k.Line))
 		}
 	}
 	if dups > 0 {
-		which := "first"
-		if opt.KeepLast {
-			which = "last"
-		}
-		s.Notes = append(s.Notes, fmt.Sprintf("duplicate ids: %s an id with another row; kept the %s of each", count(dups, "row shares", "rows share"), which))
+		s.Notes = append(s.Notes, dupNote(dups, opt.KeepLast))
 	}
 	s.Records = cands[:0]
 	for i, c := range cands {
@@ -319,17 +376,7 @@ func assemble(ctx context.Context, tabs []*table, opt *Options) (*Set, error) {
 		}
 	}
 	clear(cands[len(s.Records):]) // release the dropped rows' strings
-	sort.SliceStable(s.Rejects, func(i, j int) bool {
-		a, b := s.Rejects[i], s.Rejects[j]
-		fa, fb := fileIndex[a.File], fileIndex[b.File]
-		if fa != fb {
-			return fa < fb
-		}
-		if a.File != b.File {
-			return a.File < b.File
-		}
-		return a.Line < b.Line
-	})
+	sortRejects(s.Rejects, fileIndex)
 	if len(s.Records)+len(s.Rejects) != s.Read {
 		return nil, errors.New("intake: internal error: rows kept plus rejected differ from rows read")
 	}

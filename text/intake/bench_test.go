@@ -2,8 +2,11 @@ package intake
 
 import (
 	"bytes"
+	"context"
 	"fmt"
 	"math/rand/v2"
+	"os"
+	"path/filepath"
 	"testing"
 )
 
@@ -47,5 +50,24 @@ func BenchmarkSurveyMedium(b *testing.B) {
 	}
 	for b.Loop() {
 		Survey(s, SurveyOptions{})
+	}
+}
+
+// BenchmarkStreamMedium is BenchmarkReadMedium through Stream (two passes over a file
+// on disk), for the cost of not holding the records.
+func BenchmarkStreamMedium(b *testing.B) {
+	data := benchCSV(100000)
+	p := filepath.Join(b.TempDir(), "bench.csv")
+	if err := os.WriteFile(p, data, 0o644); err != nil {
+		b.Fatal(err)
+	}
+	b.SetBytes(int64(len(data)))
+	b.ReportAllocs()
+	for b.Loop() {
+		n := 0
+		s, err := Stream(context.Background(), []string{p}, nil, Options{Now: testNow}, func(Record) error { n++; return nil })
+		if err != nil || n != 100000 || s.Kept() != n {
+			b.Fatal(err)
+		}
 	}
 }

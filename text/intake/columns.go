@@ -170,18 +170,6 @@ type colStats struct {
 	parsed    int // values that read as dates
 }
 
-// sampleRows picks at most n rows, evenly spaced (deterministic), for column statistics.
-func sampleRows(rows []rowRef, n int) []rowRef {
-	if len(rows) <= n {
-		return rows
-	}
-	out := make([]rowRef, n)
-	for i := range out {
-		out[i] = rows[i*len(rows)/n]
-	}
-	return out
-}
-
 func statsOf(rows []rowRef, col int, dateHint bool, serialOK bool, fixed *dateReading, opt *Options) colStats {
 	var s colStats
 	var total int
@@ -214,8 +202,9 @@ func statsOf(rows []rowRef, col int, dateHint bool, serialOK bool, fixed *dateRe
 }
 
 // chooseColumns fills in the roles the options left open and returns notes on each
-// automatic choice. idCol and dateCol are -1 when there is none.
-func chooseColumns(file string, header []string, rows []rowRef, xlsx bool, opt *Options) (idCol, dateCol int, textCols, groupCols []int, notes []string, err error) {
+// automatic choice, from the survey of the rows (its sample, and the distinct values of
+// the id-like columns over all rows). idCol and dateCol are -1 when there is none.
+func chooseColumns(file string, header []string, sv *survey, xlsx bool, opt *Options) (idCol, dateCol int, textCols, groupCols []int, notes []string, err error) {
 	idCol, dateCol = -1, -1
 	used := map[int]bool{}
 	named := func(role, name string) (int, error) {
@@ -254,7 +243,7 @@ func chooseColumns(file string, header []string, rows []rowRef, xlsx bool, opt *
 		}
 		groupCols = append(groupCols, i)
 	}
-	sample := sampleRows(rows, 5000)
+	sample := sv.sample
 	var fixed *dateReading // an explicit DateFormat also guides the choice of the date column
 	if opt.DateFormat != "" {
 		if fixed, _, err = decideReading("", nil, opt, xlsx, opt.Now); err != nil {
@@ -267,30 +256,20 @@ func chooseColumns(file string, header []string, rows []rowRef, xlsx bool, opt *
 	}
 	if opt.ID == "" {
 		type cand struct {
-			c       int
-			hint    float64
-			uniq    float64
-			nonEmpt int
+			c    int
+			hint float64
+			uniq float64
 		}
 		var cs []cand
 		for c, h := range header {
 			if used[c] || hintID(h) == 0 || stats[c].meanRunes > 64 || stats[c].nonEmpty == 0 {
 				continue
 			}
-			seen := make(map[string]struct{}, len(rows))
-			n := 0
-			for _, r := range rows {
-				v := strings.TrimSpace(r.f[c])
-				if v != "" {
-					seen[v] = struct{}{}
-					n++
-				}
-			}
-			u := float64(len(seen)) / float64(len(rows))
+			u := float64(sv.distinct(c)) / float64(sv.n)
 			if u < 0.5 {
 				continue
 			}
-			cs = append(cs, cand{c, hintID(h), u, n})
+			cs = append(cs, cand{c, hintID(h), u})
 		}
 		sort.SliceStable(cs, func(i, j int) bool {
 			if cs[i].hint != cs[j].hint {
@@ -352,7 +331,7 @@ func chooseColumns(file string, header []string, rows []rowRef, xlsx bool, opt *
 				best = long
 			}
 		}
-		if best < 0 && len(rows) == 0 {
+		if best < 0 && sv.n == 0 {
 			// Every row was rejected while parsing; nothing to choose from.
 			notes = append(notes, "narrative column: none chosen, no row could be parsed")
 			return

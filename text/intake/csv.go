@@ -131,7 +131,7 @@ func delimName(d rune, spaced bool) string {
 // the header's is rejected as a ragged row; a row with bad quoting is rejected with the
 // parser's line and column; a quoted field that never closes is an error, since the
 // rest of the file was swallowed by it.
-func readCSV(ctx context.Context, name string, br *bufio.Reader, peek []byte, ext string, dec decision, tail *tailTracker, opt *Options) (*table, error) {
+func (ps *pass) readCSV(ctx context.Context, name string, br *bufio.Reader, peek []byte, ext string, dec decision, tail *tailTracker, opt *Options) (*table, error) {
 	delim, spaced := opt.Delimiter, false
 	sniffed, sp, skip := sniffDelimiter(peek)
 	if opt.SkipLines > 0 {
@@ -148,7 +148,7 @@ func readCSV(ctx context.Context, name string, br *bufio.Reader, peek []byte, ex
 			delim, spaced = '\t', false
 		}
 	}
-	t := &table{info: FileInfo{Path: name, Format: "csv", Delimiter: delimName(delim, spaced)}}
+	t := ps.table(FileInfo{Path: name, Format: "csv", Delimiter: delimName(delim, spaced)})
 	if delim == '\t' {
 		t.info.Format = "tsv"
 	}
@@ -253,7 +253,9 @@ func readCSV(ctx context.Context, name string, br *bufio.Reader, peek []byte, ex
 			t.rejects = append(t.rejects, Reject{File: name, Line: line, Reason: ReasonRepeatedHeader, Detail: "the row repeats the header"})
 			continue
 		}
-		t.rows = append(t.rows, rawRow{line: line, f: rec})
+		if err := t.keep(rawRow{line: line, f: rec}); err != nil {
+			return nil, err
+		}
 	}
 	if trailing > 0 {
 		t.notes = append(t.notes, fmt.Sprintf("%s: %s empty fields after the header's last column; dropped them", name, count(trailing, "row ends in", "rows end in")))

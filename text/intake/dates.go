@@ -388,6 +388,17 @@ func (r *dateReading) parse(s string) (time.Time, error) {
 // decideReading looks at every value of a date column and fixes its reading. It returns
 // a human-readable note when it made a choice the user may want to check.
 func decideReading(col string, values []string, opt *Options, fromXLSX bool, now time.Time) (*dateReading, string, error) {
+	var d dateTally
+	for _, v := range values {
+		if v = strings.TrimSpace(v); v != "" {
+			d.add(v, "")
+		}
+	}
+	return decideTally(col, d, opt, fromXLSX, now)
+}
+
+// decideTally is decideReading from the counts of the column's values.
+func decideTally(col string, d dateTally, opt *Options, fromXLSX bool, now time.Time) (*dateReading, string, error) {
 	r := &dateReading{order: opt.DateOrder, now: now}
 	switch f := strings.ToLower(strings.TrimSpace(opt.DateFormat)); f {
 	case "":
@@ -411,28 +422,7 @@ func decideReading(col string, values []string, opt *Options, fromXLSX bool, now
 		r.layout = l
 		return r, "", nil
 	}
-	var numeric, nonEmpty, firstBig, secondBig, slashed int
-	for _, v := range values {
-		v = strings.TrimSpace(v)
-		if v == "" {
-			continue
-		}
-		nonEmpty++
-		if reSerial.MatchString(v) {
-			numeric++
-			continue
-		}
-		if m := reNum.FindStringSubmatch(weekdayPrefix.ReplaceAllString(v, "")); m != nil && m[2] == m[4] {
-			slashed++
-			a, b := atoi(m[1]), atoi(m[3])
-			if a > 12 && b <= 12 {
-				firstBig++
-			}
-			if b > 12 && a <= 12 {
-				secondBig++
-			}
-		}
-	}
+	numeric, nonEmpty, firstBig, secondBig, slashed := d.numeric, d.nonEmpty, d.firstBig, d.secondBig, d.slashed
 	var note string
 	if nonEmpty > 0 && numeric*10 >= nonEmpty*9 && (fromXLSX || hintDate(col) > 0) {
 		r.serial = true

@@ -6,6 +6,11 @@
 //
 // always holds (Set.Summary prints "read R: kept K, rejected J (reason n, ...)").
 //
+// Stream (and its pull-style form, Reader) reads the same inputs without holding the
+// records: a first pass over each file tallies what the choices below need, a second
+// builds the records and hands each on; its records, rejects and notes are Read's (see
+// Stream for the memory it keeps and its one difference, under Options.KeepLast).
+//
 // # Inputs
 //
 // Read takes file paths, "-" for standard input (spooled to a temporary file), and
@@ -67,14 +72,16 @@
 // Set.Notes:
 //
 //   - id: a header that is "id" or ends in an id word (id, nr, no, num, number, key,
-//     "#"), with at least half the rows distinct; the more distinct wins a tie. None:
+//     "#"), with at least half the rows distinct (counted over all rows by a 64-bit
+//     hash of each value); the more distinct wins a tie. None:
 //     ids are "file:line". An empty id also becomes "file:line".
 //   - narrative: among headers holding a narrative word (narrative, description,
 //     summary, abstract, synopsis, details, remarks, comments, text, notes ...), the
 //     longest mean text; with none, the longest mean text of all columns. Several
 //     named narrative columns are joined with a blank line ("\n\n").
 //   - date: among columns where at least 80% of the non-empty values of a sample of
-//     5,000 evenly spaced rows read as dates (50% with a date-like header), the best
+//     at most 5,000 evenly spaced rows (every s-th row, s the smallest power of two that
+//     leaves at most 5,000; every row of smaller files) read as dates (50% with a date-like header), the best
 //     header (an event word such as "event", "occurred", "start" beats a plain date
 //     word, which beats a record-keeping word such as "created", "stop", "birth"), then
 //     the largest share of rows with a date. Bare numbers count only under a date-like

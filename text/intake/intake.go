@@ -94,7 +94,8 @@ type FileInfo struct {
 	InvalidLines int    // lines not valid in the chosen encoding
 }
 
-// Set is everything Read produced. Read = len(Records) + len(Rejects) always.
+// Set is everything Read produced. Read = Kept() + len(Rejects) always; Kept() is
+// len(Records) for Read; Stream passes its records on and leaves Records empty.
 type Set struct {
 	Records    []Record
 	Rejects    []Reject
@@ -109,12 +110,22 @@ type Set struct {
 	ExtraNames []string
 	Notes      []string // automatic choices and warnings, human-readable, in order
 	Read       int      // data rows read
+	kept       int      // records passed on by Stream (Records is then empty)
+}
+
+// Kept is the number of rows kept: len(Records), or for a Set from Stream or Reader the
+// number of records passed on.
+func (s *Set) Kept() int {
+	if s.kept > 0 {
+		return s.kept
+	}
+	return len(s.Records)
 }
 
 // Summary returns "read R: kept K, rejected J (reason n, ...)"; reasons by count, then name.
 func (s *Set) Summary() string {
 	var b strings.Builder
-	fmt.Fprintf(&b, "read %d: kept %d, rejected %d", s.Read, len(s.Records), len(s.Rejects))
+	fmt.Fprintf(&b, "read %d: kept %d, rejected %d", s.Read, s.Kept(), len(s.Rejects))
 	if rs := RejectCounts(s.Rejects); len(rs) > 0 {
 		b.WriteString(" (")
 		for i, r := range rs {
@@ -173,26 +184,17 @@ const StdinName = "stdin"
 // returned for problems that make a file unreadable as a whole (binary content, empty,
 // header only, unclosed quote, different columns, a named column that does not exist).
 func Read(ctx context.Context, paths []string, stdin io.Reader, opt Options) (*Set, error) {
-	if len(paths) == 0 {
-		return nil, errors.New("intake: no input files")
+	if err := checkPaths(paths, &opt); err != nil {
+		return nil, err
 	}
-	if opt.Now.IsZero() {
-		opt.Now = time.Now()
-	}
-	seen := map[string]bool{}
-	for _, p := range paths {
-		k := filepath.Clean(p)
-		if seen[k] {
-			return nil, &PosError{File: p, Err: errors.New("given twice on the command line")}
-		}
-		seen[k] = true
-	}
+	ps := &pass{}
+	defer ps.cleanup()
 	var tabs []*table
 	for _, p := range paths {
 		if err := ctx.Err(); err != nil {
 			return nil, err
 		}
-		t, err := readPath(ctx, p, stdin, &opt)
+		t, err := ps.readPath(ctx, p, stdin, &opt)
 		if err != nil {
 			return nil, err
 		}
@@ -201,34 +203,53 @@ func Read(ctx context.Context, paths []string, stdin io.Reader, opt Options) (*S
 	return assemble(ctx, tabs, &opt)
 }
 
-func readPath(ctx context.Context, p string, stdin io.Reader, opt *Options) (*table, error) {
+// checkPaths sets opt.Now and refuses an empty or repeated list of paths.
+func checkPaths(paths []string, opt *Options) error {
+	if len(paths) == 0 {
+		return errors.New("intake: no input files")
+	}
+	if opt.Now.IsZero() {
+		opt.Now = time.Now()
+	}
+	seen := map[string]bool{}
+	for _, p := range paths {
+		k := filepath.Clean(p)
+		if seen[k] {
+			return &PosError{File: p, Err: errors.New("given twice on the command line")}
+		}
+		seen[k] = true
+	}
+	return nil
+}
+
+func (ps *pass) readPath(ctx context.Context, p string, stdin io.Reader, opt *Options) (*table, error) {
 	if p == "-" {
 		if stdin == nil {
 			return nil, &PosError{File: StdinName, Err: errors.New("no standard input")}
 		}
-		f, err := os.CreateTemp("", "undercurrent-stdin-*")
+		f, n, err := ps.spooledFile("stdin", func(f *os.File) (int64, error) {
+			n, err := io.Copy(f, stdin)
+			if err != nil {
+				return 0, &PosError{File: StdinName, Err: err}
+			}
+			return n, nil
+		})
 		if err != nil {
 			return nil, err
 		}
-		defer os.Remove(f.Name())
-		defer f.Close()
-		n, err := io.Copy(f, stdin)
-		if err != nil {
-			return nil, &PosError{File: StdinName, Err: err}
-		}
-		return readSource(ctx, StdinName, f, n, opt)
+		return ps.readSource(ctx, StdinName, f, n, opt)
 	}
 	st, err := os.Stat(p)
 	if err != nil {
 		return nil, err
 	}
 	if st.IsDir() {
-		return readTextDir(ctx, p, opt)
+		return ps.readTextDir(ctx, p, opt)
 	}
 	f, err := os.Open(p)
 	if err != nil {
 		return nil, err
 	}
 	defer f.Close()
-	return readSource(ctx, p, f, st.Size(), opt)
+	return ps.readSource(ctx, p, f, st.Size(), opt)
 }

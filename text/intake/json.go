@@ -49,10 +49,12 @@ func (c *lineCounter) lineAt(off int64) int {
 // and nested arrays or objects as compact JSON text. An element that is not an object
 // is rejected ("bad json"); a syntax error in JSON Lines rejects that line and reading
 // goes on, while in an array it is an error, as the rest cannot be trusted.
-func readJSON(ctx context.Context, name string, br *bufio.Reader, array bool, dec decision, opt *Options) (*table, error) {
-	t := &table{info: FileInfo{Path: name, Format: "jsonl"}}
+func (ps *pass) readJSON(ctx context.Context, name string, br *bufio.Reader, array bool, dec decision, opt *Options) (*table, error) {
+	t := ps.table(FileInfo{Path: name, Format: "jsonl"})
 	col := map[string]int{}
-	add := func(line int, obj []kv) {
+	// add takes one object. Its row holds the columns seen so far; rows are padded to
+	// the whole header at the end (when kept) or by the pass's consumer (when emitted).
+	add := func(line int, obj []kv) error {
 		f := make([]string, len(t.header))
 		for _, p := range obj {
 			j, ok := col[p.k]
@@ -64,7 +66,17 @@ func readJSON(ctx context.Context, name string, br *bufio.Reader, array bool, de
 			}
 			f[j] = p.v
 		}
-		t.rows = append(t.rows, rawRow{line: line, f: f})
+		if dec.sanitize {
+			if bad := invalidField(f); bad >= 0 && opt.RejectBadEncoding {
+				t.rejects = append(t.rejects, Reject{File: name, Line: line, Reason: ReasonBadEncoding,
+					Detail: fmt.Sprintf("value of %q holds bytes that are not valid UTF-8", t.header[bad])})
+				return nil
+			}
+			for j, v := range f {
+				f[j] = strings.ToValidUTF8(v, "\uFFFD")
+			}
+		}
+		return t.keep(rawRow{line: line, f: f})
 	}
 	if array {
 		t.info.Format = "json"
@@ -92,7 +104,9 @@ func readJSON(ctx context.Context, name string, br *bufio.Reader, array bool, de
 					t.rejects = append(t.rejects, Reject{File: name, Line: line, Reason: ReasonBadJSON, Detail: err.Error()})
 					continue
 				}
-				add(line, obj)
+				if err := add(line, obj); err != nil {
+					return err
+				}
 			}
 			if _, err := d.Token(); err != nil { // the closing ]
 				return jsonErr(name, lc, d, err)
@@ -155,8 +169,8 @@ func readJSON(ctx context.Context, name string, br *bufio.Reader, array bool, de
 					obj, perr := object(b)
 					if perr != nil {
 						t.rejects = append(t.rejects, Reject{File: name, Line: line, Reason: ReasonBadJSON, Detail: perr.Error()})
-					} else {
-						add(line, obj)
+					} else if err := add(line, obj); err != nil {
+						return nil, err
 					}
 				}
 			}
@@ -168,24 +182,9 @@ func readJSON(ctx context.Context, name string, br *bufio.Reader, array bool, de
 			}
 		}
 	}
-	kept := t.rows[:0]
-	for _, r := range t.rows {
-		for len(r.f) < len(t.header) {
-			r.f = append(r.f, "")
-		}
-		if dec.sanitize {
-			if bad := invalidField(r.f); bad >= 0 && opt.RejectBadEncoding {
-				t.rejects = append(t.rejects, Reject{File: name, Line: r.line, Reason: ReasonBadEncoding,
-					Detail: fmt.Sprintf("value of %q holds bytes that are not valid UTF-8", t.header[bad])})
-				continue
-			}
-			for j, v := range r.f {
-				r.f[j] = strings.ToValidUTF8(v, "\uFFFD")
-			}
-		}
-		kept = append(kept, r)
+	for i := range t.rows {
+		t.rows[i].f = pad(t.rows[i].f, len(t.header))
 	}
-	t.rows = kept
 	if t.read() == 0 {
 		return nil, &PosError{File: name, Err: errors.New("no JSON objects")}
 	}
@@ -284,4 +283,12 @@ func nextValueByte(d *json.Decoder) byte {
 		return c
 	}
 	return 0
+}
+
+// pad extends f with empty fields to n.
+func pad(f []string, n int) []string {
+	for len(f) < n {
+		f = append(f, "")
+	}
+	return f
 }

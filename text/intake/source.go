@@ -25,6 +25,10 @@ type table struct {
 	rejFields map[int][]string
 	notes     []string
 	xlsx      bool
+	// nrows counts the rows parsed and not rejected; with emit set they are handed to
+	// emit as they are parsed and not kept in rows.
+	nrows int
+	emit  func(t *table, r rawRow) error
 }
 
 type rawRow struct {
@@ -33,10 +37,94 @@ type rawRow struct {
 	file string // the file of the row when it differs from the table's (a .txt folder)
 }
 
-func (t *table) read() int { return len(t.rows) + len(t.rejects) }
+func (t *table) read() int { return t.nrows + len(t.rejects) }
+
+// keep takes a parsed row: into rows, or to emit when the table streams.
+func (t *table) keep(r rawRow) error {
+	t.nrows++
+	if t.emit != nil {
+		return t.emit(t, r)
+	}
+	t.rows = append(t.rows, r)
+	return nil
+}
+
+// pass is one reading of the inputs: where the rows go, and what an earlier reading of
+// the same inputs learned (encodings; spooled standard input and decompressed gzip files,
+// kept on disk until cleanup). The zero pass keeps rows in their tables.
+type pass struct {
+	emit  func(t *table, r rawRow) error
+	known map[string]decision
+	spool map[string]spooled
+}
+
+type spooled struct {
+	f    *os.File
+	size int64
+}
+
+func (ps *pass) table(info FileInfo) *table {
+	t := &table{info: info}
+	if ps != nil {
+		t.emit = ps.emit
+	}
+	return t
+}
+
+// spooled returns the temporary copy made for name, making it with fill on first use.
+func (ps *pass) spooledFile(name string, fill func(f *os.File) (int64, error)) (*os.File, int64, error) {
+	if sp, ok := ps.spool[name]; ok {
+		return sp.f, sp.size, nil
+	}
+	f, err := os.CreateTemp("", "undercurrent-spool-*")
+	if err != nil {
+		return nil, 0, err
+	}
+	n, err := fill(f)
+	if err != nil {
+		f.Close()
+		os.Remove(f.Name())
+		return nil, 0, err
+	}
+	if ps.spool == nil {
+		ps.spool = map[string]spooled{}
+	}
+	ps.spool[name] = spooled{f, n}
+	return f, n, nil
+}
+
+// cleanup removes the temporary files.
+func (ps *pass) cleanup() {
+	for _, sp := range ps.spool {
+		sp.f.Close()
+		os.Remove(sp.f.Name())
+	}
+	ps.spool = nil
+}
+
+// decide is decideEncoding, remembered by file name for later passes.
+func (ps *pass) decide(name string, head []byte, sc func() (byteScan, error)) (decision, error) {
+	if d, ok := ps.known[name]; ok {
+		return d, nil
+	}
+	d, err := decideEncoding(name, head, sc)
+	if err == nil {
+		if ps.known == nil {
+			ps.known = map[string]decision{}
+		}
+		ps.known[name] = d
+	}
+	return d, err
+}
 
 // readSource reads one file whose bytes are r[0:size]; name is used in messages.
 func readSource(ctx context.Context, name string, r io.ReaderAt, size int64, opt *Options) (*table, error) {
+	ps := &pass{}
+	defer ps.cleanup()
+	return ps.readSource(ctx, name, r, size, opt)
+}
+
+func (ps *pass) readSource(ctx context.Context, name string, r io.ReaderAt, size int64, opt *Options) (*table, error) {
 	if size == 0 {
 		return nil, &PosError{File: name, Err: ErrEmpty}
 	}
@@ -51,16 +139,16 @@ func readSource(ctx context.Context, name string, r io.ReaderAt, size int64, opt
 		}
 		for _, f := range zr.File {
 			if strings.HasPrefix(f.Name, "xl/") {
-				return readXLSX(ctx, name, io.NewSectionReader(r, 0, size), opt)
+				return ps.readXLSX(ctx, name, io.NewSectionReader(r, 0, size), opt)
 			}
 		}
 		return nil, &PosError{File: name, Err: fmt.Errorf("%w: zip archive that is not an Excel workbook (no xl/ inside)", ErrBinary)}
 	case bytes.HasPrefix(head, []byte{0x1F, 0x8B}):
-		return readGzip(ctx, name, io.NewSectionReader(r, 0, size), opt)
+		return ps.readGzip(ctx, name, io.NewSectionReader(r, 0, size), opt)
 	case bytes.HasPrefix(head, []byte{0xD0, 0xCF, 0x11, 0xE0, 0xA1, 0xB1, 0x1A, 0xE1}):
 		return nil, &PosError{File: name, Err: fmt.Errorf("%w: legacy Excel .xls (or other OLE2) file; save it as .xlsx or CSV", ErrBinary)}
 	}
-	dec, err := decideEncoding(name, head, func() (byteScan, error) {
+	dec, err := ps.decide(name, head, func() (byteScan, error) {
 		return scanBytes(io.NewSectionReader(r, 0, size))
 	})
 	if err != nil {
@@ -87,9 +175,9 @@ func readSource(ctx context.Context, name string, r io.ReaderAt, size int64, opt
 		// object, else one object wrapping an array of records.
 		line, _, _ := bytes.Cut(bytes.TrimLeft(peek, " \t\r\n"), []byte("\n"))
 		array := first == '[' || !json.Valid(bytes.TrimSpace(line))
-		t, err = readJSON(ctx, name, br, array, dec, opt)
+		t, err = ps.readJSON(ctx, name, br, array, dec, opt)
 	} else {
-		t, err = readCSV(ctx, name, br, peek, ext, dec, tail, opt)
+		t, err = ps.readCSV(ctx, name, br, peek, ext, dec, tail, opt)
 	}
 	if err != nil {
 		return nil, err
@@ -189,20 +277,20 @@ func (t *tailTracker) lastLine() int {
 
 // readGzip decompresses a gzip file (RFC 1952; magic 1F 8B) into a temporary file and
 // reads that. Line numbers are those of the decompressed text.
-func readGzip(ctx context.Context, name string, r io.Reader, opt *Options) (*table, error) {
-	zr, err := gzip.NewReader(r)
-	if err != nil {
-		return nil, &PosError{File: name, Err: fmt.Errorf("%w: damaged gzip file: %v", ErrBinary, err)}
-	}
-	f, err := os.CreateTemp("", "undercurrent-gunzip-*")
+func (ps *pass) readGzip(ctx context.Context, name string, r io.Reader, opt *Options) (*table, error) {
+	f, n, err := ps.spooledFile("gzip:"+name, func(f *os.File) (int64, error) {
+		zr, err := gzip.NewReader(r)
+		if err != nil {
+			return 0, &PosError{File: name, Err: fmt.Errorf("%w: damaged gzip file: %v", ErrBinary, err)}
+		}
+		n, err := io.Copy(f, zr)
+		if err != nil {
+			return 0, &PosError{File: name, Err: fmt.Errorf("%w: damaged gzip file: %v", ErrBinary, err)}
+		}
+		return n, nil
+	})
 	if err != nil {
 		return nil, err
-	}
-	defer os.Remove(f.Name())
-	defer f.Close()
-	n, err := io.Copy(f, zr)
-	if err != nil {
-		return nil, &PosError{File: name, Err: fmt.Errorf("%w: damaged gzip file: %v", ErrBinary, err)}
 	}
 	if n >= 2 {
 		var h [2]byte
@@ -210,7 +298,7 @@ func readGzip(ctx context.Context, name string, r io.Reader, opt *Options) (*tab
 			return nil, &PosError{File: name, Err: fmt.Errorf("%w: gzip inside gzip", ErrBinary)}
 		}
 	}
-	t, err := readSource(ctx, name, f, n, opt)
+	t, err := ps.readSource(ctx, name, f, n, opt)
 	if err != nil {
 		return nil, err
 	}

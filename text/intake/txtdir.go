@@ -20,7 +20,7 @@ var reDateLine = regexp.MustCompile(`^(?i:date)\s*:\s*(.*)$`)
 // its extension), "date" and "text". When a file's first line is "Date: <value>", the
 // value is its date and the line is not part of the narrative; otherwise the date is
 // empty. Each file's encoding is decided on its own; FileInfo.Encoding counts them.
-func readTextDir(ctx context.Context, dir string, opt *Options) (*table, error) {
+func (ps *pass) readTextDir(ctx context.Context, dir string, opt *Options) (*table, error) {
 	ents, err := os.ReadDir(dir)
 	if err != nil {
 		return nil, err
@@ -38,7 +38,8 @@ func readTextDir(ctx context.Context, dir string, opt *Options) (*table, error) 
 		}
 	}
 	sort.Strings(names)
-	t := &table{info: FileInfo{Path: dir, Format: "txt"}, header: []string{"id", "date", "text"}}
+	t := ps.table(FileInfo{Path: dir, Format: "txt"})
+	t.header = []string{"id", "date", "text"}
 	if skipped > 0 {
 		t.notes = append(t.notes, fmt.Sprintf("%s: %d files without the .txt extension were not read", dir, skipped))
 	}
@@ -55,10 +56,12 @@ func readTextDir(ctx context.Context, dir string, opt *Options) (*table, error) 
 		id := strings.TrimSuffix(n, filepath.Ext(n))
 		if len(b) == 0 {
 			encs[EncUTF8]++
-			t.rows = append(t.rows, rawRow{line: 1, f: []string{id, "", ""}, file: p})
+			if err := t.keep(rawRow{line: 1, f: []string{id, "", ""}, file: p}); err != nil {
+				return nil, err
+			}
 			continue
 		}
-		dec, err := decideEncoding(p, b, func() (byteScan, error) { return scanBytes(bytes.NewReader(b)) })
+		dec, err := ps.decide(p, b, func() (byteScan, error) { return scanBytes(bytes.NewReader(b)) })
 		if err != nil {
 			return nil, err
 		}
@@ -85,7 +88,9 @@ func readTextDir(ctx context.Context, dir string, opt *Options) (*table, error) 
 		if m := reDateLine.FindStringSubmatch(strings.TrimRight(first, "\r")); m != nil {
 			date, text = strings.TrimSpace(m[1]), rest
 		}
-		t.rows = append(t.rows, rawRow{line: 1, f: []string{id, date, text}, file: p})
+		if err := t.keep(rawRow{line: 1, f: []string{id, date, text}, file: p}); err != nil {
+			return nil, err
+		}
 	}
 	if t.read() == 0 {
 		return nil, &PosError{File: dir, Err: fmt.Errorf("%w: no .txt files in the folder", ErrEmpty)}

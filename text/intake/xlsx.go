@@ -14,7 +14,7 @@ import (
 // number format applied), so dates arrive as 1900-system serial numbers. Empty rows are
 // skipped like blank CSV lines; a row with a value beyond the header's last column is
 // rejected as a ragged row.
-func readXLSX(ctx context.Context, name string, r io.Reader, opt *Options) (t *table, err error) {
+func (ps *pass) readXLSX(ctx context.Context, name string, r io.Reader, opt *Options) (t *table, err error) {
 	// A damaged workbook must give an error, never a crash; excelize is not guaranteed
 	// to be panic-free on arbitrary bytes.
 	defer func() {
@@ -22,10 +22,10 @@ func readXLSX(ctx context.Context, name string, r io.Reader, opt *Options) (t *t
 			t, err = nil, &PosError{File: name, Err: fmt.Errorf("%w: damaged Excel workbook (%v)", ErrBinary, p)}
 		}
 	}()
-	return readSheet(ctx, name, r, opt)
+	return ps.readSheet(ctx, name, r, opt)
 }
 
-func readSheet(ctx context.Context, name string, r io.Reader, opt *Options) (*table, error) {
+func (ps *pass) readSheet(ctx context.Context, name string, r io.Reader, opt *Options) (*table, error) {
 	f, err := excelize.OpenReader(r)
 	if err != nil {
 		return nil, &PosError{File: name, Err: fmt.Errorf("cannot open Excel workbook: %v", err)}
@@ -59,7 +59,8 @@ func readSheet(ctx context.Context, name string, r io.Reader, opt *Options) (*ta
 		return nil, &PosError{File: name, Err: err}
 	}
 	defer rows.Close()
-	t := &table{info: FileInfo{Path: name, Format: "xlsx", Encoding: "xlsx (UTF-8 XML)", Sheet: sheet}, xlsx: true}
+	t := ps.table(FileInfo{Path: name, Format: "xlsx", Encoding: "xlsx (UTF-8 XML)", Sheet: sheet})
+	t.xlsx = true
 	if len(sheets) > 1 && opt.Sheet == "" {
 		t.notes = append(t.notes, fmt.Sprintf("%s: workbook has %d sheets, read the first, %q (others: %s)", name, len(sheets), sheet, quoteList(sheets[1:])))
 	}
@@ -110,7 +111,9 @@ func readSheet(ctx context.Context, name string, r io.Reader, opt *Options) (*ta
 			t.rejects = append(t.rejects, Reject{File: name, Line: rowNum, Reason: ReasonRepeatedHeader, Detail: "the row repeats the header"})
 			continue
 		}
-		t.rows = append(t.rows, rawRow{line: rowNum, f: cells})
+		if err := t.keep(rawRow{line: rowNum, f: cells}); err != nil {
+			return nil, err
+		}
 	}
 	if err := rows.Error(); err != nil {
 		return nil, &PosError{File: name, Line: rowNum, Err: err}
