@@ -2,6 +2,7 @@ package main
 
 import (
 	"context"
+	_ "embed"
 	"flag"
 	"fmt"
 	"io"
@@ -10,6 +11,11 @@ import (
 
 	"undercurrent/text/demotown"
 )
+
+// demoGuided is the demo's seed-word file: two concerns kept as tracked themes.
+//
+//go:embed demo_guided.txt
+var demoGuided string
 
 func init() {
 	register(&command{
@@ -21,7 +27,8 @@ planted themes, trends, abbreviations, OCR noise, HTML residue and invented pers
 information) into <out>/private-input/incidents.csv, with the ground truth beside it in
 <out>/private-input/truth.jsonl (both hold the raw, unredacted invented text, hence the
 folder's name), and then runs the whole job ('undercurrent report') on it, with the
-district and call_type columns as groups. Everything in it is invented: the town, its
+district and call_type columns as groups, and with two guided themes named by seed words
+(<out>/guided-themes.txt: a mental-health crisis and use of force; -seed-words replaces it). Everything in it is invented: the town, its
 streets, its people; phone numbers are in the 555-0100..555-0199 range reserved for fiction.
 
 It prints the path of the report on standard output.
@@ -45,6 +52,17 @@ Example:
 				inDir := filepath.Join(f.out, "private-input")
 				if err := os.MkdirAll(inDir, 0o755); err != nil {
 					return err
+				}
+				if f.model.seedsFile == "" {
+					// The demo tracks two concerns as guided themes (see demo_guided.txt).
+					path := filepath.Join(f.out, "guided-themes.txt")
+					if err := writeFileAtomic(path, func(w io.Writer) error {
+						_, err := io.WriteString(w, demoGuided)
+						return err
+					}); err != nil {
+						return err
+					}
+					f.model.seedsFile = path
 				}
 				cfg := demotown.Config{Seed: f.model.seed, N: *nDocs, Months: *months}
 				fmt.Fprintf(e.stderr, "generating the invented demo corpus into %s\n", inDir)

@@ -80,7 +80,7 @@ Example:
 				if err != nil {
 					return err
 				}
-				fset, err := mf.fitSettings(e)
+				fset, err := mf.fitSettings(e, p)
 				if err != nil {
 					return err
 				}

@@ -399,7 +399,8 @@ func buildData(ctx context.Context, e *env, f *jobFlags, p *prepared, m *topics.
 		dominant[trend.Dominant(theta[i])]++
 	}
 	for _, t := range order {
-		th := report.Theme{ID: t, Label: labels[t]}
+		// A guided theme's name comes from the analyst's seed file: a person's label.
+		th := report.Theme{ID: t, Label: labels[t], LabelByPerson: m.ThemeName(t) != ""}
 		for _, w := range m.TopWords(t, 12, 1) {
 			th.TopWords = append(th.TopWords, strings.ReplaceAll(w.Display, "_", " "))
 		}

@@ -367,7 +367,7 @@ func parseKRange(s string) ([]int, error) {
 	return out, nil
 }
 
-func (f *modelFlags) fitSettings(e *env) (topics.Settings, error) {
+func (f *modelFlags) fitSettings(e *env, p *prepared) (topics.Settings, error) {
 	s := topics.Settings{K: f.themes, Seed: f.seed, Iterations: f.iterations, Chains: f.chains}
 	if f.seedsFile != "" {
 		fh, err := os.Open(f.seedsFile)
@@ -379,9 +379,52 @@ func (f *modelFlags) fitSettings(e *env) (topics.Settings, error) {
 		if err != nil {
 			return s, err
 		}
-		s.Seeds = phraseSeeds(seeds)
+		seeds, err = p.seedTerms(e, f.seedsFile, phraseSeeds(seeds))
+		if err != nil {
+			return s, err
+		}
+		s.Seeds = seeds
 	}
 	return s, nil
+}
+
+// seedTerms maps seed words as a person writes them ("resisted", "mental health") to the
+// vocabulary's terms by the same text processing ("resist", "mental_health"): a word that is
+// a term already stays; otherwise the frozen pipeline's single term for it, or its terms
+// joined as a phrase when that is a term. A word that matches no term (absent from this
+// corpus, or pruned from its vocabulary) is left out with a note on stderr, so that one seed
+// file serves every refit; a theme left with no word at all is an error.
+func (p *prepared) seedTerms(e *env, file string, seeds []topics.SeedTheme) ([]topics.SeedTheme, error) {
+	vocab := p.corpus.Vocab
+	has := func(w string) bool {
+		i := sort.SearchStrings(vocab, w)
+		return i < len(vocab) && vocab[i] == w
+	}
+	for i := range seeds {
+		var kept []string
+		for _, w := range seeds[i].Words {
+			term := w
+			if !has(term) {
+				doc := p.frozen.Transform(strings.ReplaceAll(w, "_", " "))
+				parts := make([]string, len(doc.Terms))
+				for k, t := range doc.Terms {
+					parts[k] = vocab[t]
+				}
+				term = strings.Join(parts, "_")
+			}
+			if term == "" || !has(term) {
+				fmt.Fprintf(e.stderr, "note: %s:%d: seed word %q of theme %q is not in this corpus's vocabulary; left out\n",
+					file, seeds[i].Line, strings.ReplaceAll(w, "_", " "), seeds[i].Name)
+				continue
+			}
+			kept = append(kept, term)
+		}
+		if len(kept) == 0 {
+			return nil, fmt.Errorf("%s:%d: no seed word of theme %q is in this corpus's vocabulary", file, seeds[i].Line, seeds[i].Name)
+		}
+		seeds[i].Words = kept
+	}
+	return seeds, nil
 }
 
 // topicsCorpus is the fitting input: the non-routine narratives' counts and the frozen
@@ -400,7 +443,7 @@ func chooseK(ctx context.Context, e *env, p *prepared, mf *modelFlags) (int, *to
 	if err != nil {
 		return 0, nil, err
 	}
-	fs, err := mf.fitSettings(e)
+	fs, err := mf.fitSettings(e, p)
 	if err != nil {
 		return 0, nil, err
 	}
@@ -430,7 +473,7 @@ func chooseK(ctx context.Context, e *env, p *prepared, mf *modelFlags) (int, *to
 
 // fitModel fits the final model with K themes.
 func fitModel(ctx context.Context, e *env, p *prepared, mf *modelFlags, k int) (*topics.Model, error) {
-	fs, err := mf.fitSettings(e)
+	fs, err := mf.fitSettings(e, p)
 	if err != nil {
 		return nil, err
 	}
