@@ -8,7 +8,8 @@ import (
 	"sync"
 )
 
-// VectorError reports a NaN or infinite coordinate or an invalid weight.
+// VectorError reports a coordinate that is NaN, infinite or larger in
+// magnitude than 1e100, or a weight that is not in (0, 1e100].
 // Row and Col are 0-based indices into the caller's rows.
 type VectorError struct {
 	Row, Col int // Col is -1 for a weight
@@ -19,8 +20,12 @@ func (e *VectorError) Error() string {
 	if e.Col < 0 {
 		return fmt.Sprintf("cluster: weight %v of row %d is not a positive finite number", e.Value, e.Row)
 	}
-	return fmt.Sprintf("cluster: row %d, column %d: %v is not a finite number", e.Row, e.Col, e.Value)
+	return fmt.Sprintf("cluster: row %d, column %d: %v is not a finite number of magnitude at most 1e100", e.Row, e.Col, e.Value)
 }
+
+// maxCoordinate bounds the magnitude of coordinates, so that squared
+// distances and weighted sums cannot overflow.
+const maxCoordinate = 1e100
 
 // Unwrap returns ErrNotFinite.
 func (e *VectorError) Unwrap() error { return ErrNotFinite }
@@ -45,7 +50,7 @@ func flatten(x [][]float64, weights []float64) (flat []float64, w []float64, d i
 			panic("cluster: rows of x differ in length")
 		}
 		for j, v := range row {
-			if math.IsNaN(v) || math.IsInf(v, 0) {
+			if !(math.Abs(v) <= maxCoordinate) {
 				return nil, nil, 0, &VectorError{Row: i, Col: j, Value: v}
 			}
 		}
@@ -53,7 +58,7 @@ func flatten(x [][]float64, weights []float64) (flat []float64, w []float64, d i
 		w[i] = 1
 		if weights != nil {
 			v := weights[i]
-			if !(v > 0) || math.IsInf(v, 0) {
+			if !(v > 0) || v > 1e100 {
 				return nil, nil, 0, &VectorError{Row: i, Col: -1, Value: v}
 			}
 			w[i] = v
@@ -261,6 +266,9 @@ type cand struct {
 }
 
 func (c cand) less(o cand) bool {
+	if o.key < 0 { // no candidate yet
+		return c.key >= 0
+	}
 	if c.v != o.v {
 		return c.v < o.v
 	}
@@ -402,7 +410,7 @@ func genericVectors(cent, w []float64, n, d int, method Linkage, workers int) *D
 		distRow(x, x+1)
 		best, bd := -1, math.Inf(1)
 		for i := x + 1; i < n; i++ {
-			if size[i] != 0 && row[i] < bd {
+			if size[i] != 0 && (row[i] < bd || best < 0) {
 				best, bd = i, row[i]
 			}
 		}
