@@ -583,14 +583,14 @@ func ward12Go(x *[12]float64, c []float64, d int, w []float64, out []float64, ma
 // sumHead16 is the partial sum over the first sixteen coordinates, in
 // the order of the AVX2 kernel:
 //
-//	u_j = ((t_j² + t_{j+4}²) + t_{j+8}²) + t_{j+12}²,  s = (u0 + u2) + (u1 + u3)
+//	u_j = ((t_j² + t_{j+4}²) + t_{j+8}²) + t_{j+12}²,  s = (u0 + u1) + (u2 + u3)
 func sumHead16(a, b []float64) float64 {
 	var u [4]float64
 	for j := range u {
 		t0, t1, t2, t3 := a[j]-b[j], a[j+4]-b[j+4], a[j+8]-b[j+8], a[j+12]-b[j+12]
 		u[j] = float64(float64(float64(t0*t0)+float64(t1*t1))+float64(t2*t2)) + float64(t3*t3)
 	}
-	return (u[0] + u[2]) + (u[1] + u[3])
+	return (u[0] + u[1]) + (u[2] + u[3])
 }
 
 // ward16Go is the portable ward16.
