@@ -67,7 +67,7 @@ func TestNearest2(t *testing.T) {
 		b1, v1, v2 := nearest2(xi, cent, 201, 20, ones)
 		c1, w1, w2 := -1, 1e300, 1e300
 		for j := 0; j < 201; j++ {
-			v := sumHead8(xi, cent[j*20:]) + sqdistGo(xi[8:], cent[j*20+8:j*20+20])
+			v := sumHead16(xi, cent[j*20:]) + sqdistGo(xi[16:], cent[j*20+16:j*20+20])
 			if v < w1 {
 				c1, w1, w2 = j, v, w1
 			} else if v < w2 {
