@@ -368,3 +368,100 @@ func (h *indexHeap) down(i int) {
 		i = c
 	}
 }
+
+// nnChainSquare is nnChainCondensed on a full symmetric n×n matrix d
+// (overwritten): the same chain, scans, tie rules and update formulas, so
+// the same merges, but a scan reads one row, contiguously, instead of a
+// column of the condensed matrix; only the update writes a column.
+func nnChainSquare(d []float64, n int, m Linkage, workers int) (*Dendrogram, error) {
+	z := make([]Merge, n-1)
+	size := make([]float64, n)
+	act := make([]int, n)
+	for i := range size {
+		size[i] = 1
+		act[i] = i
+	}
+	chain := make([]int, 0, n)
+	best := make([]cand, max(1, workers))
+	bad := make([]bool, max(1, workers))
+	for k := 0; k < n-1; k++ {
+		if len(chain) == 0 {
+			chain = append(chain, act[0])
+		}
+		var x, y int
+		var cur float64
+		for {
+			x = chain[len(chain)-1]
+			prev := -1
+			b0 := cand{v: math.Inf(1), key: -1}
+			if len(chain) > 1 {
+				prev = chain[len(chain)-2]
+				b0 = cand{v: d[x*n+prev], prev: true, key: prev}
+			}
+			row := d[x*n : x*n+n]
+			used := parallelRanges(len(act), workers, minParallel, func(w, lo, hi int) {
+				b := b0
+				for _, i := range act[lo:hi] {
+					if i == x {
+						continue
+					}
+					v := row[i]
+					if v < b.v || (v == b.v && !b.prev && i < b.key) || b.key < 0 {
+						b = cand{v: v, prev: i == prev, key: i}
+					}
+				}
+				best[w] = b
+			})
+			r := best[0]
+			for w := 1; w < used; w++ {
+				if best[w].less(r) {
+					r = best[w]
+				}
+			}
+			y, cur = r.key, r.v
+			if prev >= 0 && y == prev {
+				break
+			}
+			chain = append(chain, y)
+		}
+		chain = chain[:len(chain)-2]
+		if x > y {
+			x, y = y, x
+		}
+		nx, ny := size[x], size[y]
+		z[k] = Merge{A: x, B: y, Height: cur}
+		size[x] = 0
+		size[y] = nx + ny
+		ax, _ := slices.BinarySearch(act, x)
+		act = slices.Delete(act, ax, ax+1)
+		rx, ry := d[x*n:x*n+n], d[y*n:y*n+n]
+		parallelRanges(len(act), workers, minParallel, func(wk, lo, hi int) {
+			part := act[lo:hi]
+			if m == Average {
+				for _, i := range part {
+					if i == y {
+						continue
+					}
+					v := (float64(nx*rx[i]) + float64(ny*ry[i])) / (nx + ny)
+					ry[i], d[i*n+y] = v, v
+				}
+				return
+			}
+			for _, i := range part {
+				if i == y {
+					continue
+				}
+				v := update(m, rx[i], ry[i], cur, nx, ny, size[i])
+				if math.IsNaN(v) {
+					bad[wk] = true
+				}
+				ry[i], d[i*n+y] = v, v
+			}
+		})
+		if slices.Contains(bad, true) {
+			return nil, nonReal(m, k)
+		}
+	}
+	sortAndLabel(z, n)
+	return &Dendrogram{N: n, Merges: z}, nil
+}

@@ -82,8 +82,10 @@ func flatten(x [][]float64, weights []float64) (flat []float64, w []float64, d i
 // pruned by partial sums over the first coordinates); Centroid and
 // Median run the generic algorithm. Single runs the MST algorithm with
 // distances computed on the fly, also in O(n·d) memory. Complete, Average
-// and Weighted compute the condensed Euclidean matrix (n(n-1)/2 values, the
-// only copy: it is then used as Link's working matrix). Distance computations are split over Settings.Workers
+// and Weighted compute the Euclidean distance matrix and run Link's
+// nearest-neighbour chain on it: the full n×n matrix up to n = 23170
+// (8n² bytes; rows are then read contiguously), the condensed one
+// (4n² bytes) above. Distance computations are split over Settings.Workers
 // goroutines and reduced in a fixed order with an associative tie rule,
 // so results do not depend on the number of workers.
 //
@@ -116,6 +118,9 @@ func LinkVectors(x [][]float64, weights []float64, method Linkage, s *Settings) 
 	if weights != nil {
 		panic("cluster: weights need Ward, Centroid or Median linkage")
 	}
+	if n <= squareLimit {
+		return nnChainSquare(euclideanSquare(flat, n, d, s.workers()), n, method, s.workers())
+	}
 	return link(EuclideanCondensed(nil, x, s), method, s, true)
 }
 
@@ -139,6 +144,24 @@ func EuclideanCondensed(dst []float64, x [][]float64, s *Settings) []float64 {
 	return pairwise(dst, n, s, func(i int, out []float64) {
 		rowDist(flat[i*d:i*d+d], flat[(i+1)*d:], out)
 	})
+}
+
+// squareLimit is the largest n for which LinkVectors keeps the full n×n
+// matrix (8n² bytes, 4 GiB at the limit) instead of the condensed one:
+// twice the memory, but the NN chain then reads rows instead of columns.
+const squareLimit = 23170
+
+// euclideanSquare returns the full n×n Euclidean distance matrix of the
+// rows of flat (d columns), rows split over workers; entry (i, j) and
+// (j, i) are computed alike, so the matrix is exactly symmetric.
+func euclideanSquare(flat []float64, n, d, workers int) []float64 {
+	D := make([]float64, n*n) // no huge-page hint: rows are read contiguously
+	parallelRanges(n, workers, 1, func(_, lo, hi int) {
+		for i := lo; i < hi; i++ {
+			rowDist(flat[i*d:i*d+d], flat, D[i*n:i*n+n])
+		}
+	})
+	return D
 }
 
 // rowDistGo is the portable rowDist.
