@@ -218,4 +218,3 @@ func (s *Settings) workersOrZero() int {
 	}
 	return s.Workers
 }
-
