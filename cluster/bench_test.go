@@ -63,9 +63,27 @@ func benchmarkLink(b *testing.B, n int, m Linkage) {
 		}
 	}
 	b.StopTimer()
-	b.ReportMetric((processCPU()-c0).Seconds()/float64(b.N), "cpu_s/op")
+	cpu := (processCPU() - c0).Seconds() / float64(b.N)
+	b.ReportMetric(cpu, "cpu_s/op")
 	b.ReportMetric(peakMB(), "peak_MB")
+	jsonLine(b, m.String(), n, cpu)
 	compareRef(b, t, m, n)
+}
+
+// jsonLine prints, when UNDERCURRENT_BENCH_JSON is set, one line in the
+// format of testdata/bench_ref.py:
+//
+//	{"bench": "ward", "system": "undercurrent", "n": 20000, "seconds": ..., "cpu_seconds": ..., "peak_mb": ...}
+//
+// peak_mb is the process's peak resident memory so far (run one benchmark
+// per process for a figure of its own).
+func jsonLine(b *testing.B, bench string, n int, cpu float64) {
+	if os.Getenv("UNDERCURRENT_BENCH_JSON") == "" {
+		return
+	}
+	sec := b.Elapsed().Seconds() / float64(b.N)
+	fmt.Printf("{\"bench\": %q, \"system\": \"undercurrent\", \"n\": %d, \"seconds\": %.3f, \"cpu_seconds\": %.3f, \"peak_mb\": %.1f}\n",
+		bench, n, sec, cpu, peakMB())
 }
 
 // processCPU returns the user + system time of this process so far, less
@@ -152,8 +170,10 @@ func BenchmarkSummary100k(b *testing.B) {
 		}
 	}
 	b.StopTimer()
-	b.ReportMetric((processCPU()-c0).Seconds()/float64(b.N), "cpu_s/op")
+	cpu := (processCPU() - c0).Seconds() / float64(b.N)
+	b.ReportMetric(cpu, "cpu_s/op")
 	b.ReportMetric(peakMB(), "peak_MB")
+	jsonLine(b, "summary", 100000, cpu)
 }
 
 // BenchmarkWardSmall etc.: quick sizes for regressions.

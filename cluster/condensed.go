@@ -1,6 +1,7 @@
 package cluster
 
 import (
+	"fmt"
 	"math"
 	"slices"
 )
@@ -77,7 +78,7 @@ var minParallel = 8192
 // split.
 //
 // If own is true dist is the caller's scratch copy and is overwritten.
-func nnChainCondensed(dist []float64, n int, m Linkage, workers int, own bool) *Dendrogram {
+func nnChainCondensed(dist []float64, n int, m Linkage, workers int, own bool) (*Dendrogram, error) {
 	d := dist
 	if !own {
 		d = make([]float64, len(dist))
@@ -93,6 +94,7 @@ func nnChainCondensed(dist []float64, n int, m Linkage, workers int, own bool) *
 	}
 	chain := make([]int, 0, n)
 	best := make([]cand, max(1, workers))
+	bad := make([]bool, max(1, workers))
 	for k := 0; k < n-1; k++ {
 		if len(chain) == 0 {
 			chain = append(chain, act[0])
@@ -114,7 +116,7 @@ func nnChainCondensed(dist []float64, n int, m Linkage, workers int, own bool) *
 				// Points below x: d(i, x) lies in row i (one read per row).
 				for _, i := range part[:mid] {
 					v := d[n*i-i*(i+1)/2+x-i-1]
-					if v < b.v || (v == b.v && !b.prev && i < b.key) {
+					if v < b.v || (v == b.v && !b.prev && i < b.key) || b.key < 0 {
 						b = cand{v: v, prev: i == prev, key: i}
 					}
 				}
@@ -125,7 +127,7 @@ func nnChainCondensed(dist []float64, n int, m Linkage, workers int, own bool) *
 						continue
 					}
 					v := d[base+i]
-					if v < b.v || (v == b.v && !b.prev && i < b.key) {
+					if v < b.v || (v == b.v && !b.prev && i < b.key) || b.key < 0 {
 						b = cand{v: v, prev: i == prev, key: i}
 					}
 				}
@@ -153,7 +155,7 @@ func nnChainCondensed(dist []float64, n int, m Linkage, workers int, own bool) *
 		size[y] = nx + ny
 		ax, _ := slices.BinarySearch(act, x)
 		act = slices.Delete(act, ax, ax+1)
-		parallelRanges(len(act), workers, minParallel, func(_, lo, hi int) {
+		parallelRanges(len(act), workers, minParallel, func(wk, lo, hi int) {
 			part := act[lo:hi]
 			if m == Average {
 				// update(Average, ...) written out, same operations.
@@ -171,12 +173,19 @@ func nnChainCondensed(dist []float64, n int, m Linkage, workers int, own bool) *
 					continue
 				}
 				iy := cidx(n, i, y)
-				d[iy] = update(m, d[cidx(n, i, x)], d[iy], cur, nx, ny, size[i])
+				v := update(m, d[cidx(n, i, x)], d[iy], cur, nx, ny, size[i])
+				if math.IsNaN(v) {
+					bad[wk] = true
+				}
+				d[iy] = v
 			}
 		})
+		if slices.Contains(bad, true) {
+			return nil, nonReal(m, k)
+		}
 	}
 	sortAndLabel(z, n)
-	return &Dendrogram{N: n, Merges: z}
+	return &Dendrogram{N: n, Merges: z}, nil
 }
 
 // genericCondensed is Müllner's generic algorithm (2011, fig. 3) for
@@ -185,7 +194,7 @@ func nnChainCondensed(dist []float64, n int, m Linkage, workers int, own bool) *
 // a binary heap; candidates are recomputed only when they come to the top
 // stale. Heap ties and scans resolve as in scipy 1.10's fast_linkage, so
 // the merge list equals scipy's.
-func genericCondensed(dist []float64, n int, m Linkage, own bool) *Dendrogram {
+func genericCondensed(dist []float64, n int, m Linkage, own bool) (*Dendrogram, error) {
 	d := dist
 	if !own {
 		d = make([]float64, len(dist))
@@ -207,7 +216,8 @@ func genericCondensed(dist []float64, n int, m Linkage, own bool) *Dendrogram {
 			if size[i] == 0 {
 				continue
 			}
-			if v := d[cidx(n, x, i)]; v < bd {
+			// best < 0: an infinite distance (overflow) is still a candidate.
+			if v := d[cidx(n, x, i)]; v < bd || best < 0 {
 				best, bd = i, v
 			}
 		}
@@ -246,7 +256,11 @@ func genericCondensed(dist []float64, n int, m Linkage, own bool) *Dendrogram {
 				continue
 			}
 			wy := cidx(n, w, y)
-			d[wy] = update(m, d[cidx(n, w, x)], d[wy], dxy, nx, ny, nw)
+			v := update(m, d[cidx(n, w, x)], d[wy], dxy, nx, ny, nw)
+			if math.IsNaN(v) {
+				return nil, nonReal(m, k)
+			}
+			d[wy] = v
 		}
 		for w := 0; w < x; w++ {
 			if size[w] > 0 && nbr[w] == x {
@@ -269,7 +283,15 @@ func genericCondensed(dist []float64, n int, m Linkage, own bool) *Dendrogram {
 			}
 		}
 	}
-	return &Dendrogram{N: n, Merges: z}
+	return &Dendrogram{N: n, Merges: z}, nil
+}
+
+// nonReal is the error for a Lance–Williams update that is not a number.
+// With distances bounded as Link requires, Ward, Centroid and Median stay
+// real (the merged pair is the closest, so the radicands are positive) and
+// nothing overflows; this is a guard, not an expected outcome.
+func nonReal(m Linkage, k int) error {
+	return fmt.Errorf("cluster: %v linkage: a distance update is not a number at merge %d", m, k)
 }
 
 // indexHeap is a binary min-heap of values addressed by key. Children
@@ -345,4 +367,101 @@ func (h *indexHeap) down(i int) {
 		h.swap(i, c)
 		i = c
 	}
+}
+
+// nnChainSquare is nnChainCondensed on a full symmetric n×n matrix d
+// (overwritten): the same chain, scans, tie rules and update formulas, so
+// the same merges, but a scan reads one row, contiguously, instead of a
+// column of the condensed matrix; only the update writes a column.
+func nnChainSquare(d []float64, n int, m Linkage, workers int) (*Dendrogram, error) {
+	z := make([]Merge, n-1)
+	size := make([]float64, n)
+	act := make([]int, n)
+	for i := range size {
+		size[i] = 1
+		act[i] = i
+	}
+	chain := make([]int, 0, n)
+	best := make([]cand, max(1, workers))
+	bad := make([]bool, max(1, workers))
+	for k := 0; k < n-1; k++ {
+		if len(chain) == 0 {
+			chain = append(chain, act[0])
+		}
+		var x, y int
+		var cur float64
+		for {
+			x = chain[len(chain)-1]
+			prev := -1
+			b0 := cand{v: math.Inf(1), key: -1}
+			if len(chain) > 1 {
+				prev = chain[len(chain)-2]
+				b0 = cand{v: d[x*n+prev], prev: true, key: prev}
+			}
+			row := d[x*n : x*n+n]
+			used := parallelRanges(len(act), workers, minParallel, func(w, lo, hi int) {
+				b := b0
+				for _, i := range act[lo:hi] {
+					if i == x {
+						continue
+					}
+					v := row[i]
+					if v < b.v || (v == b.v && !b.prev && i < b.key) || b.key < 0 {
+						b = cand{v: v, prev: i == prev, key: i}
+					}
+				}
+				best[w] = b
+			})
+			r := best[0]
+			for w := 1; w < used; w++ {
+				if best[w].less(r) {
+					r = best[w]
+				}
+			}
+			y, cur = r.key, r.v
+			if prev >= 0 && y == prev {
+				break
+			}
+			chain = append(chain, y)
+		}
+		chain = chain[:len(chain)-2]
+		if x > y {
+			x, y = y, x
+		}
+		nx, ny := size[x], size[y]
+		z[k] = Merge{A: x, B: y, Height: cur}
+		size[x] = 0
+		size[y] = nx + ny
+		ax, _ := slices.BinarySearch(act, x)
+		act = slices.Delete(act, ax, ax+1)
+		rx, ry := d[x*n:x*n+n], d[y*n:y*n+n]
+		parallelRanges(len(act), workers, minParallel, func(wk, lo, hi int) {
+			part := act[lo:hi]
+			if m == Average {
+				for _, i := range part {
+					if i == y {
+						continue
+					}
+					v := (float64(nx*rx[i]) + float64(ny*ry[i])) / (nx + ny)
+					ry[i], d[i*n+y] = v, v
+				}
+				return
+			}
+			for _, i := range part {
+				if i == y {
+					continue
+				}
+				v := update(m, rx[i], ry[i], cur, nx, ny, size[i])
+				if math.IsNaN(v) {
+					bad[wk] = true
+				}
+				ry[i], d[i*n+y] = v, v
+			}
+		})
+		if slices.Contains(bad, true) {
+			return nil, nonReal(m, k)
+		}
+	}
+	sortAndLabel(z, n)
+	return &Dendrogram{N: n, Merges: z}, nil
 }

@@ -76,8 +76,10 @@
 // vectors first sums 8, 12 or 16 coordinates of 256 candidates at a time
 // and drops those already farther than the best one (AVX2 assembly on
 // amd64, computing the same bits as the portable code, which -tags purego
-// selects). On Linux, large distance matrices are advised to use
-// transparent huge pages, which speeds up the column reads of the NN chain.
+// selects). The matrix methods on vectors keep a full n×n matrix up to
+// n = 16384, so that the NN chain reads rows, and the condensed matrix
+// above; on Linux, large condensed matrices are advised to use transparent
+// huge pages, which speeds up their column reads.
 //
 // # Caution
 //

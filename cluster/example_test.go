@@ -47,3 +47,46 @@ func ExampleLinkVectors() {
 	// 3 + 6 at 6.940221
 	// 4 + 7 at 15.495161
 }
+
+// Themes whose word distributions are close are suggested for merging.
+// The rows are invented word distributions over five words.
+func ExampleNewThemeTree() {
+	phi := [][]float64{
+		{0.50, 0.30, 0.10, 0.05, 0.05}, // theme 0
+		{0.48, 0.32, 0.10, 0.05, 0.05}, // theme 1: nearly theme 0
+		{0.05, 0.05, 0.10, 0.30, 0.50}, // theme 2
+		{0.20, 0.20, 0.20, 0.20, 0.20}, // theme 3
+	}
+	tt, err := cluster.NewThemeTree(phi, cluster.JensenShannon, nil)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	for _, s := range tt.Suggestions(0.05) {
+		fmt.Printf("themes %v (Jensen–Shannon distance %.3f)\n", s.Themes, s.Height)
+	}
+	// Output:
+	// themes [0 1] (Jensen–Shannon distance 0.016)
+}
+
+// Near-identical rows (for example the theme mixtures of templated
+// narratives) come back as tight groups.
+func ExampleTightGroups() {
+	x := [][]float64{
+		{0.70, 0.20, 0.10},
+		{0.10, 0.10, 0.80},
+		{0.70, 0.21, 0.09},
+		{0.40, 0.30, 0.30},
+		{0.71, 0.20, 0.09},
+	}
+	groups, err := cluster.TightGroups(x, 0.02, 2, nil)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	for _, g := range groups {
+		fmt.Printf("rows %v, diameter %.4f\n", g.Rows, g.Diameter)
+	}
+	// Output:
+	// rows [0 2 4], diameter 0.0141
+}

@@ -25,7 +25,9 @@ const MaxComponent = 20000
 //
 // Method: every pair at distance ≤ eps is found by sorting the rows on the
 // coordinate with the largest variance and sweeping a window of width eps
-// (a pair farther apart on one coordinate is farther apart in all); the
+// (a pair farther apart on one coordinate is farther apart in all; three
+// more coordinates reject most pairs before the full distance; the sweep
+// is split over Settings.Workers goroutines); the
 // eps-graph's connected components are the single-linkage clusters at eps,
 // and complete linkage never merges across them below eps, so complete
 // linkage is run on each component alone (condensed matrix of the
@@ -43,8 +45,9 @@ func TightGroups(x [][]float64, eps float64, minSize int, s *Settings) ([]Group,
 	if n == 0 {
 		return nil, nil
 	}
-	// Coordinate of largest variance.
-	axis, bestVar := 0, -1.0
+	// Coordinates by decreasing variance: the first orders the sweep, the
+	// next three reject pairs cheaply before the full distance.
+	vars := make([]float64, d)
 	for k := 0; k < d; k++ {
 		var m, m2 float64
 		for i := 0; i < n; i++ {
@@ -53,10 +56,24 @@ func TightGroups(x [][]float64, eps float64, minSize int, s *Settings) ([]Group,
 			m2 += v * v
 		}
 		m /= float64(n)
-		if v := m2/float64(n) - m*m; v > bestVar {
-			axis, bestVar = k, v
-		}
+		vars[k] = m2/float64(n) - m*m
 	}
+	byVar := make([]int, d)
+	for k := range byVar {
+		byVar[k] = k
+	}
+	slices.SortStableFunc(byVar, func(a, b int) int {
+		switch {
+		case vars[a] > vars[b]:
+			return -1
+		case vars[a] < vars[b]:
+			return 1
+		}
+		return 0
+	})
+	axis := byVar[0]
+	checks := byVar[1:min(d, 4)]
+	// Sorted copy of the rows, so that the sweep reads memory in order.
 	idx := make([]int, n)
 	for i := range idx {
 		idx[i] = i
@@ -71,6 +88,41 @@ func TightGroups(x [][]float64, eps float64, minSize int, s *Settings) ([]Group,
 		}
 		return 0
 	})
+	sorted := make([]float64, n*d)
+	for a, i := range idx {
+		copy(sorted[a*d:], flat[i*d:i*d+d])
+	}
+	// Every pair within eps, found in parallel over ranges of sweep
+	// starts; slack far above rounding keeps the tests safe.
+	e2 := eps * eps * (1 + 1e-12)
+	epsS := eps * (1 + 1e-12)
+	w := s.workers()
+	edges := make([][][2]int, max(1, w))
+	parallelRanges(n, w, 1024, func(k, lo, hi int) {
+		var out [][2]int
+		for a := lo; a < hi; a++ {
+			xa := sorted[a*d : a*d+d]
+			for b := a + 1; b < n; b++ {
+				xb := sorted[b*d : b*d+d]
+				if xb[axis]-xa[axis] > epsS {
+					break
+				}
+				far := false
+				for _, c := range checks {
+					if math.Abs(xb[c]-xa[c]) > epsS {
+						far = true
+						break
+					}
+				}
+				if !far && sqdist(xa, xb) <= e2 {
+					out = append(out, [2]int{idx[a], idx[b]})
+				}
+			}
+		}
+		edges[k] = out
+	})
+	// Components do not depend on the order of the unions; the root of
+	// each is its smallest row.
 	parent := make([]int, n)
 	for i := range parent {
 		parent[i] = i
@@ -82,20 +134,11 @@ func TightGroups(x [][]float64, eps float64, minSize int, s *Settings) ([]Group,
 		}
 		return x
 	}
-	e2 := eps * eps
-	for a := 0; a < n; a++ {
-		i := idx[a]
-		xi := flat[i*d : i*d+d]
-		for b := a + 1; b < n; b++ {
-			j := idx[b]
-			if flat[j*d+axis]-xi[axis] > eps {
-				break
-			}
-			if sqdist(xi, flat[j*d:j*d+d]) <= e2*(1+1e-12) {
-				ri, rj := find(i), find(j)
-				if ri != rj {
-					parent[max(ri, rj)] = min(ri, rj)
-				}
+	for _, es := range edges {
+		for _, e := range es {
+			ri, rj := find(e[0]), find(e[1])
+			if ri != rj {
+				parent[max(ri, rj)] = min(ri, rj)
 			}
 		}
 	}
@@ -175,5 +218,3 @@ func (s *Settings) workersOrZero() int {
 	}
 	return s.Workers
 }
-
-var _ = math.Inf

@@ -67,7 +67,7 @@ func TestNearest2(t *testing.T) {
 		b1, v1, v2 := nearest2(xi, cent, 201, 20, ones)
 		c1, w1, w2 := -1, 1e300, 1e300
 		for j := 0; j < 201; j++ {
-			v := sumHead8(xi, cent[j*20:]) + sqdistGo(xi[8:], cent[j*20+8:j*20+20])
+			v := sumHead16(xi, cent[j*20:]) + sqdistGo(xi[16:], cent[j*20+16:j*20+20])
 			if v < w1 {
 				c1, w1, w2 = j, v, w1
 			} else if v < w2 {
@@ -116,19 +116,21 @@ func TestKernel16(t *testing.T) {
 		w = append(w, float64(1+i%7))
 	}
 	q := (*[16]float64)(x[3][:16])
-	out1, out2 := make([]float64, 700), make([]float64, 700)
-	m1, m2 := make([]uint64, 11), make([]uint64, 11)
-	for _, lim := range []float64{0.001, 0.01, 0.05, 1} {
-		ward16(q, c, 20, w, out1, m1, 6, lim, lim*3)
-		ward16Go(q, c, 20, w, out2, m2, 6, lim, lim*3)
-		for k := range out1 {
-			if out1[k] != out2[k] {
-				t.Fatalf("partial %d: %v vs %v", k, out1[k], out2[k])
+	for _, n := range []int{1, 2, 3, 4, 5, 63, 64, 65, 67, 697, 698, 699, 700} {
+		out1, out2 := make([]float64, n), make([]float64, n)
+		m1, m2 := make([]uint64, 11), make([]uint64, 11)
+		for _, lim := range []float64{0.001, 0.01, 0.05, 1} {
+			ward16(q, c, 20, w, out1, m1, 6, lim, lim*3)
+			ward16Go(q, c, 20, w, out2, m2, 6, lim, lim*3)
+			for k := range out1 {
+				if out1[k] != out2[k] {
+					t.Fatalf("n=%d partial %d: %v vs %v", n, k, out1[k], out2[k])
+				}
 			}
-		}
-		for k := range m1 {
-			if m1[k] != m2[k] {
-				t.Fatalf("lim %v mask %d: %x vs %x", lim, k, m1[k], m2[k])
+			for k := 0; k < (n+63)/64; k++ {
+				if m1[k] != m2[k] {
+					t.Fatalf("n=%d lim %v mask %d: %x vs %x", n, lim, k, m1[k], m2[k])
+				}
 			}
 		}
 	}

@@ -118,8 +118,12 @@ func (s *Settings) workers() int {
 // ErrDistance is wrapped by the errors returned for an invalid distance.
 var ErrDistance = errors.New("invalid distance")
 
-// DistanceError reports a NaN, infinite or negative distance; I and J
-// are the 0-based points of the pair.
+// maxDistance bounds input distances so that Ward's, Centroid's and
+// Median's squares cannot overflow.
+const maxDistance = 1e150
+
+// DistanceError reports a distance that is NaN, negative or larger than
+// 1e150; I and J are the 0-based points of the pair.
 type DistanceError struct {
 	Index int // index in the condensed matrix
 	I, J  int // the pair, i < j
@@ -178,7 +182,7 @@ func checkCondensed(dist []float64) (int, error) {
 	}
 	i, j := 0, 1
 	for k, v := range dist {
-		if math.IsNaN(v) || math.IsInf(v, 0) || v < 0 {
+		if !(v >= 0 && v <= maxDistance) {
 			return 0, &DistanceError{Index: k, I: i, J: j, Value: v, Err: ErrDistance}
 		}
 		j++
@@ -192,7 +196,8 @@ func checkCondensed(dist []float64) (int, error) {
 
 // Link clusters n points given their condensed distance matrix dist (scipy's
 // layout, see CondensedIndex), which is never modified. It returns an error
-// if len(dist) is not n(n-1)/2 or a value is NaN, infinite or negative.
+// if len(dist) is not n(n-1)/2 or a value is NaN, negative or larger than
+// 1e150 (so that squares cannot overflow).
 //
 // Algorithms (Müllner 2011, "Modern hierarchical, agglomerative clustering
 // algorithms", arXiv:1109.2378): Single uses the minimum-spanning-tree
@@ -226,9 +231,9 @@ func link(dist []float64, method Linkage, s *Settings, own bool) (*Dendrogram, e
 	case Single:
 		return mstSingle(dist, n, s.workers()), nil
 	case Centroid, Median:
-		return genericCondensed(dist, n, method, own), nil
+		return genericCondensed(dist, n, method, own)
 	default:
-		return nnChainCondensed(dist, n, method, s.workers(), own), nil
+		return nnChainCondensed(dist, n, method, s.workers(), own)
 	}
 }
 

@@ -131,7 +131,7 @@ func partitionsAfterEachMerge(n int, z [][2]int) [][]int {
 // (Debian python3-scipy 1.10.1, fixture testdata/scipy_linkage.json made by
 // testdata/gen_scipy.py) for every method on random distances, integer
 // distances with many ties, and near-ties (grid points jittered by 1e-9).
-// The Z matrix must be identical: same pairs and sizes, heights to 1e-12.
+// The Z matrix must be identical: same pairs and sizes, bit-identical heights.
 //
 // It runs with 1 and 3 workers and the parallel threshold lowered so that
 // the split scans are exercised on these small inputs.

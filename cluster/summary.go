@@ -367,7 +367,8 @@ func lloyd(x, w []float64, n, d, k int, cent []float64, assign []int, iters, wor
 
 // nearest2 returns the nearest centre to xi (lowest index on ties) and the
 // squared distances to the nearest and the second nearest. For d ≥ 12 the
-// first eight coordinates of 256 centres at a time are summed by ward8
+// first eight (sixteen for d ≥ 20) coordinates of 256 centres at a time
+// are summed by ward8 (ward16)
 // and centres whose partial sum already exceeds the second-best value
 // (by a relative 1e-12, far above rounding) are skipped; the others get
 // their exact squared distance, so the result is that of a full scan.
@@ -384,19 +385,26 @@ func nearest2(xi, cent []float64, k, d int, ones []float64) (int, float64, float
 		}
 		return b1, v1, v2
 	}
-	q := (*[8]float64)(xi[:8])
+	head := 8
+	if d >= 20 {
+		head = 16
+	}
 	var buf [256]float64
 	var mask [4]uint64
 	for blk := 0; blk < k; blk += len(buf) {
 		end := min(k, blk+len(buf))
 		part := buf[:end-blk]
 		lim := v2 * (1 + 1e-12)
-		ward8(q, cent[blk*d:], d, ones[blk:], part, mask[:], 1, lim, 0)
+		if head == 16 {
+			ward16((*[16]float64)(xi[:16]), cent[blk*d:], d, ones[blk:], part, mask[:], 1, lim, 0)
+		} else {
+			ward8((*[8]float64)(xi[:8]), cent[blk*d:], d, ones[blk:], part, mask[:], 1, lim, 0)
+		}
 		for mi, mw := range mask[:(len(part)+63)/64] {
 			for mw != 0 {
 				j := blk + mi*64 + bits.TrailingZeros64(mw)
 				mw &= mw - 1
-				v := part[j-blk] + sqdist(xi[8:], cent[j*d+8:j*d+d])
+				v := part[j-blk] + sqdist(xi[head:], cent[j*d+head:j*d+d])
 				if v < v1 {
 					b1, v1, v2 = j, v, v1
 				} else if v < v2 {

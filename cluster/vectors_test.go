@@ -168,7 +168,8 @@ func TestGOMAXPROCS(t *testing.T) {
 		d, _ := LinkVectors(x[:800], nil, Average, nil)
 		out = append(out, d, d.OptimalLeafOrder(nil, EuclideanCondensed(nil, x[:800], nil), nil))
 		s, _ := Summarize(x, nil, &SummarySettings{K: 100, Seed: 3})
-		return append(out, s)
+		g, _ := TightGroups(x, 0.1, 2, nil)
+		return append(out, s, g)
 	}
 	runtime.GOMAXPROCS(1)
 	a := run()

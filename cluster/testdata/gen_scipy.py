@@ -9,7 +9,11 @@ Every case records the input (a condensed distance matrix, or vectors), the
 method and what scipy.cluster.hierarchy returns for it: linkage (the Z
 matrix), cophenet (cophenetic distances and correlation), leaves_list,
 leaves_list(optimal_leaf_ordering(Z, y)) and fcluster by maxclust and by
-distance. Inputs are synthetic and seeded (numpy default_rng).
+distance. The "prob" section holds probability rows with
+scipy.spatial.distance.jensenshannon, the Hellinger distance (Euclidean
+distance of square roots over sqrt(2)) and average linkage on the
+Jensen-Shannon distances. Inputs are synthetic and seeded (numpy
+default_rng); the output is deterministic for a given scipy and numpy.
 """
 import json
 import sys
