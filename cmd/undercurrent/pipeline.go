@@ -12,9 +12,12 @@ import (
 	"io"
 	"os"
 	"path/filepath"
+	"runtime"
 	"sort"
 	"strconv"
 	"strings"
+	"sync"
+	"sync/atomic"
 
 	"undercurrent/stopwords"
 	"undercurrent/text"
@@ -203,17 +206,37 @@ func prepare(ctx context.Context, e *env, in *inputFlags, tf *textFlags, rf *red
 	p.published = make([]string, len(set.Records))
 	p.spans = make([][]redact.Span, len(set.Records))
 	blanked := make([]string, len(set.Records))
-	for i, r := range set.Records {
-		if i%1024 == 0 {
-			if err := ctx.Err(); err != nil {
-				return nil, err
+	// Narratives are independent: redact them on every core in blocks of 256, each result
+	// stored at its own index, so the outcome does not depend on scheduling.
+	const block = 256
+	var next atomic.Int64
+	var wg sync.WaitGroup
+	workers := runtime.GOMAXPROCS(0)
+	for w := 0; w < workers; w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for {
+				lo := int(next.Add(block)) - block
+				if lo >= len(set.Records) || ctx.Err() != nil {
+					return
+				}
+				hi := min(lo+block, len(set.Records))
+				for i := lo; i < hi; i++ {
+					out, sp := red.Redact(set.Records[i].Text)
+					p.published[i], p.spans[i] = out, sp
+					blanked[i] = redact.Blank(out)
+				}
+				prog.add(hi - lo)
 			}
-		}
-		out, sp := red.Redact(r.Text)
-		p.published[i], p.spans[i] = out, sp
+		}()
+	}
+	wg.Wait()
+	if err := ctx.Err(); err != nil {
+		return nil, err
+	}
+	for _, sp := range p.spans {
 		p.counts.Add(sp)
-		blanked[i] = redact.Blank(out)
-		prog.add(1)
 	}
 	prog.done()
 	if rf.privateReview && outDir != "" {
