@@ -80,8 +80,12 @@ const maxPasses = 32
 func (r *Redactor) Redact(text string) (out string, spans []Span) {
 	out = text
 	var all []Span // in original coordinates, sorted, non-overlapping
+	var memo scanMemo
 	for n := 0; n < maxPasses; n++ {
-		found := r.pass(out)
+		if n > 0 {
+			memo.next()
+		}
+		found := r.pass(out, &memo)
 		if len(found) == 0 {
 			break
 		}
@@ -147,7 +151,8 @@ var priority = [...]int{Email: 10, VIN: 9, SSN: 8, Phone: 7, CaseNo: 6, DOB: 6, 
 var placeholderRe = regexp.MustCompile(`\[(?:NAME-[0-9]+|PHONE|EMAIL|SSN|DOB|AGE|PLATE|VIN|ADDRESS|CASE-NO)\]`)
 
 // pass runs every detector once over text and returns the replacements, in text order.
-func (r *Redactor) pass(text string) []Span {
+// memo, which may be nil, carries pattern matches from pass to pass.
+func (r *Redactor) pass(text string, memo *scanMemo) []Span {
 	masks := placeholderRe.FindAllStringIndex(text, -1)
 	nextName := 1
 	for _, m := range masks {
@@ -163,7 +168,7 @@ func (r *Redactor) pass(text string) []Span {
 	if strings.ContainsAny(view, "&<") {
 		view = htmlView.Replace(view)
 	}
-	d := &doc{text: ocrCues(view), orig: text, r: r, masks: masks}
+	d := &doc{text: ocrCues(view), orig: text, r: r, masks: masks, memo: memo}
 	d.tokenize()
 	var cs []cand
 	t := r.opt.Types

@@ -33,6 +33,8 @@ type doc struct {
 	runs17    []int            // starts of letter-or-digit runs of exactly 17 bytes (VIN-shaped)
 	caps      bool             // the narrative is written mostly in capitals
 	allowIv   intervals
+	memo      *scanMemo // pattern matches of earlier passes; may be nil
+	scratch   []int     // see shifted
 }
 
 func (d *doc) tokenize() {
