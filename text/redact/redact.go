@@ -249,7 +249,11 @@ func ocrCues(text string) string {
 			for m < len(text) && isAlnumByte(text[m]) {
 				m++
 			}
-			if joined := strings.ToLower(text[i:j] + text[k:m]); m > k && splitCues[joined] {
+			// both parts are ASCII letters and digits: lower-case them byte by byte into
+			// a small buffer; no cue is longer than it.
+			var jb [16]byte
+			if n := (j - i) + (m - k); m > k && n <= len(jb) && splitCues[string(lowerASCIIInto(jb[:0], text[i:j], text[k:m]))] {
+				joined := lowerASCIIInto(jb[:0], text[i:j], text[k:m])
 				if b == nil {
 					b = []byte(text)
 				}
@@ -267,6 +271,20 @@ func ocrCues(text string) string {
 		return text
 	}
 	return string(b)
+}
+
+// lowerASCIIInto appends the ASCII strings parts, lower-cased, to dst.
+func lowerASCIIInto(dst []byte, parts ...string) []byte {
+	for _, p := range parts {
+		for i := 0; i < len(p); i++ {
+			c := p[i]
+			if c >= 'A' && c <= 'Z' {
+				c += 'a' - 'A'
+			}
+			dst = append(dst, c)
+		}
+	}
+	return dst
 }
 
 // splitCues are the cue words ocrCues rejoins when split.
@@ -552,6 +570,31 @@ func (d *doc) occurrences(needle string) []int {
 	}
 	if off < 0 {
 		return nil
+	}
+	if d.valid == 0 {
+		d.valid = 2
+		if utf8.ValidString(d.text) {
+			d.valid = 1
+		}
+	}
+	if d.valid == 1 && utf8.ValidString(needle) {
+		// In valid UTF-8 a match of needle starts on a rune boundary, and boundedAt makes
+		// the first word of a match a maximal letter-or-digit run (the needle's own
+		// non-word runes bound it inside): the same starts as the word index gives, in the
+		// same order, without building the index.
+		var out []int
+		for at := 0; at+len(needle) <= len(d.text); {
+			j := strings.Index(d.text[at:], needle)
+			if j < 0 {
+				break
+			}
+			s := at + j
+			if boundedAt(d.text, s, s+len(needle)) {
+				out = append(out, s)
+			}
+			at = s + 1
+		}
+		return out
 	}
 	d.index()
 	var out []int
