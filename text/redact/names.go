@@ -5,6 +5,7 @@ import (
 
 	"strings"
 	"sync"
+	"sync/atomic"
 	"undercurrent/text/lexicon"
 	"unicode"
 	"unicode/utf8"
@@ -106,8 +107,11 @@ func loadLists() {
 }
 
 // isDictWord reports whether w (any case) is an ordinary English word.
-func isDictWord(w string) bool {
-	lw := baseWord(w)
+func isDictWord(w string) bool { return isDictLower(strings.ToLower(w)) }
+
+// isDictLower is isDictWord of a word already in lower case (strings.ToLower).
+func isDictLower(w string) bool {
+	lw := baseLower(w)
 	if lexicon.Has(lw) {
 		return true
 	}
@@ -128,13 +132,22 @@ func isCommonWord(w string) bool {
 	return lexicon.Common(baseWord(w))
 }
 
+// isCommonLower is isCommonWord of a word already in lower case (strings.ToLower).
+func isCommonLower(w string) bool {
+	return lexicon.Common(baseLower(w))
+}
+
 // baseWord lower-cases w and removes a possessive or a contraction ("Quosby's" → "quosby",
 // "I've" → "i"), so that contractions are found in the dictionary.
-func baseWord(w string) string {
+func baseWord(w string) string { return baseLower(strings.ToLower(w)) }
+
+// baseLower is baseWord of a word already in lower case: lower-casing changes neither "'"
+// nor "’", so the two agree.
+func baseLower(w string) string {
 	if !strings.ContainsAny(w, "'’") {
-		return strings.ToLower(w)
+		return w
 	}
-	lw := strings.ReplaceAll(strings.ToLower(w), "’", "'")
+	lw := strings.ReplaceAll(w, "’", "'")
 	for _, suf := range []string{"'s", "'ve", "'d", "'re", "'ll", "'m", "n't"} {
 		if strings.HasSuffix(lw, suf) && len(lw) > len(suf) {
 			b := lw[:len(lw)-len(suf)]
@@ -478,11 +491,11 @@ func (d *doc) heuristicNames(cs []cand) []cand {
 		// an org or place word anywhere, or a number before, makes it not a person.
 		org := false
 		for _, k := range idx {
-			if orgWords[strings.ToLower(d.word(k))] {
+			if orgWords[d.lower[k]] {
 				org = true
 			}
 		}
-		if next < len(d.toks) && d.toks[next].kind == tWord && orgWords[strings.ToLower(d.word(next))] {
+		if next < len(d.toks) && d.toks[next].kind == tWord && orgWords[d.lower[next]] {
 			org = true
 		}
 		if org || (idx[0] > 0 && d.toks[idx[0]-1].kind == tNum) {
@@ -497,10 +510,9 @@ func (d *doc) heuristicNames(cs []cand) []cand {
 		}
 		// drop leading stop words and sentence-initial dictionary words.
 		for len(idx) > 0 {
-			w := d.word(idx[0])
-			lw := strings.ToLower(w)
-			sentence := d.sentenceStart(idx[0]) && isDictWord(w) && !givenNames[lw]
-			title := len(idx) >= 3 && isCommonWord(w) && !givenNames[lw] // "Firefighter Eva Schicke"
+			lw := d.lower[idx[0]]
+			sentence := d.sentenceStart(idx[0]) && isDictLower(lw) && !givenNames[lw]
+			title := len(idx) >= 3 && isCommonLower(lw) && !givenNames[lw] // "Firefighter Eva Schicke"
 			if stopNames[lw] || titleWords[lw] || sentence || title {
 				idx = idx[1:]
 				continue
@@ -516,7 +528,7 @@ func (d *doc) heuristicNames(cs []cand) []cand {
 				continue
 			}
 		}
-		for len(idx) > 0 && stopNames[strings.ToLower(d.word(idx[len(idx)-1]))] {
+		for len(idx) > 0 && stopNames[d.lower[idx[len(idx)-1]]] {
 			idx = idx[:len(idx)-1]
 		}
 		if len(idx) == 0 {
@@ -525,19 +537,19 @@ func (d *doc) heuristicNames(cs []cand) []cand {
 		nonDict, listed := 0, 0
 		var parts []string
 		for _, k := range idx {
-			w := d.word(k)
-			if stopNames[strings.ToLower(w)] {
+			lw := d.lower[k]
+			if stopNames[lw] {
 				nonDict = -100 // a stop word inside the run: not a name
 			}
-			if !isDictWord(w) {
+			if !isDictLower(lw) {
 				nonDict++
 			}
-			if isNameListed(w) {
+			if givenNames[lw] || surnames[lw] {
 				listed++
 			}
-			parts = append(parts, strings.ToLower(w))
+			parts = append(parts, lw)
 		}
-		first := strings.ToLower(d.word(idx[0]))
+		first := d.lower[idx[0]]
 		ok := false
 		if len(idx) >= 2 {
 			// given-name position and surname position must both look like names.
@@ -585,7 +597,7 @@ func (d *doc) heuristicNames(cs []cand) []cand {
 				i = next + 1
 				continue
 			}
-			ok = ok && (verb || personBefore[prev]) && !nearCommonWord(d.lower[idx[0]])
+			ok = ok && (verb || personBefore[prev]) && !nearCommonWordCached(d.lower[idx[0]])
 		}
 		if ok {
 			cs = d.addName(cs, idx[0], idx[len(idx)-1]+1, parts)
@@ -1030,6 +1042,29 @@ func nearCommonWord(lw string) bool {
 		}
 	}
 	return false
+}
+
+// nearCache remembers nearCommonWord's answers (a pure function of the word and the fixed
+// word list), up to nearCacheMax words, so that a name seen in many narratives is checked
+// once.
+var (
+	nearCache  sync.Map // string → bool
+	nearCached atomic.Int64
+)
+
+const nearCacheMax = 1 << 16
+
+func nearCommonWordCached(lw string) bool {
+	if v, ok := nearCache.Load(lw); ok {
+		return v.(bool)
+	}
+	near := nearCommonWord(lw)
+	if nearCached.Load() < nearCacheMax {
+		if _, loaded := nearCache.LoadOrStore(strings.Clone(lw), near); !loaded {
+			nearCached.Add(1)
+		}
+	}
+	return near
 }
 
 // longCues maps the first eight letters of the long cue words to the words.

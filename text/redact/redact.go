@@ -80,8 +80,12 @@ const maxPasses = 32
 func (r *Redactor) Redact(text string) (out string, spans []Span) {
 	out = text
 	var all []Span // in original coordinates, sorted, non-overlapping
+	var memo scanMemo
 	for n := 0; n < maxPasses; n++ {
-		found := r.pass(out)
+		if n > 0 {
+			memo.next()
+		}
+		found := r.pass(out, &memo)
 		if len(found) == 0 {
 			break
 		}
@@ -147,7 +151,8 @@ var priority = [...]int{Email: 10, VIN: 9, SSN: 8, Phone: 7, CaseNo: 6, DOB: 6, 
 var placeholderRe = regexp.MustCompile(`\[(?:NAME-[0-9]+|PHONE|EMAIL|SSN|DOB|AGE|PLATE|VIN|ADDRESS|CASE-NO)\]`)
 
 // pass runs every detector once over text and returns the replacements, in text order.
-func (r *Redactor) pass(text string) []Span {
+// memo, which may be nil, carries pattern matches from pass to pass.
+func (r *Redactor) pass(text string, memo *scanMemo) []Span {
 	masks := placeholderRe.FindAllStringIndex(text, -1)
 	nextName := 1
 	for _, m := range masks {
@@ -163,7 +168,7 @@ func (r *Redactor) pass(text string) []Span {
 	if strings.ContainsAny(view, "&<") {
 		view = htmlView.Replace(view)
 	}
-	d := &doc{text: ocrCues(view), orig: text, r: r, masks: masks}
+	d := &doc{text: ocrCues(view), orig: text, r: r, masks: masks, memo: memo}
 	d.tokenize()
 	var cs []cand
 	t := r.opt.Types
@@ -244,7 +249,11 @@ func ocrCues(text string) string {
 			for m < len(text) && isAlnumByte(text[m]) {
 				m++
 			}
-			if joined := strings.ToLower(text[i:j] + text[k:m]); m > k && splitCues[joined] {
+			// both parts are ASCII letters and digits: lower-case them byte by byte into
+			// a small buffer; no cue is longer than it.
+			var jb [16]byte
+			if n := (j - i) + (m - k); m > k && n <= len(jb) && splitCues[string(lowerASCIIInto(jb[:0], text[i:j], text[k:m]))] {
+				joined := lowerASCIIInto(jb[:0], text[i:j], text[k:m])
 				if b == nil {
 					b = []byte(text)
 				}
@@ -262,6 +271,20 @@ func ocrCues(text string) string {
 		return text
 	}
 	return string(b)
+}
+
+// lowerASCIIInto appends the ASCII strings parts, lower-cased, to dst.
+func lowerASCIIInto(dst []byte, parts ...string) []byte {
+	for _, p := range parts {
+		for i := 0; i < len(p); i++ {
+			c := p[i]
+			if c >= 'A' && c <= 'Z' {
+				c += 'a' - 'A'
+			}
+			dst = append(dst, c)
+		}
+	}
+	return dst
 }
 
 // splitCues are the cue words ocrCues rejoins when split.
@@ -547,6 +570,31 @@ func (d *doc) occurrences(needle string) []int {
 	}
 	if off < 0 {
 		return nil
+	}
+	if d.valid == 0 {
+		d.valid = 2
+		if utf8.ValidString(d.text) {
+			d.valid = 1
+		}
+	}
+	if d.valid == 1 && utf8.ValidString(needle) {
+		// In valid UTF-8 a match of needle starts on a rune boundary, and boundedAt makes
+		// the first word of a match a maximal letter-or-digit run (the needle's own
+		// non-word runes bound it inside): the same starts as the word index gives, in the
+		// same order, without building the index.
+		var out []int
+		for at := 0; at+len(needle) <= len(d.text); {
+			j := strings.Index(d.text[at:], needle)
+			if j < 0 {
+				break
+			}
+			s := at + j
+			if boundedAt(d.text, s, s+len(needle)) {
+				out = append(out, s)
+			}
+			at = s + 1
+		}
+		return out
 	}
 	d.index()
 	var out []int

@@ -76,15 +76,31 @@ func (d *doc) scan(re *regexp.Regexp, trig []int, before, after int, f func(m []
 		ws = append(ws, [2]int{a, b})
 	}
 	for _, w := range ws {
-		for _, m := range re.FindAllStringSubmatchIndex(text[w[0]:w[1]], -1) {
-			for i := range m {
-				if m[i] >= 0 {
-					m[i] += w[0]
-				}
-			}
-			f(m)
+		win := text[w[0]:w[1]]
+		if !mayMatch(re, win) {
+			continue
+		}
+		ms, ok := d.memo.get(re, win)
+		if !ok {
+			ms = re.FindAllStringSubmatchIndex(win, -1)
+			d.memo.put(re, win, ms)
+		}
+		for _, m := range ms {
+			f(d.shifted(m, w[0]))
 		}
 	}
+}
+
+// shifted returns m, a match in a window starting at off, in text offsets. The result is
+// a scratch slice, valid until the next call: detectors read it and keep only numbers.
+func (d *doc) shifted(m []int, off int) []int {
+	d.scratch = append(d.scratch[:0], m...)
+	for i, v := range d.scratch {
+		if v >= 0 {
+			d.scratch[i] = v + off
+		}
+	}
+	return d.scratch
 }
 
 // scanAt runs re, anchored at each trigger, over [t, t+after) widened forward to
@@ -105,16 +121,27 @@ func (d *doc) scanAt(re *regexp.Regexp, trig []int, after int, f func(m []int)) 
 		for b < len(text) && !isSpaceByte(text[b]) && b-t < 4*after {
 			b++
 		}
-		m := re.FindStringSubmatchIndex(text[t:b])
+		win := text[t:b]
+		if !mayMatch(re, win) {
+			continue
+		}
+		var m []int
+		if ms, ok := d.memo.get(re, win); ok {
+			if len(ms) > 0 {
+				m = ms[0]
+			}
+		} else {
+			m = re.FindStringSubmatchIndex(win)
+			if m == nil {
+				d.memo.put(re, win, nil)
+			} else {
+				d.memo.put(re, win, [][]int{m})
+			}
+		}
 		if m == nil || m[0] != 0 {
 			continue
 		}
-		for i := range m {
-			if m[i] >= 0 {
-				m[i] += t
-			}
-		}
-		f(m)
+		f(d.shifted(m, t))
 	}
 }
 

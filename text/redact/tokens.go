@@ -33,13 +33,47 @@ type doc struct {
 	runs17    []int            // starts of letter-or-digit runs of exactly 17 bytes (VIN-shaped)
 	caps      bool             // the narrative is written mostly in capitals
 	allowIv   intervals
+	memo      *scanMemo // pattern matches of earlier passes; may be nil
+	scratch   []int     // see shifted
+	valid     uint8     // 1: text is valid UTF-8, 2: it is not, 0: not yet known
 }
 
 func (d *doc) tokenize() {
 	text := d.text
 	upper, letters := 0, 0
 	nl := 0
+	if d.toks == nil {
+		d.toks = make([]tok, 0, len(text)/4+1)
+	}
 	for i := 0; i < len(text); {
+		// ASCII fast path; the same classes as the unicode tests below.
+		if c := text[i]; c < utf8.RuneSelf {
+			switch {
+			case c == '\n':
+				nl++
+				i++
+				continue
+			case c == ' ' || c == '\t' || c == '\v' || c == '\f' || c == '\r':
+				i++
+				continue
+			case isDigitByte(c):
+				j := i + 1
+				for j < len(text) && isDigitByte(text[j]) {
+					j++
+				}
+				if j == len(text) || text[j] < utf8.RuneSelf {
+					d.toks = append(d.toks, tok{i, j, tNum, nl})
+					nl = 0
+					i = j
+					continue
+				}
+			case (c < 'A' || c > 'Z') && (c < 'a' || c > 'z'):
+				d.toks = append(d.toks, tok{i, i + 1, tPunct, nl})
+				nl = 0
+				i++
+				continue
+			}
+		}
 		r, n := utf8.DecodeRuneInString(text[i:])
 		switch {
 		case r == '\n':
@@ -50,6 +84,22 @@ func (d *doc) tokenize() {
 		case unicode.IsLetter(r):
 			j := i
 			for j < len(text) {
+				if c := text[j]; c < utf8.RuneSelf {
+					if c >= 'a' && c <= 'z' {
+						letters++
+						j++
+						continue
+					}
+					if c >= 'A' && c <= 'Z' {
+						letters++
+						upper++
+						j++
+						continue
+					}
+					if c != '\'' && c != '-' {
+						break
+					}
+				}
 				r2, n2 := utf8.DecodeRuneInString(text[j:])
 				if unicode.IsLetter(r2) {
 					letters++
@@ -107,9 +157,56 @@ func (d *doc) tokenize() {
 	}
 	d.lower = make([]string, len(d.toks))
 	d.flags = make([]lexFlag, len(d.toks))
+	// lower-case words: ASCII words with capitals are lowered into one buffer (one
+	// allocation), words already in lower case are slices of the text, others go through
+	// strings.ToLower; all equal strings.ToLower of the word.
+	var buf []byte
+	type lowered struct{ tok, at int }
+	var lw []lowered
 	for i, t := range d.toks {
-		if t.kind == tWord {
-			d.lower[i] = strings.ToLower(text[t.start:t.end])
+		if t.kind != tWord {
+			continue
+		}
+		w := text[t.start:t.end]
+		ascii, hasUpper := true, false
+		for k := 0; k < len(w); k++ {
+			c := w[k]
+			if c >= utf8.RuneSelf {
+				ascii = false
+				break
+			}
+			if c >= 'A' && c <= 'Z' {
+				hasUpper = true
+			}
+		}
+		switch {
+		case !ascii:
+			d.lower[i] = strings.ToLower(w)
+		case !hasUpper:
+			d.lower[i] = w
+		default:
+			if buf == nil {
+				buf = make([]byte, 0, len(text))
+			}
+			lw = append(lw, lowered{i, len(buf)})
+			for k := 0; k < len(w); k++ {
+				c := w[k]
+				if c >= 'A' && c <= 'Z' {
+					c += 'a' - 'A'
+				}
+				buf = append(buf, c)
+			}
+		}
+	}
+	if len(lw) > 0 {
+		all := string(buf)
+		for _, l := range lw {
+			t := d.toks[l.tok]
+			d.lower[l.tok] = all[l.at : l.at+t.end-t.start]
+		}
+	}
+	for i, t := range d.toks {
+		if t.kind == tWord && len(d.lower[i]) <= maxCueLen {
 			d.flags[i] = cueFlags[d.lower[i]]
 		}
 	}
@@ -233,6 +330,15 @@ var cueFlags = func() map[string]lexFlag {
 		m[w] |= fSuffix
 	}
 	return m
+}()
+
+// maxCueLen is the length of the longest word in cueFlags.
+var maxCueLen = func() int {
+	n := 0
+	for w := range cueFlags {
+		n = max(n, len(w))
+	}
+	return n
 }()
 
 // flagged returns a trigger test for word tokens with flag f.

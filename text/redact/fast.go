@@ -1,0 +1,179 @@
+package redact
+
+import "regexp"
+
+// Speed helpers for the pattern detectors. Nothing here changes what is found: mayMatch
+// only skips windows in which a pattern provably cannot match (or whose matches every
+// detector would drop), and scanMemo only reuses the matches of a pattern on a window text
+// it has already searched.
+
+// scanMemo keeps the matches the detectors' patterns found in one pass, so that the next
+// pass of Redact's fixed-point loop, which reads the same narrative with placeholders in
+// place of what was found, searches again only the windows that changed. A nil *scanMemo
+// remembers nothing.
+type scanMemo struct {
+	prev map[memoKey][][]int // earlier passes' matches, by pattern and window text
+	cur  []memoRec           // this pass's searches, in order
+}
+
+type memoKey struct {
+	re   *regexp.Regexp
+	text string
+}
+
+type memoRec struct {
+	key memoKey
+	ms  [][]int // matches, offsets relative to the window; nil for none
+}
+
+// get returns the matches of re in text remembered from an earlier pass.
+func (m *scanMemo) get(re *regexp.Regexp, text string) ([][]int, bool) {
+	if m == nil || m.prev == nil {
+		return nil, false
+	}
+	ms, ok := m.prev[memoKey{re, text}]
+	return ms, ok
+}
+
+// put records the matches of re in text, found in this pass.
+func (m *scanMemo) put(re *regexp.Regexp, text string, ms [][]int) {
+	if m == nil {
+		return
+	}
+	m.cur = append(m.cur, memoRec{memoKey{re, text}, ms})
+}
+
+// next makes this pass's searches available to the next pass.
+func (m *scanMemo) next() {
+	if m == nil || len(m.cur) == 0 {
+		return
+	}
+	if m.prev == nil {
+		m.prev = make(map[memoKey][][]int, len(m.cur))
+	}
+	for _, r := range m.cur {
+		m.prev[r.key] = r.ms
+	}
+	m.cur = m.cur[:0]
+}
+
+// mayMatch reports whether re can give a find in the window w. It answers false only when
+// that is certain from the pattern (and the detector's own checks of the match):
+//
+//   - the date, age and plate patterns need an ASCII digit ([0-9] matches only those; a
+//     plate without a digit is dropped by plates), the case-number pattern two in a row;
+//   - an intersection (crossRe) has two street suffixes, each a whole run of ASCII word
+//     characters after a white-space byte (the pattern's \s before the suffix, \b after
+//     it); in a window with non-ASCII bytes case folding can match other runes ("ſ" for
+//     "s", the Kelvin sign for "k"), so such windows are always searched;
+//   - "at Main/Oak" (slashRe) needs "at" or "near" and a white-space byte after it;
+//   - "the 100 block of" (blockRe) needs "block" in any case (or non-ASCII, as above).
+func mayMatch(re *regexp.Regexp, w string) bool {
+	switch re {
+	case dobRe, dobAfterRe, ageBeforeRe, ageAfterRe, plateRe:
+		return hasDigit(w)
+	case caseRe:
+		return hasDigitPair(w)
+	case crossRe:
+		return !isASCII(w) || suffixRuns(w, 2) >= 2
+	case slashRe:
+		return hasWordThenSpace(w, "at") || hasWordThenSpace(w, "near")
+	case blockRe:
+		return !isASCII(w) || containsFold(w, "block")
+	}
+	return true
+}
+
+func hasDigit(s string) bool {
+	for i := 0; i < len(s); i++ {
+		if isDigitByte(s[i]) {
+			return true
+		}
+	}
+	return false
+}
+
+func hasDigitPair(s string) bool {
+	for i := 1; i < len(s); i++ {
+		if isDigitByte(s[i]) && isDigitByte(s[i-1]) {
+			return true
+		}
+	}
+	return false
+}
+
+// isREWordByte reports whether b is an ASCII word character as \b sees it.
+func isREWordByte(b byte) bool {
+	return b == '_' || isAlnumByte(b)
+}
+
+// isRESpaceByte reports whether b matches the regexp class \s ([\t\n\f\r ]).
+func isRESpaceByte(b byte) bool {
+	return b == ' ' || b == '\t' || b == '\n' || b == '\f' || b == '\r'
+}
+
+// suffixRuns counts, up to limit, the runs of ASCII word characters in s that follow a
+// white-space byte and are, in lower case, a street suffix.
+func suffixRuns(s string, limit int) int {
+	n := 0
+	var buf [16]byte
+	for i := 1; i < len(s) && n < limit; i++ {
+		if !isRESpaceByte(s[i-1]) || !isREWordByte(s[i]) {
+			continue
+		}
+		j := i
+		for j < len(s) && isREWordByte(s[j]) {
+			j++
+		}
+		if j-i <= len(buf) {
+			b := buf[:j-i]
+			for k := range b {
+				c := s[i+k]
+				if c >= 'A' && c <= 'Z' {
+					c += 'a' - 'A'
+				}
+				b[k] = c
+			}
+			if _, ok := streetSuffixes[string(b)]; ok {
+				n++
+			}
+		}
+		i = j
+	}
+	return n
+}
+
+// hasWordThenSpace reports whether s holds lw (lower-case ASCII letters without a
+// non-ASCII case fold: not k or s) in any case, followed by a white-space byte.
+func hasWordThenSpace(s, lw string) bool {
+	for i := 0; i+len(lw) < len(s); i++ {
+		if isRESpaceByte(s[i+len(lw)]) && equalFoldASCII(s[i:i+len(lw)], lw) {
+			return true
+		}
+	}
+	return false
+}
+
+// containsFold reports whether s holds the lower-case ASCII word lw in any ASCII case.
+func containsFold(s, lw string) bool {
+	for i := 0; i+len(lw) <= len(s); i++ {
+		if equalFoldASCII(s[i:i+len(lw)], lw) {
+			return true
+		}
+	}
+	return false
+}
+
+// equalFoldASCII reports whether a equals the lower-case ASCII lw ignoring ASCII case.
+func equalFoldASCII(a, lw string) bool {
+	for k := 0; k < len(lw); k++ {
+		c := a[k]
+		if c >= 'A' && c <= 'Z' {
+			c += 'a' - 'A'
+		}
+		if c != lw[k] {
+			return false
+		}
+	}
+	return true
+}
