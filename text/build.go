@@ -792,6 +792,8 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 			th[i] = routine.HashString(st)
 		}
 		sigs := make([][]uint64, len(docs))
+		nh := h.Len()
+		flat := make([]uint64, nh*len(docs)) // one backing array: no allocation per narrative
 		bufs := make([][]uint64, workers())
 		minDup := orInt(s.Routine.MinDupContent, 8)
 		short := make([]bool, len(docs))
@@ -804,7 +806,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 						buf = append(buf, th[t])
 					}
 				}
-				sigs[d] = h.Signature(nil, buf)
+				sigs[d] = h.Signature(flat[d*nh:d*nh:(d+1)*nh], buf)
 				short[d] = len(buf) < minDup
 				bufs[w] = buf
 			}
