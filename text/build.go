@@ -4,6 +4,7 @@ import (
 	"context"
 	"fmt"
 	"io"
+	"slices"
 	"sort"
 	"strings"
 	"sync/atomic"
@@ -189,6 +190,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		stream []int32
 		off    []int
 		tokens int
+		remap  []int32
 	}
 	const chunkDocs = 2048
 	nChunks := (len(docs) + chunkDocs - 1) / chunkDocs
@@ -229,10 +231,12 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 				ch.off = append(ch.off, len(ch.stream))
 			}
 		})
-		var remap []int32
+		// Surface ids in chunk order (serial: first occurrence numbers them), then the
+		// chunks' streams remapped and copied in parallel to their places.
+		bases := make([]int, nw)
 		for k := 0; k < nw; k++ {
 			ch := &chunks[k]
-			remap = remap[:0]
+			ch.remap = ch.remap[:0]
 			for _, sf := range ch.surfs {
 				id, ok := intern[sf.text]
 				if !ok {
@@ -241,21 +245,26 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 					surfs = append(surfs, surface{sf.text, sf.kind, 0})
 				}
 				surfs[id].count += sf.count
-				remap = append(remap, id)
+				ch.remap = append(ch.remap, id)
 			}
-			base := len(stream)
-			for _, v := range ch.stream {
+			bases[k] = len(stream)
+			stream = slices.Grow(stream, len(ch.stream))[:len(stream)+len(ch.stream)]
+			c.Tokens += ch.tokens
+		}
+		parallelFor(nw, func(_, k int) {
+			ch := &chunks[k]
+			dst, base, remap := stream[bases[k]:bases[k]+len(ch.stream)], bases[k], ch.remap
+			for i, v := range ch.stream {
 				if v >= 0 {
 					v = remap[v]
 				}
-				stream = append(stream, v)
+				dst[i] = v
 			}
 			lo := (w0 + k) * chunkDocs
 			for j := 1; j < len(ch.off); j++ {
 				docOff[lo+j] = base + ch.off[j]
 			}
-			c.Tokens += ch.tokens
-		}
+		})
 	}
 	chunks = nil
 
@@ -735,12 +744,6 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 
 	// Term statistics and routine narratives.
 	nTerms := len(stemStr)
-	df := make([]int, nTerms)
-	total := make([]float64, nTerms)
-	last := make([]int, nTerms)
-	for i := range last {
-		last[i] = -1
-	}
 	routineStem := make([]bool, nTerms)
 	for _, w := range s.Routine.Words {
 		w = strings.ToLower(strings.TrimSpace(w))
@@ -760,31 +763,65 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 	}
 	c.Routine = make([]RoutineReason, len(docs))
 	c.DupGroup = make([]int, len(docs))
-	for d := range docs {
-		content, allRoutine := 0, len(s.Routine.Words) > 0
-		for _, t := range out[docOff2[d]:docOff2[d+1]] {
-			if t < 0 {
-				continue
-			}
-			content++
-			total[t]++
-			if last[t] != d {
-				last[t] = d
-				df[t]++
-			}
-			if !routineStem[t] {
-				allRoutine = false
-			}
-		}
-		c.Terms += content
-		c.DupGroup[d] = -1
-		switch {
-		case content == 0 || content <= s.Routine.MaxContent:
-			c.Routine[d] = ShortContent
-		case allRoutine && content > 0:
-			c.Routine[d] = RoutineWords
-		}
+	// Per worker over blocks of narratives (each narrative within one block), then summed:
+	// the counts are integers, so the float sums are exact whatever the split.
+	type termStats struct {
+		df    []int
+		total []float64
+		last  []int
+		terms int
 	}
+	tsw := make([]termStats, workers())
+	{
+		const per = 2048
+		parallelFor((len(docs)+per-1)/per, func(w, blk int) {
+			st := &tsw[w]
+			if st.df == nil {
+				st.df, st.total, st.last = make([]int, nTerms), make([]float64, nTerms), make([]int, nTerms)
+				for i := range st.last {
+					st.last[i] = -1
+				}
+			}
+			df, total, last := st.df, st.total, st.last
+			for d := blk * per; d < min((blk+1)*per, len(docs)); d++ {
+				content, allRoutine := 0, len(s.Routine.Words) > 0
+				for _, t := range out[docOff2[d]:docOff2[d+1]] {
+					if t < 0 {
+						continue
+					}
+					content++
+					total[t]++
+					if last[t] != d {
+						last[t] = d
+						df[t]++
+					}
+					if !routineStem[t] {
+						allRoutine = false
+					}
+				}
+				st.terms += content
+				c.DupGroup[d] = -1
+				switch {
+				case content == 0 || content <= s.Routine.MaxContent:
+					c.Routine[d] = ShortContent
+				case allRoutine && content > 0:
+					c.Routine[d] = RoutineWords
+				}
+			}
+		})
+	}
+	df, total := make([]int, nTerms), make([]float64, nTerms)
+	for _, st := range tsw {
+		if st.df == nil {
+			continue
+		}
+		for t := range df {
+			df[t] += st.df[t]
+			total[t] += st.total[t]
+		}
+		c.Terms += st.terms
+	}
+	tsw = nil
 	if s.Routine.NearDup {
 		h := routine.NewHasher(s.Routine.Settings)
 		th := make([]uint64, nTerms)
@@ -792,6 +829,8 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 			th[i] = routine.HashString(st)
 		}
 		sigs := make([][]uint64, len(docs))
+		nh := h.Len()
+		flat := make([]uint64, nh*len(docs)) // one backing array: no allocation per narrative
 		bufs := make([][]uint64, workers())
 		minDup := orInt(s.Routine.MinDupContent, 8)
 		short := make([]bool, len(docs))
@@ -804,7 +843,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 						buf = append(buf, th[t])
 					}
 				}
-				sigs[d] = h.Signature(nil, buf)
+				sigs[d] = h.Signature(flat[d*nh:d*nh:(d+1)*nh], buf)
 				short[d] = len(buf) < minDup
 				bufs[w] = buf
 			}

@@ -194,6 +194,11 @@ func (f *Frozen) Transform(raw string) Doc {
 			allRoutine = false
 		}
 		if id, ok := f.vocabID[term]; ok {
+			if d.Terms == nil {
+				// Sized once for the items left: no regrowth (nil stays nil when no term is found).
+				n := len(items) - k + 1
+				d.Terms, d.Spans = make([]int32, 0, n), make([]Span, 0, n)
+			}
 			d.Terms = append(d.Terms, id)
 			d.Spans = append(d.Spans, Span{it.start, end, id})
 		}

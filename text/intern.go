@@ -16,8 +16,9 @@ type internTable struct {
 }
 
 type islot struct {
-	h  uint64
-	id int32 // id+1; 0 marks an empty slot
+	h     uint64
+	id    int32 // id+1; 0 marks an empty slot
+	short bool  // h holds the text's bytes (at most 7) and length, not a hash
 }
 
 func newInternTable(sizeHint int) *internTable {
@@ -31,22 +32,34 @@ func (t *internTable) reset() {
 	t.strs = t.strs[:0]
 }
 
-// id returns the id of b, adding a copy of it when new.
+// id returns the id of b, adding a copy of it when new. Texts of at most 7 bytes (most
+// words) are keyed by their bytes packed into a uint64 with the length in the top byte, so
+// that a lookup compares one integer and reads no string; longer texts are keyed by maphash
+// and compared in full. The short flag keeps the two kinds of key apart.
 func (t *internTable) id(b []byte) int32 {
-	h := maphash.Bytes(t.seed, b)
+	var h uint64
+	short := len(b) <= 7
+	if short {
+		h = uint64(len(b)) << 56
+		for k, c := range b {
+			h |= uint64(c) << (8 * k)
+		}
+	} else {
+		h = maphash.Bytes(t.seed, b)
+	}
 	mask := uint64(len(t.slots) - 1)
-	for i := h & mask; ; i = (i + 1) & mask {
+	for i := mix64(h) & mask; ; i = (i + 1) & mask {
 		s := &t.slots[i]
 		if s.id == 0 {
 			id := int32(len(t.strs))
 			t.strs = append(t.strs, string(b))
-			s.h, s.id = h, id+1
+			s.h, s.id, s.short = h, id+1, short
 			if 2*len(t.strs) > len(t.slots) {
 				t.grow()
 			}
 			return id
 		}
-		if s.h == h && t.strs[s.id-1] == string(b) {
+		if s.h == h && s.short == short && (short || t.strs[s.id-1] == string(b)) {
 			return s.id - 1
 		}
 	}
@@ -60,7 +73,7 @@ func (t *internTable) grow() {
 		if s.id == 0 {
 			continue
 		}
-		i := s.h & mask
+		i := mix64(s.h) & mask
 		for t.slots[i].id != 0 {
 			i = (i + 1) & mask
 		}

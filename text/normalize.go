@@ -4,6 +4,7 @@ import (
 	"strings"
 	"unicode"
 	"unicode/utf8"
+	"unsafe"
 
 	"golang.org/x/text/unicode/norm"
 )
@@ -13,11 +14,21 @@ import (
 // the map is the identity (the ASCII fast path, no HTML residue).
 type normBuf struct {
 	ident      bool
+	view       []byte // when ident: raw's own bytes, read only (never appended to)
 	text       []byte
 	start, end []int32 // len(text) each, unless ident
 
 	tmp              []byte // HTML stage output
 	tmpStart, tmpEnd []int32
+}
+
+// bytes returns the normalised text: raw's own bytes on the fast path (the caller must not
+// write to them), else nb.text.
+func (nb *normBuf) bytes() []byte {
+	if nb.ident {
+		return nb.view
+	}
+	return nb.text
 }
 
 // rawSpan maps a span [a,b) of the normalised text to the raw narrative.
@@ -63,10 +74,10 @@ func needsSlowPath(raw string) bool {
 func (nb *normBuf) normalize(raw string) {
 	if !needsSlowPath(raw) {
 		nb.ident = true
-		nb.text = append(nb.text[:0], raw...)
+		nb.view = unsafe.Slice(unsafe.StringData(raw), len(raw))
 		return
 	}
-	nb.ident = false
+	nb.ident, nb.view = false, nil
 	// Stage 1: HTML residue.
 	src := raw
 	var sStart, sEnd []int32
@@ -309,7 +320,7 @@ func (nb *normBuf) html(raw string) {
 func Normalize(raw string) string {
 	var nb normBuf
 	nb.normalize(raw)
-	s := nb.text
+	s := nb.bytes()
 	var b strings.Builder
 	b.Grow(len(s))
 	space := false

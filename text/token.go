@@ -122,7 +122,7 @@ func isLetterAt(x []byte, j int) bool {
 //     '/', '&' and '+' do not.
 func (sc *scanner) scan(raw string, keepPossessive bool) {
 	sc.nb.normalize(raw)
-	x := sc.nb.text
+	x := sc.nb.bytes()
 	sc.text = sc.text[:0]
 	sc.toks = sc.toks[:0]
 	brk, nl := false, 0

@@ -72,6 +72,9 @@ func NewHasher(s Settings) *Hasher {
 	return &Hasher{s: s, seed: r.Uint64(), shift: shift}
 }
 
+// Len is the length of a (non-empty) signature: Settings.Hashes.
+func (h *Hasher) Len() int { return h.s.Hashes }
+
 const empty = ^uint64(0)
 
 // Signature puts the signature of a narrative, given as its token hashes, into dst (grown as
@@ -116,8 +119,8 @@ func (h *Hasher) Groups(sigs [][]uint64) []int {
 	return h.GroupsParallel(sigs, nil)
 }
 
-// GroupsParallel is Groups with the bands searched through run, which must call f(b) once
-// for every band b in [0, n), possibly concurrently (nil: one after another). The result is the
+// GroupsParallel is Groups with the work spread through run, which must call f(b) once
+// for every b in [0, n), possibly concurrently (nil: one after another). The result is the
 // same whatever the order of the calls: a group is a connected component, named by its
 // smallest index.
 func (h *Hasher) GroupsParallel(sigs [][]uint64, run func(n int, f func(b int))) []int {
@@ -129,28 +132,44 @@ func (h *Hasher) GroupsParallel(sigs [][]uint64, run func(n int, f func(b int)))
 		}
 	}
 	rows := h.s.Hashes / h.s.Bands
-	pairs := make([][][2]int32, h.s.Bands)
-	run(h.s.Bands, func(b int) {
-		first := newFirstTable(len(sigs))
-		var out [][2]int32
-		for i, sig := range sigs {
+	n := len(sigs)
+	// Band keys first, band-major, so that each band's search reads its keys in order
+	// instead of striding over every signature (the signatures are read again only for the
+	// candidate pairs).
+	keys := make([]uint64, h.s.Bands*n)
+	used := make([]bool, h.s.Bands*n) // the band is filled (not all empty)
+	const per = 1024
+	run((n+per-1)/per, func(c int) {
+		for i := c * per; i < min((c+1)*per, n); i++ {
+			sig := sigs[i]
 			if len(sig) != h.s.Hashes {
 				continue
 			}
-			key := uint64(b)
-			filled := false
-			for _, v := range sig[b*rows : (b+1)*rows] {
-				key = mix(key ^ v)
-				filled = filled || v != empty
+			for b := 0; b < h.s.Bands; b++ {
+				key := uint64(b)
+				filled := false
+				for _, v := range sig[b*rows : (b+1)*rows] {
+					key = mix(key ^ v)
+					filled = filled || v != empty
+				}
+				keys[b*n+i], used[b*n+i] = key, filled
 			}
-			if !filled {
-				continue // an all-empty band says nothing
+		}
+	})
+	pairs := make([][][2]int32, h.s.Bands)
+	run(h.s.Bands, func(b int) {
+		first := newFirstTable(n)
+		var out [][2]int32
+		bk, bu := keys[b*n:(b+1)*n], used[b*n:(b+1)*n]
+		for i, key := range bk {
+			if !bu[i] {
+				continue // no signature, or an all-empty band, which says nothing
 			}
 			j, ok := first.getOrPut(key, int32(i))
 			if !ok {
 				continue
 			}
-			if Similarity(sig, sigs[j]) >= h.s.Threshold {
+			if Similarity(sigs[i], sigs[j]) >= h.s.Threshold {
 				out = append(out, [2]int32{int32(i), j})
 			}
 		}
