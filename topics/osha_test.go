@@ -162,7 +162,11 @@ var oshaSettings = Settings{K: 15, Seed: 1}
 // lead measured scikit-learn at NMI 0.276 / NPMI 0.093 and gensim at 0.273 / 0.055 (issue 5).
 // We reach the NPMI goal but not the NMI goal (measured 0.29–0.30 over seeds with this
 // test's tokenizer, 0.31 with testReportWords also removed), so the test asserts NMI ≥ 0.28
-// (above both libraries) and NPMI ≥ 0.12, and logs the shortfall.
+// (above both libraries) and NPMI ≥ 0.12, and logs the shortfall. Fit schedules tried
+// (mean NMI / NPMI over seeds 1–3; default 0.287 / 0.179): 300 sweeps 0.294 / 0.179,
+// with α = 0.1 0.293 / 0.186; 30 samples 0.288; burn-in 120 of 150 0.288; α = 0.1
+// 0.291; β = 0.1 0.288; β fixed 0.280; priors fixed 0.270 (α = β = 0.1: 0.285); priors
+// from sweep 50 0.277; Partitions 1 0.291; Chains 2 0.287. None reaches 0.33.
 func TestOSHAThemes(t *testing.T) {
 	c := loadOSHA(t)
 	m, err := Fit(context.Background(), Corpus{Counts: c.counts, Vocabulary: c.vocab}, oshaSettings)

@@ -29,6 +29,12 @@ type Settings struct {
 	K int
 	// Iterations is the number of Gibbs sweeps over all tokens. Zero means 150 (on the
 	// benchmark corpus 150 and 200 sweeps gave the same quality; see BenchmarkSynthetic).
+	// Fewer sweeps lose quality there (seed 1; Hellinger to the true topics, held-out
+	// LL/token, NMI): 150 sweeps 0.159, −7.533, 0.699; 120 with burn-in 95 0.166, −7.536,
+	// 0.699; 100 with burn-in 75 0.173, −7.539, 0.686; 100 (burn-in 50) 0.185, −7.547,
+	// 0.677; 75 0.255, −7.586, 0.640. Re-estimating the priors every 5 sweeps from sweep 10
+	// (instead of every 10 from 24) was worse too: β overshoots to 0.30 (true 0.2) and
+	// Hellinger is 0.178 at 150 sweeps, 0.206 at 100.
 	Iterations int
 	// BurnIn is the number of sweeps discarded before samples are averaged. Zero means
 	// Iterations/2. Hyperparameters are re-estimated only during burn-in, so the averaged
