@@ -147,3 +147,24 @@ func TestFitRejectsBadCounts(t *testing.T) {
 		t.Fatalf("got %v", err)
 	}
 }
+
+// FitSettings survives Save and Load: the file stores the resolved settings.
+func TestFitSettingsRoundTrip(t *testing.T) {
+	m, _ := smallModel(t, Settings{Seed: 5})
+	var buf bytes.Buffer
+	if err := m.Save(&buf); err != nil {
+		t.Fatal(err)
+	}
+	got, err := Load(&buf)
+	if err != nil {
+		t.Fatal(err)
+	}
+	a, b := m.FitSettings(), got.FitSettings()
+	if a.K != b.K || a.Iterations != b.Iterations || a.BurnIn != b.BurnIn || a.Samples != b.Samples || a.Seed != b.Seed ||
+		a.Chains != b.Chains || a.Partitions != b.Partitions || a.Alpha != b.Alpha || a.Beta != b.Beta {
+		t.Errorf("FitSettings after Load = %+v, want %+v", b, a)
+	}
+	if a.Iterations == 0 || a.Samples == 0 {
+		t.Errorf("FitSettings not resolved: %+v", a)
+	}
+}

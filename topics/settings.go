@@ -174,3 +174,12 @@ func (s Settings) record() fitRecord {
 	return fitRecord{s.K, s.Iterations, s.BurnIn, s.Samples, s.Alpha, s.Beta, s.FixedPriors,
 		s.Seed, s.Partitions, s.Chains, s.SeedStrength, s.Seeds}
 }
+
+// FitSettings returns the resolved settings the model was fitted with (every default filled
+// in), as stored in the model file; Progress is nil.
+func (m *Model) FitSettings() Settings {
+	r := m.fit
+	return Settings{K: r.K, Iterations: r.Iterations, BurnIn: r.BurnIn, Samples: r.Samples, Alpha: r.Alpha,
+		Beta: r.Beta, FixedPriors: r.FixedPriors, Seed: r.Seed, Partitions: r.Partitions, Chains: r.Chains,
+		SeedStrength: r.SeedStrength, Seeds: r.Seeds}
+}

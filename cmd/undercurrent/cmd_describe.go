@@ -8,7 +8,6 @@ import (
 	"fmt"
 	"io"
 	"math"
-	"os"
 	"path/filepath"
 	"strings"
 
@@ -68,11 +67,7 @@ Example:
 				if err != nil {
 					return err
 				}
-				hdr, err := readModelHeader(path)
-				if err != nil {
-					return err
-				}
-				d := describeModel(path, m, hdr, n, lambda)
+				d := describeModel(path, m, n, lambda)
 				if asJSON {
 					enc := json.NewEncoder(e.stdout)
 					enc.SetIndent("", "  ")
@@ -84,37 +79,8 @@ Example:
 	})
 }
 
-// modelHeader is the part of the model file's JSON line (line 2, see topics.Model.Save)
-// that the Model accessors do not give: the format version and the fit settings.
-type modelHeader struct {
-	FormatVersion int             `json:"format_version"`
-	Fit           json.RawMessage `json:"fit"`
-}
-
-// readModelHeader reads line 2 of a model file that loadModel has already checked.
-func readModelHeader(path string) (modelHeader, error) {
-	var h modelHeader
-	f, err := os.Open(path)
-	if err != nil {
-		return h, err
-	}
-	defer f.Close()
-	br := bufio.NewReader(f)
-	if _, err := br.ReadString('\n'); err != nil {
-		return h, fmt.Errorf("%s: %w", path, err)
-	}
-	line, err := br.ReadBytes('\n')
-	if err != nil {
-		return h, fmt.Errorf("%s: line 2: %w", path, err)
-	}
-	if err := json.Unmarshal(line, &h); err != nil {
-		return h, fmt.Errorf("%s: line 2: %w", path, err)
-	}
-	return h, nil
-}
-
-// fitRecordView is the fit settings as stored in the model file, in a fixed field order.
-type fitRecordView struct {
+// fitView is the fit settings as describe shows them (JSON field names of the model file).
+type fitView struct {
 	K            int     `json:"k"`
 	Iterations   int     `json:"iterations"`
 	BurnIn       int     `json:"burn_in"`
@@ -157,13 +123,17 @@ type description struct {
 	Fingerprint        string           `json:"training_counts_sha256"`
 	Stability          *float64         `json:"stability"`
 	ChainLogLikelihood []float64        `json:"chain_log_likelihood"`
-	Fit                json.RawMessage  `json:"fit"`
+	Fit                fitView          `json:"fit"`
 	Themes             []describedTheme `json:"themes"`
 }
 
-func describeModel(path string, m *topics.Model, h modelHeader, n int, lambda float64) *description {
-	d := &description{File: filepath.Base(path), FormatVersion: h.FormatVersion, Program: version, K: m.K(), V: m.V(),
-		Beta: m.Beta(), Fingerprint: m.InputFingerprint(), ChainLogLikelihood: m.ChainLogLikelihood, Fit: h.Fit}
+func describeModel(path string, m *topics.Model, n int, lambda float64) *description {
+	fs := m.FitSettings()
+	// Load accepts only the format this build writes, so a loaded model is of FormatVersion.
+	d := &description{File: filepath.Base(path), FormatVersion: topics.FormatVersion, Program: version, K: m.K(), V: m.V(),
+		Beta: m.Beta(), Fingerprint: m.InputFingerprint(), ChainLogLikelihood: m.ChainLogLikelihood,
+		Fit: fitView{K: fs.K, Iterations: fs.Iterations, BurnIn: fs.BurnIn, Samples: fs.Samples, Alpha: fs.Alpha, Beta: fs.Beta,
+			FixedPriors: fs.FixedPriors, Seed: fs.Seed, Partitions: fs.Partitions, Chains: fs.Chains, SeedStrength: fs.SeedStrength}}
 	if !math.IsNaN(m.Stability) {
 		s := m.Stability
 		d.Stability = &s
@@ -221,8 +191,7 @@ func (d *description) writeText(w io.Writer) error {
 	} else {
 		fmt.Fprintf(bw, "  stability              n/a (one chain)\n")
 	}
-	var fr fitRecordView
-	if len(d.Fit) > 0 && json.Unmarshal(d.Fit, &fr) == nil {
+	if fr := d.Fit; fr.K > 0 {
 		fmt.Fprintf(bw, "  fitted with            K %d, %d iterations (burn-in %d, %d samples averaged), seed %d, %d chains, %d partitions\n",
 			fr.K, fr.Iterations, fr.BurnIn, fr.Samples, fr.Seed, fr.Chains, fr.Partitions)
 		pri := "re-estimated (Minka's fixed point)"

@@ -132,8 +132,8 @@ func TestDescribe(t *testing.T) {
 	if err := json.Unmarshal([]byte(out), &d); err != nil {
 		t.Fatalf("describe -json: %v", err)
 	}
-	if d.K != 8 || len(d.Themes) != 8 || d.FormatVersion != 1 || len(d.Fit) == 0 || d.Stability == nil {
-		t.Errorf("describe -json: K %d, %d themes, format %d, fit %s, stability %v", d.K, len(d.Themes), d.FormatVersion, d.Fit, d.Stability)
+	if d.K != 8 || len(d.Themes) != 8 || d.FormatVersion != 1 || d.Fit.K != 8 || d.Stability == nil {
+		t.Errorf("describe -json: K %d, %d themes, format %d, fit %+v, stability %v", d.K, len(d.Themes), d.FormatVersion, d.Fit, d.Stability)
 	}
 	for _, th := range d.Themes {
 		if len(th.TopWords) != 5 || len(th.Relevant) != 5 || th.Lambda != 0.3 {
