@@ -68,7 +68,7 @@ func sizeChart(d *Data) chartSpec {
 	bar.SetGlobalOptions(commonOpts(id)...)
 	bar.SetGlobalOptions(
 		charts.WithGridOpts(opts.Grid{Left: "8", Right: "40", Top: "10", Bottom: "30", ContainLabel: opts.Bool(true)}),
-		charts.WithXAxisOpts(opts.XAxis{Type: "value", Name: "% of narratives", NameLocation: "middle", NameGap: 24}),
+		charts.WithXAxisOpts(opts.XAxis{Type: "value", Name: "% of all the text", NameLocation: "middle", NameGap: 24}),
 	)
 	labels := make([]string, len(d.Themes))
 	vals := make([]opts.BarData, len(d.Themes))

@@ -41,11 +41,11 @@ as labels. The format is our own:
 	theme: use of force
 	words: taser, baton, force
 
-Keys are case-insensitive; words are separated by commas. Each word must be in the
-vocabulary, as a pipeline term (stemmed) or as a word the way fit and describe print it; a
-two-word phrase is written as they print it ("animal control"). A word that is not in the
-vocabulary is an error naming it. Every theme needs a name not used before and at least
-one word.
+Keys are case-insensitive; words are separated by commas. Words are read through the same
+text processing as the narratives ("resisted" finds the term "resist"); a two-word phrase is
+written as fit and describe print it ("animal control"). A word that matches no term of this
+corpus's vocabulary is left out with a note naming it, so one seed file serves every refit;
+a theme left with no word at all is an error. Every theme needs a name not used before.
 
 Themes summarise what narrative writers wrote; they are not findings of fact.
 

@@ -5,14 +5,17 @@ import (
 	"errors"
 	"flag"
 	"fmt"
+	"html"
 	"io"
 	"math"
 	"os"
 	"path/filepath"
+	"regexp"
 	"runtime/debug"
 	"sort"
 	"strconv"
 	"strings"
+	"undercurrent/text/intake"
 
 	"undercurrent/cluster"
 	"undercurrent/report"
@@ -50,8 +53,8 @@ func (f *jobFlags) register(fs *flag.FlagSet, withInput bool) {
 	fs.StringVar(&f.labels, "labels", "", "labels file: names, merges, hides and notes for themes, applied without refitting")
 	fs.IntVar(&f.threshold, "min-count", 10, "withhold published counts below this (with whatever would let them be recovered)")
 	fs.BoolVar(&f.everything, "publish-small-counts", false, "also write unsuppressed tables, only to files named *.private.*")
-	fs.BoolVar(&f.publishIDs, "publish-ids", false, "show record ids next to examples in the report (default: row numbers only)")
-	fs.IntVar(&f.examples, "examples", 4, "redacted example narratives per theme (3 to 5)")
+	fs.BoolVar(&f.publishIDs, "publish-ids", false, "publish record ids in the report's examples and in the exports (default: file:line references into the input, since ids with a date and a district can be linked to other records)")
+	fs.IntVar(&f.examples, "examples", 4, "redacted example narratives per theme (1 to 5)")
 }
 
 // jobResult is what a finished job wrote.
@@ -71,6 +74,9 @@ func runJob(ctx context.Context, e *env, f *jobFlags, args []string) (*jobResult
 	if f.examples < 1 || f.examples > 5 {
 		return nil, usagef("-examples %d: want 1 to 5", f.examples)
 	}
+	if err := f.model.check(); err != nil {
+		return nil, err
+	}
 	if f.threshold < 1 {
 		return nil, usagef("-min-count %d: want at least 1 (use -publish-small-counts for private unsuppressed tables)", f.threshold)
 	}
@@ -80,7 +86,7 @@ func runJob(ctx context.Context, e *env, f *jobFlags, args []string) (*jobResult
 		if err != nil {
 			return nil, err
 		}
-		cur, err = report.ParseLabels(f.labels, fh)
+		cur, err = report.ParseLabels(filepath.Base(f.labels), fh) // the base name only: the page is published
 		fh.Close()
 		if err != nil {
 			return nil, err
@@ -103,7 +109,7 @@ func runJob(ctx context.Context, e *env, f *jobFlags, args []string) (*jobResult
 		if err != nil {
 			return res, err
 		}
-		fmt.Fprintf(e.stderr, "number of themes: %d (%s)\n", k, strings.Join(sweep.Reasons, " "))
+		fmt.Fprintf(e.stderr, "number of themes: %d (%s%s)\n", k, strings.Join(sweep.Reasons, " "), edgeNote(sweep))
 	}
 	m, err := fitModel(ctx, e, p, &f.model, k)
 	if err != nil {
@@ -228,6 +234,25 @@ func jobDone(e *env, f *jobFlags, res *jobResult, err error) error {
 	return nil
 }
 
+// recordRef names a record by its place in the input: file base name and line.
+func recordRef(r intake.Record) string {
+	return fmt.Sprintf("%s:%d", filepath.Base(r.File), r.Line)
+}
+
+func allWithheld(ms []report.MonthPoint) bool {
+	any := false
+	for _, m := range ms {
+		if m.Gap {
+			continue
+		}
+		if !m.Withheld {
+			return false
+		}
+		any = true
+	}
+	return any
+}
+
 func identity(n int) []int {
 	out := make([]int, n)
 	for i := range out {
@@ -278,10 +303,20 @@ func groupTable(p *prepared, theta [][]float64, g int) (*trend.GroupTable, error
 
 // monthPoints is theme k's series as the report shows it, with withheld values and flags.
 func monthPoints(s *trend.Series, mask *trend.Mask, flags []trend.Flag, k int, pub trend.Publish) []report.MonthPoint {
-	flagAt := map[trend.Month][]trend.Flag{}
-	for _, fl := range flags {
+	// The explanations come from the published flag table, so that the report withholds
+	// exactly what flags.csv withholds (details behind a withheld count are not shown).
+	ft := trend.FlagTable(s, flags, trend.ChangeSettings{}, nil, pub)
+	col := len(ft.Columns) - 1
+	for c, cc := range ft.Columns {
+		if cc.Name == "explanation" {
+			col = c
+		}
+	}
+	type flagText struct{ text string }
+	flagAt := map[trend.Month][]flagText{}
+	for i, fl := range flags {
 		if fl.Theme == k {
-			flagAt[fl.Month] = append(flagAt[fl.Month], fl)
+			flagAt[fl.Month] = append(flagAt[fl.Month], flagText{ft.Rows[i][col]})
 		}
 	}
 	out := make([]report.MonthPoint, len(s.Months))
@@ -304,10 +339,10 @@ func monthPoints(s *trend.Series, mask *trend.Mask, flags []trend.Flag, k int, p
 			}
 		}
 		if fs := flagAt[mi.Month]; len(fs) > 0 {
-			mp.Flag = "high"
+			mp.Flag = "above its baseline"
 			var texts []string
 			for _, fl := range fs {
-				texts = append(texts, fl.Explanation)
+				texts = append(texts, fl.text)
 			}
 			mp.FlagText = strings.Join(texts, " ")
 		}
@@ -416,6 +451,9 @@ func buildData(ctx context.Context, e *env, f *jobFlags, p *prepared, m *topics.
 		}
 		th.Size = report.Size{Dominant: publishCount(dominant[t], pub), Expected: exp, Share: exp / float64(len(theta))}
 		th.Months = monthPoints(series, mask, flags, t, pub)
+		if allWithheld(th.Months) {
+			th.SeriesNote = fmt.Sprintf("Every month's count of this theme is below %d or would let one be recovered, so its monthly series is withheld.", f.threshold)
+		}
 		th.TrendNote = trendNote(series, t)
 		if gt != nil {
 			th.GroupColumn = set.GroupNames[0]
@@ -456,7 +494,7 @@ func buildData(ctx context.Context, e *env, f *jobFlags, p *prepared, m *topics.
 
 	// The choice of K.
 	if sweep != nil {
-		d.KChoice.Note = strings.Join(sweep.Reasons, " ")
+		d.KChoice.Note = strings.Join(sweep.Reasons, " ") + edgeNote(sweep)
 		for _, r := range sweep.Rows {
 			d.KChoice.Rows = append(d.KChoice.Rows, report.KRow{K: r.K, HeldOutLL: r.HeldOutLL, NPMI: r.NPMI, UMass: r.UMass,
 				Stability: nanToZero(r.Stability), Recommended: r.K == sweep.Recommended})
@@ -512,6 +550,22 @@ func cautionItems(s string) []string {
 	return items
 }
 
+// edgeNote warns when the recommended K is the largest or smallest tried: the best may lie
+// outside the range.
+func edgeNote(t *topics.SweepTable) string {
+	if len(t.Rows) < 2 {
+		return ""
+	}
+	lo, hi := t.Rows[0].K, t.Rows[len(t.Rows)-1].K
+	switch t.Recommended {
+	case hi:
+		return fmt.Sprintf(" K = %d is the largest number tried: a sweep over a wider range (-k-range) may find a better one.", hi)
+	case lo:
+		return fmt.Sprintf(" K = %d is the smallest number tried: a sweep over a wider range (-k-range) may find a better one.", lo)
+	}
+	return ""
+}
+
 func nanToZero(x float64) float64 {
 	if math.IsNaN(x) {
 		return 0
@@ -561,7 +615,7 @@ func examples(p *prepared, m *topics.Model, t, n int, publishIDs bool) []report.
 		}
 		seen[txt] = true
 		r := p.set.Records[i]
-		ex := report.Example{Share: m.DocTopics(j)[t], ID: fmt.Sprintf("row %d", i+1)}
+		ex := report.Example{Share: m.DocTopics(j)[t], ID: recordRef(r)}
 		if publishIDs {
 			ex.ID = r.ID
 		}
@@ -575,17 +629,34 @@ func examples(p *prepared, m *topics.Model, t, n int, publishIDs bool) []report.
 				continue
 			}
 			if sp.Start > prev {
-				ex.Segments = append(ex.Segments, report.Segment{Text: txt[prev:sp.Start]})
+				ex.Segments = append(ex.Segments, report.Segment{Text: displayText(txt[prev:sp.Start])})
 			}
-			ex.Segments = append(ex.Segments, report.Segment{Text: txt[sp.Start:sp.End], Hit: true})
+			ex.Segments = append(ex.Segments, report.Segment{Text: displayText(txt[sp.Start:sp.End]), Hit: true})
 			prev = sp.End
 		}
 		if prev < len(txt) {
-			ex.Segments = append(ex.Segments, report.Segment{Text: txt[prev:]})
+			ex.Segments = append(ex.Segments, report.Segment{Text: displayText(txt[prev:])})
 		}
 		out = append(out, ex)
 	}
 	return out
+}
+
+var (
+	htmlTag    = regexp.MustCompile(`</?[A-Za-z][A-Za-z0-9]*(?:\s[^<>]*)?/?>`)
+	spaceRunRe = regexp.MustCompile(`[ \t\x{00A0}]{2,}`)
+)
+
+// displayText cleans a piece of a narrative for reading: HTML tags left by the records system
+// (<p>, <br />) become spaces and entities (&amp;, &nbsp;) their characters, as the text
+// pipeline reads them. The page escapes the result, so nothing in it can run.
+func displayText(s string) string {
+	if strings.IndexByte(s, '<') < 0 && strings.IndexByte(s, '&') < 0 {
+		return s
+	}
+	s = htmlTag.ReplaceAllString(s, " ")
+	s = html.UnescapeString(s)
+	return spaceRunRe.ReplaceAllString(s, " ")
 }
 
 func dateSpan(p *prepared) (string, string) {
@@ -747,9 +818,15 @@ func writeExports(ctx context.Context, f *jobFlags, p *prepared, m *topics.Model
 	for i := range theta {
 		folded[i] = tm.Fold(nil, theta[i])
 	}
+	// Exports published beside the report name each narrative by its place in the input
+	// (file:line), not by its incident id, unless -publish-ids: ids with a date and a district
+	// can be linked to other records.
 	ids := make([]string, len(theta))
 	for i, r := range p.set.Records {
-		ids[i] = r.ID
+		ids[i] = recordRef(r)
+		if f.publishIDs {
+			ids[i] = r.ID
+		}
 	}
 	add := func(name string, fn func(w io.Writer) error) error {
 		path := filepath.Join(out, name)

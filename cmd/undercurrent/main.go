@@ -129,6 +129,11 @@ func run(ctx context.Context, e *env, args []string) int {
 		fmt.Fprintf(e.stderr, "Run 'undercurrent help %s' for usage.\n", c.name)
 		return exitUsage
 	}
+	for _, a := range fs.Args() {
+		if len(a) > 1 && a[0] == '-' {
+			return exitFor(e, c, usagef("%s after the files: options must come before the files", a))
+		}
+	}
 	err := runFn(ctx, e, fs.Args())
 	return exitFor(e, c, err)
 }

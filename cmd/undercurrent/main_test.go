@@ -66,3 +66,21 @@ func TestCautionItems(t *testing.T) {
 		t.Fatalf("cautionItems = %q, want %q", got, want)
 	}
 }
+
+// displayText removes the HTML residue records systems leave (tags and entities, as listed
+// in the HTML 4.01 entity set for &nbsp; and &amp;) and keeps everything else.
+func TestDisplayText(t *testing.T) {
+	tests := []struct{ in, want string }{
+		{"plain text, 10-8.", "plain text, 10-8."},
+		{"<p>Extra patrol.</p>", " Extra patrol. "},
+		{"cleared.<br />Next", "cleared. Next"},
+		{"Smith &amp; Sons&nbsp;lot", "Smith & Sons\u00a0lot"},
+		{"a < b and c > d", "a < b and c > d"},
+		{"<script>x</script>", " x "},
+	}
+	for _, tt := range tests {
+		if got := displayText(tt.in); got != tt.want {
+			t.Errorf("displayText(%q) = %q, want %q", tt.in, got, tt.want)
+		}
+	}
+}

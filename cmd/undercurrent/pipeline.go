@@ -173,6 +173,7 @@ type prepared struct {
 	abbrevN   map[string]int  // expansions by abbreviation
 	routineN  map[string]int  // routine narratives by reason
 	fitCounts *sparse.Matrix  // counts restricted to fitRows
+	seedNoted bool            // the seed-word notes were printed (once a run)
 }
 
 // prepare reads the inputs, accounts for every row, redacts, and runs the text pipeline.
@@ -390,6 +391,25 @@ func parseKRange(s string) ([]int, error) {
 	return out, nil
 }
 
+// check validates the model options before any input is read (usage errors, exit 2).
+func (f *modelFlags) check() error {
+	if f.themes < 0 {
+		return usagef("-themes %d: want at least 1 (or leave it out to choose K by a sweep)", f.themes)
+	}
+	if f.chains < 1 {
+		return usagef("-chains %d: want at least 1", f.chains)
+	}
+	if f.iterations < 0 {
+		return usagef("-iterations %d: want at least 1", f.iterations)
+	}
+	if f.themes == 0 {
+		if _, err := parseKRange(f.krange); err != nil {
+			return err
+		}
+	}
+	return nil
+}
+
 func (f *modelFlags) fitSettings(e *env, p *prepared) (topics.Settings, error) {
 	s := topics.Settings{K: f.themes, Seed: f.seed, Iterations: f.iterations, Chains: f.chains}
 	if f.seedsFile != "" {
@@ -436,6 +456,9 @@ func (p *prepared) seedTerms(e *env, file string, seeds []topics.SeedTheme) ([]t
 				term = strings.Join(parts, "_")
 			}
 			if term == "" || !has(term) {
+				if p.seedNoted {
+					continue
+				}
 				fmt.Fprintf(e.stderr, "note: %s:%d: seed word %q of theme %q is not in this corpus's vocabulary; left out\n",
 					file, seeds[i].Line, strings.ReplaceAll(w, "_", " "), seeds[i].Name)
 				continue
@@ -447,6 +470,7 @@ func (p *prepared) seedTerms(e *env, file string, seeds []topics.SeedTheme) ([]t
 		}
 		seeds[i].Words = kept
 	}
+	p.seedNoted = true
 	return seeds, nil
 }
 
@@ -552,7 +576,9 @@ func themeLabel(m *topics.Model, k int) string {
 	if n := m.ThemeName(k); n != "" {
 		return n
 	}
-	ws := m.TopWords(k, 3, 1)
+	// Relevance (λ = DefaultLambda) rather than probability alone, so that words common to
+	// every theme ("employee" in the OSHA abstracts) do not open every label.
+	ws := m.TopWords(k, 3, topics.DefaultLambda)
 	parts := make([]string, len(ws))
 	for i, w := range ws {
 		parts[i] = strings.ReplaceAll(w.Display, "_", " ")

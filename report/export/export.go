@@ -30,7 +30,7 @@ type Column struct {
 
 // WideColumns are the columns of WriteWide, with the group columns where "<group>" is.
 var WideColumns = []Column{
-	{"id", "record identifier from the input (exports hold no narrative text)"},
+	{"id", "narrative reference: file:line in the input by default, the record id with -publish-ids (tag writes record ids); exports hold no narrative text"},
 	{"date", "date of the narrative, YYYY-MM-DD, empty when unknown"},
 	{"<group>", "one column per group column given (e.g. district), its value for the narrative"},
 	{"theme", "number of the narrative's strongest theme (0-based, as in the report)"},
@@ -44,7 +44,7 @@ var WideColumns = []Column{
 
 // LongColumns are the columns of WriteLong.
 var LongColumns = []Column{
-	{"id", "record identifier from the input (exports hold no narrative text)"},
+	{"id", "narrative reference: file:line in the input by default, the record id with -publish-ids (tag writes record ids); exports hold no narrative text"},
 	{"theme", "theme number (0-based)"},
 	{"share", "the theme's share of the narrative, 0 to 1"},
 }

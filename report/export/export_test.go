@@ -117,7 +117,7 @@ func TestWriteThemes(t *testing.T) {
 
 func TestColumnsMarkdown(t *testing.T) {
 	got := ColumnsMarkdown(LongColumns)
-	want := "| column | meaning |\n|---|---|\n| `id` | record identifier from the input (exports hold no narrative text) |\n| `theme` | theme number (0-based) |\n| `share` | the theme's share of the narrative, 0 to 1 |\n"
+	want := "| column | meaning |\n|---|---|\n| `id` | narrative reference: file:line in the input by default, the record id with -publish-ids (tag writes record ids); exports hold no narrative text |\n| `theme` | theme number (0-based) |\n| `share` | the theme's share of the narrative, 0 to 1 |\n"
 	if got != want {
 		t.Errorf("got\n%s", got)
 	}
