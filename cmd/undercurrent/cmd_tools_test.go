@@ -3,7 +3,9 @@ package main
 import (
 	"bytes"
 	"context"
+	"crypto/sha256"
 	"encoding/csv"
+	"encoding/hex"
 	"encoding/json"
 	"fmt"
 	"io"
@@ -552,3 +554,36 @@ func TestTagStdinAndAccounting(t *testing.T) {
 		t.Errorf("tag's stderr lacks %q:\n%s", set.Summary(), errs)
 	}
 }
+
+// TestTagPinned pins the tag command's output (wide and long CSV) on the test corpus: the
+// SHA-256 values below were computed with the code before the tagging path was sped up
+// (commit 1469ef9). The output depends on the fitted model too, so the model file's hash
+// is pinned beside them; when fitting changes (another engineer's work), the test says so
+// and skips instead of blaming the tagger — re-pin from the code before a tagging change.
+func TestTagPinned(t *testing.T) {
+	csvPath, model := fitted(t)
+	mb, err := os.ReadFile(model)
+	if err != nil {
+		t.Fatal(err)
+	}
+	long := filepath.Join(t.TempDir(), "long.csv")
+	wide, _ := tagFile(t, model, csvPath, "-group", "district", "-long", long)
+	lb, err := os.ReadFile(long)
+	if err != nil {
+		t.Fatal(err)
+	}
+	sum := func(b []byte) string { s := sha256.Sum256(b); return hex.EncodeToString(s[:]) }
+	gotModel, gotWide, gotLong := sum(mb), sum([]byte(wide)), sum(lb)
+	if gotModel != pinTagModel {
+		t.Skipf("model file hash %s, pinned %s: fitting changed, so the pinned tag output no longer applies (wide %s, long %s)", gotModel, pinTagModel, gotWide, gotLong)
+	}
+	if gotWide != pinTagWide || gotLong != pinTagLong {
+		t.Errorf("tag output changed: wide %s (pinned %s), long %s (pinned %s)", gotWide, pinTagWide, gotLong, pinTagLong)
+	}
+}
+
+const (
+	pinTagModel = "f067c9e9c609827e8430c5b2eb7b652e49c1d16948533a77a9ae575118deb92f"
+	pinTagWide  = "2ce07587a241dde5b8df66e36e130ba4eeb18a12e8985a3729ad015b90050757"
+	pinTagLong  = "54b9070584b16e8b9beb891d8a5dc70e8bb625a1f6feb3b71419679f57306fb1"
+)
