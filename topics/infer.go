@@ -69,6 +69,9 @@ type scratch struct {
 	seed []byte    // docSeed's message
 }
 
+// K returns the number of themes, the length of each θ.
+func (t *Tagger) K() int { return t.m.k }
+
 // Infer returns θ for one narrative given its word ids (one per token, in text order; ids
 // must be columns of the model's vocabulary). See InferTo.
 func (t *Tagger) Infer(id string, ids []int32) []float64 {

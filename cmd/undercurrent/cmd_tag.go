@@ -9,7 +9,6 @@ import (
 	"fmt"
 	"io"
 	"os"
-	"sync"
 
 	"undercurrent/report"
 	"undercurrent/report/export"
@@ -249,21 +248,16 @@ type tagStats struct {
 	n, routine, empty int
 }
 
-// prepDoc is one narrative after redaction and the frozen pipeline.
-type prepDoc struct {
-	terms   []int32
-	routine bool
-}
-
 // tagRecords pulls records from next until io.EOF, redacts each, runs it through the
-// frozen pipeline (one copy per worker, in parallel, in batches of tagBatch narratives)
-// and folds it in with tg.Stream, then calls emit with the record and its K+1 theme
-// shares (the last one is the routine column) in input order. At most a fixed number of
-// narratives are in flight, so memory does not grow with the number of records. theta
-// passed to emit is reused afterwards; the record is not.
+// frozen pipeline and folds it in (one worker per pipeline copy, in batches of tagBatch
+// narratives; tg.InferBatchTo per batch), then calls emit with the record and its K+1
+// theme shares (the last one is the routine column) in input order, from the caller's
+// goroutine. At most 2 × workers + 1 batches exist, recycled, so memory does not grow with
+// the number of records. The record and theta passed to emit are reused after emit returns.
 //
 // The processing of one narrative is exactly prepare's for fitting: redactor.Redact, then
-// redact.Blank, then the frozen pipeline's Transform.
+// redact.Blank, then the frozen pipeline's Transform. Fold-in is per narrative (seeded from
+// its id and words), so the batches change nothing in the results.
 func tagRecords(ctx context.Context, next func() (intake.Record, error), red *redact.Redactor, pipes []*text.Frozen, tg *topics.Tagger, emit func(r *intake.Record, theta []float64) error) (tagStats, error) {
 	ctx, cancel := context.WithCancel(ctx)
 	defer cancel()
@@ -272,20 +266,41 @@ func tagRecords(ctx context.Context, next func() (intake.Record, error), red *re
 	if W < 1 {
 		panic("undercurrent: tagRecords without a pipeline")
 	}
-	window := 2 * W // batches in flight in the preprocessing stage
+	K := tg.K()
+	window := 2 * W // batches in flight in the workers
 	type batch struct {
-		recs  []intake.Record
-		docs  []prepDoc
-		ready chan struct{}
+		recs    []intake.Record
+		docs    []topics.Doc
+		routine []bool
+		theta   []float64 // tagBatch × K
+		full    []float64 // tagBatch × (K+1), what emit gets
+		ready   chan struct{}
+	}
+	free := make(chan *batch, window+1)
+	for range window + 1 {
+		free <- &batch{
+			recs:    make([]intake.Record, 0, tagBatch),
+			docs:    make([]topics.Doc, tagBatch),
+			routine: make([]bool, tagBatch),
+			theta:   make([]float64, tagBatch*K),
+			full:    make([]float64, tagBatch*(K+1)),
+			ready:   make(chan struct{}, 1),
+		}
 	}
 	jobs := make(chan *batch, window)
-	order := make(chan *batch, window)
+	order := make(chan *batch, window+1)
 	var readErr error // set by the producer before it closes order
 	go func() {
 		defer close(jobs)
 		defer close(order)
 		for done := false; !done; {
-			b := &batch{recs: make([]intake.Record, 0, tagBatch), ready: make(chan struct{})}
+			var b *batch
+			select {
+			case b = <-free:
+			case <-ctx.Done():
+				return
+			}
+			b.recs = b.recs[:0]
 			for len(b.recs) < tagBatch {
 				r, err := next()
 				if err == io.EOF {
@@ -301,11 +316,8 @@ func tagRecords(ctx context.Context, next func() (intake.Record, error), red *re
 			if len(b.recs) == 0 {
 				break
 			}
-			select {
-			case order <- b:
-			case <-ctx.Done():
-				return
-			}
+			// order has room for every batch there is, so this never blocks.
+			order <- b
 			select {
 			case jobs <- b:
 			case <-ctx.Done():
@@ -317,96 +329,69 @@ func tagRecords(ctx context.Context, next func() (intake.Record, error), red *re
 		fr := pipes[w]
 		go func() {
 			for b := range jobs {
-				b.docs = make([]prepDoc, len(b.recs))
+				n := len(b.recs)
 				for i := range b.recs {
 					out, _ := red.Redact(b.recs[i].Text)
 					d := fr.Transform(redact.Blank(out))
-					b.docs[i] = prepDoc{terms: d.Terms, routine: d.Routine != text.NotRoutine}
+					b.routine[i] = d.Routine != text.NotRoutine
+					ids := d.Terms
+					if b.routine[i] {
+						ids = nil // not a theme of the model: no need to sample
+					}
+					b.docs[i] = topics.Doc{ID: b.recs[i].ID, IDs: ids}
 				}
-				close(b.ready)
+				tg.InferBatchTo(b.theta[:n*K], b.docs[:n])
+				for i := range n {
+					full := b.full[i*(K+1) : (i+1)*(K+1)]
+					if b.routine[i] {
+						clear(full)
+						full[K] = 1
+					} else {
+						copy(full, b.theta[i*K:(i+1)*K])
+						full[K] = 0
+					}
+				}
+				b.ready <- struct{}{}
 			}
 		}()
 	}
-	// fifo carries each narrative's record and routine flag from the source to emit:
-	// Stream calls Next and emit in the same (input) order and holds at most
-	// 4 × Workers narratives, so the queue stays that short.
-	type entry struct {
-		r       *intake.Record
-		routine bool
-	}
-	var (
-		mu   sync.Mutex
-		fifo []entry
-		head int
-	)
-	var cur *batch
-	at := 0
-	src := &sourceFunc{next: func() (topics.Doc, error) {
-		if cur == nil || at == len(cur.docs) {
-			b, ok := <-order
-			if !ok {
-				if err := ctx.Err(); err != nil {
-					return topics.Doc{}, err
-				}
-				if readErr != nil {
-					return topics.Doc{}, readErr
-				}
-				return topics.Doc{}, io.EOF
-			}
+	var err error
+	for b := range order {
+		if err == nil {
 			select {
 			case <-b.ready:
 			case <-ctx.Done():
-				return topics.Doc{}, ctx.Err()
+				err = ctx.Err()
 			}
-			cur, at = b, 0
 		}
-		p := cur.docs[at]
-		r := &cur.recs[at]
-		at++
-		mu.Lock()
-		if head > 0 && head == len(fifo) {
-			fifo, head = fifo[:0], 0 // reuse the queue's array
+		if err != nil {
+			// Drain until the producer sees the cancellation and stops; a worker may
+			// still hold b, so it is left alone.
+			continue
 		}
-		fifo = append(fifo, entry{r, p.routine})
-		mu.Unlock()
-		ids := p.terms
-		if p.routine {
-			ids = nil // not a theme of the model: no need to sample
-		}
-		return topics.Doc{ID: r.ID, IDs: ids}, nil
-	}}
-	var full []float64
-	err := tg.Stream(ctx, src, func(d topics.Doc, theta []float64) error {
-		mu.Lock()
-		en := fifo[head]
-		fifo[head] = entry{}
-		head++
-		mu.Unlock()
-		if full == nil {
-			full = make([]float64, len(theta)+1)
-		}
-		st.n++
-		if en.routine {
-			clear(full)
-			full[len(theta)] = 1
-			st.routine++
-		} else {
-			copy(full, theta)
-			full[len(theta)] = 0
-			if len(d.IDs) == 0 {
+		for i := range b.recs {
+			st.n++
+			if b.routine[i] {
+				st.routine++
+			} else if len(b.docs[i].IDs) == 0 {
 				st.empty++
 			}
+			if err = emit(&b.recs[i], b.full[i*(K+1):(i+1)*(K+1)]); err != nil {
+				cancel()
+				break
+			}
 		}
-		return emit(en.r, full)
-	})
+		clear(b.recs) // drop the texts before the batch waits in free
+		clear(b.docs)
+		free <- b
+	}
 	if err != nil {
-		cancel()
-		// let the producer and workers see the cancellation and stop.
-		for range order {
-		}
 		return st, err
 	}
-	return st, nil
+	if readErr != nil {
+		return st, readErr
+	}
+	return st, ctx.Err()
 }
 
 // sliceRecords returns a next function over recs, for tagRecords.
@@ -444,12 +429,6 @@ func openInputs(ctx context.Context, e *env, f *inputFlags, args []string) (*int
 
 // tagBatch is the number of narratives a preprocessing worker takes at a time.
 const tagBatch = 64
-
-type sourceFunc struct {
-	next func() (topics.Doc, error)
-}
-
-func (s *sourceFunc) Next() (topics.Doc, error) { return s.next() }
 
 // chunkWriter streams rows through a whole-file CSV writer (export.WriteWide, WriteLong)
 // in chunks: the header is written once, then each chunk's rows without the header the
