@@ -3,12 +3,17 @@ package main
 import (
 	"bytes"
 	"context"
+	"encoding/csv"
 	"encoding/json"
-	"errors"
 	"flag"
 	"fmt"
 	"io"
+	"math"
 	"os"
+	"strconv"
+	"strings"
+	"time"
+	"unicode/utf8"
 
 	"undercurrent/report"
 	"undercurrent/report/export"
@@ -124,29 +129,24 @@ Example:
 				tg := topics.NewTagger(m, topics.InferSettings{Iterations: iters, Workers: workers})
 				var st tagStats
 				write := func(wide, longW io.Writer) error {
-					ww := newChunkWriter(wide, func(w io.Writer, rows []export.WideRow) error {
-						return export.WriteWide(w, set.GroupNames, lab, rows)
-					})
-					var lw *chunkWriter[export.LongRow]
+					ww, err := newWideCSV(wide, set.GroupNames, lab)
+					if err != nil {
+						return err
+					}
+					var lw *tagCSV
 					if longW != nil {
-						lw = newChunkWriter(longW, export.WriteLong)
+						if lw, err = newLongCSV(longW); err != nil {
+							return err
+						}
 					}
 					folded := make([]float64, k+1)
 					st, err = tagRecords(ctx, rd.Next, red, pipes, tg, func(r *intake.Record, theta []float64) error {
 						tm.Fold(folded, theta)
-						row := export.WideRow{ID: r.ID, Groups: r.Groups, Theta: append([]float64(nil), folded...)}
-						if r.HasDate {
-							row.Date = r.Date.Format("2006-01-02")
-						}
-						if err := ww.add(row); err != nil {
+						if err := ww.wide(r.ID, r.Date, r.HasDate, r.Groups, folded); err != nil {
 							return err
 						}
 						if lw != nil {
-							for _, lr := range export.LongRows(nil, r.ID, folded, minShare) {
-								if err := lw.add(lr); err != nil {
-									return err
-								}
-							}
+							return lw.long(r.ID, folded, minShare)
 						}
 						return nil
 					})
@@ -430,67 +430,209 @@ func openInputs(ctx context.Context, e *env, f *inputFlags, args []string) (*int
 // tagBatch is the number of narratives a preprocessing worker takes at a time.
 const tagBatch = 64
 
-// chunkWriter streams rows through a whole-file CSV writer (export.WriteWide, WriteLong)
-// in chunks: the header is written once, then each chunk's rows without the header the
-// writer repeats. Memory holds one chunk.
-type chunkWriter[R any] struct {
-	w       io.Writer
-	fn      func(io.Writer, []R) error
-	rows    []R
-	buf     bytes.Buffer
-	header  []byte
-	started bool
-	done    int // rows written
+// tagCSV writes the tag command's wide or long CSV row by row, appending every cell to one
+// buffer (strconv.Append*, no per-cell strings), and gives the same bytes as export.WriteWide
+// and export.WriteLong over all the rows (TestTagCSVMatchesExport): the header comes from
+// those functions, cells are defused as they defuse them (a leading = + - @ tab or CR gets
+// a ') and quoted by encoding/csv's rules, shares have four decimals.
+type tagCSV struct {
+	w      io.Writer
+	buf    []byte
+	rows   int      // rows written, for RowError
+	labels [][]byte // each label's cell, encoded once (wide only)
+	date   []byte   // scratch: the formatted date
+	cell   []byte   // scratch: the id's cell (long)
+	quoted bytes.Buffer
+	qw     *csv.Writer
 }
 
-const chunkRows = 512
+// tagCSVFlush is the buffered size at which tagCSV writes to its writer.
+const tagCSVFlush = 64 << 10
 
-func newChunkWriter[R any](w io.Writer, fn func(io.Writer, []R) error) *chunkWriter[R] {
-	return &chunkWriter[R]{w: w, fn: fn}
+func newWideCSV(w io.Writer, groupCols, labels []string) (*tagCSV, error) {
+	c := &tagCSV{w: w}
+	var hb bytes.Buffer
+	if err := export.WriteWide(&hb, groupCols, labels, nil); err != nil {
+		return nil, err
+	}
+	c.buf = append(c.buf, hb.Bytes()...)
+	for _, l := range labels {
+		c.labels = append(c.labels, c.appendCell(nil, l))
+	}
+	return c, nil
 }
 
-func (c *chunkWriter[R]) add(r R) error {
-	c.rows = append(c.rows, r)
-	if len(c.rows) >= chunkRows {
-		return c.write()
+func newLongCSV(w io.Writer) (*tagCSV, error) {
+	c := &tagCSV{w: w}
+	var hb bytes.Buffer
+	if err := export.WriteLong(&hb, nil); err != nil {
+		return nil, err
+	}
+	c.buf = append(c.buf, hb.Bytes()...)
+	return c, nil
+}
+
+// wide appends one row of narratives-wide.csv: id, date (empty without one), groups, the
+// strongest theme with its label and share, the next two themes with their shares.
+func (c *tagCSV) wide(id string, date time.Time, hasDate bool, groups []string, theta []float64) error {
+	if len(theta) != len(c.labels) {
+		panic("undercurrent: tagCSV.wide: len(theta) does not match the labels")
+	}
+	for _, v := range theta {
+		if err := finiteShare(v); err != nil {
+			return &export.RowError{Row: c.rows, ID: id, Err: err}
+		}
+	}
+	b := c.appendCell(c.buf, id)
+	b = append(b, ',')
+	if hasDate {
+		c.date = date.AppendFormat(c.date[:0], "2006-01-02")
+		if c.date[0] == '-' || len(c.date) != len("2006-01-02") {
+			b = c.appendCell(b, string(c.date)) // a year before 1 or after 9999
+		} else {
+			b = append(b, c.date...) // digits and hyphens: a plain cell
+		}
+	}
+	for _, g := range groups {
+		b = append(b, ',')
+		b = c.appendCell(b, g)
+	}
+	best, n := top3(theta)
+	b = append(b, ',')
+	b = strconv.AppendInt(b, int64(best[0]), 10)
+	b = append(b, ',')
+	b = append(b, c.labels[best[0]]...)
+	b = append(b, ',')
+	b = strconv.AppendFloat(b, theta[best[0]], 'f', 4, 64)
+	for i := 1; i < 3; i++ {
+		b = append(b, ',')
+		if i < n {
+			b = strconv.AppendInt(b, int64(best[i]), 10)
+			b = append(b, ',')
+			b = strconv.AppendFloat(b, theta[best[i]], 'f', 4, 64)
+		} else {
+			b = append(b, ',')
+		}
+	}
+	c.buf = append(b, '\n')
+	c.rows++
+	return c.maybeFlush()
+}
+
+// long appends one row of the long CSV per theme with a share of at least min.
+func (c *tagCSV) long(id string, theta []float64, min float64) error {
+	var cell []byte
+	for k, v := range theta {
+		if !(v >= min) {
+			continue
+		}
+		if err := finiteShare(v); err != nil {
+			return &export.RowError{Row: c.rows, ID: id, Err: err}
+		}
+		if cell == nil {
+			c.cell = c.appendCell(c.cell[:0], id)
+			cell = c.cell
+		}
+		b := append(c.buf, cell...)
+		b = append(b, ',')
+		b = strconv.AppendInt(b, int64(k), 10)
+		b = append(b, ',')
+		b = strconv.AppendFloat(b, v, 'f', 4, 64)
+		c.buf = append(b, '\n')
+		c.rows++
+	}
+	return c.maybeFlush()
+}
+
+func (c *tagCSV) maybeFlush() error {
+	if len(c.buf) < tagCSVFlush {
+		return nil
+	}
+	return c.flush()
+}
+
+// flush writes what is buffered.
+func (c *tagCSV) flush() error {
+	_, err := c.w.Write(c.buf)
+	c.buf = c.buf[:0]
+	return err
+}
+
+// appendCell appends s as export's writers write a text cell: defused, then as
+// encoding/csv writes a field. Plain cells are copied; the rare cell that needs quotes or
+// starts with a non-ASCII byte goes through a csv.Writer, so the rules are csv's own.
+func (c *tagCSV) appendCell(dst []byte, s string) []byte {
+	pre := s != "" && strings.IndexByte("=+-@\t\r", s[0]) >= 0
+	if plainCell(s, pre) {
+		if pre {
+			dst = append(dst, '\'')
+		}
+		return append(dst, s...)
+	}
+	f := s
+	if pre {
+		f = "'" + s
+	}
+	if c.qw == nil {
+		c.qw = csv.NewWriter(&c.quoted)
+	}
+	c.quoted.Reset()
+	c.qw.Write([]string{f}) // a bytes.Buffer does not fail
+	c.qw.Flush()
+	out := c.quoted.Bytes()
+	return append(dst, out[:len(out)-1]...) // without the record's "\n"
+}
+
+// plainCell reports whether encoding/csv writes s (after a defusing ' when pre) as it
+// is: no line break, quote or comma, not `\.`, and not starting with a space (any
+// non-ASCII first byte is sent the slow way, which decides for itself).
+func plainCell(s string, pre bool) bool {
+	if s == "" {
+		return true
+	}
+	if !pre {
+		if s == `\.` || s[0] >= utf8.RuneSelf {
+			return false
+		}
+		switch s[0] {
+		case ' ', '\t', '\n', '\v', '\f', '\r':
+			return false
+		}
+	}
+	for i := 0; i < len(s); i++ {
+		switch s[i] {
+		case '\n', '\r', '"', ',':
+			return false
+		}
+	}
+	return true
+}
+
+// finiteShare is export's check of a share (same wording).
+func finiteShare(v float64) error {
+	if math.IsNaN(v) || math.IsInf(v, 0) || v < 0 || v > 1+1e-9 {
+		return fmt.Errorf("share %v is not between 0 and 1", v)
 	}
 	return nil
 }
 
-func (c *chunkWriter[R]) write() error {
-	if c.header == nil {
-		var hb bytes.Buffer
-		if err := c.fn(&hb, nil); err != nil {
-			return err
+// top3 returns the indices of the three largest values, ties to the lower index (export's
+// rule), and how many there are.
+func top3(theta []float64) ([3]int, int) {
+	var best [3]int
+	n := 0
+	for i, v := range theta {
+		pos := n
+		for pos > 0 && v > theta[best[pos-1]] {
+			pos--
 		}
-		c.header = hb.Bytes()
-	}
-	c.buf.Reset()
-	if err := c.fn(&c.buf, c.rows); err != nil {
-		var re *export.RowError
-		if errors.As(err, &re) {
-			re.Row += c.done // the row's number in the whole file, not in the chunk
+		if pos < 3 {
+			if n < 3 {
+				n++
+			}
+			copy(best[pos+1:n], best[pos:n-1])
+			best[pos] = i
 		}
-		return err
 	}
-	c.done += len(c.rows)
-	b := c.buf.Bytes()
-	if !bytes.HasPrefix(b, c.header) {
-		return errors.New("undercurrent: CSV writer did not start with its header")
-	}
-	if c.started {
-		b = b[len(c.header):]
-	}
-	c.started = true
-	c.rows = c.rows[:0]
-	_, err := c.w.Write(b)
-	return err
-}
-
-// flush writes the rows held (and the header if nothing was written yet).
-func (c *chunkWriter[R]) flush() error {
-	if len(c.rows) == 0 && c.started {
-		return nil
-	}
-	return c.write()
+	return best, n
 }

@@ -7,8 +7,9 @@ import (
 	"encoding/csv"
 	"encoding/hex"
 	"encoding/json"
+	"errors"
 	"fmt"
-	"io"
+	"math"
 	"os"
 	"path/filepath"
 	"runtime"
@@ -16,6 +17,7 @@ import (
 	"strings"
 	"sync"
 	"testing"
+	"time"
 
 	"undercurrent/report/export"
 	"undercurrent/text/demotown"
@@ -492,31 +494,76 @@ func TestFitDeterministic(t *testing.T) {
 
 // Streaming through export.WriteWide in chunks gives the bytes of one WriteWide call over
 // all rows: the header once, rows in order; no rows gives the header alone.
-func TestChunkWriter(t *testing.T) {
-	labels := []string{"a", "b", "c"}
-	for _, n := range []int{0, 1, chunkRows, chunkRows + 1, 3*chunkRows + 7} {
-		rows := make([]export.WideRow, n)
-		for i := range rows {
-			rows[i] = export.WideRow{ID: fmt.Sprintf("r%d", i), Groups: []string{"g"}, Theta: []float64{0.2, 0.5, 0.3}}
-		}
-		var want, got bytes.Buffer
-		if err := export.WriteWide(&want, []string{"district"}, labels, rows); err != nil {
+// TestTagCSVMatchesExport: the tag command's row-by-row CSV writer gives the bytes of
+// export.WriteWide and export.WriteLong (the reference: the report's own exports) for
+// cells that need defusing or quoting by encoding/csv's rules, dates outside 1–9999, ties,
+// merged themes (zero shares) and more rows than one buffer holds.
+func TestTagCSVMatchesExport(t *testing.T) {
+	labels := []string{"a", "=b", "c,d", `say "e"`}
+	cells := []string{"", "r1", "=1+2", "+x", "-3", "@me", "\tx", "\rx", " lead", "\u00a0nbsp", "é", `\.`,
+		"a,b", `q"q`, "line\nbreak", "cr\rcr", "'", "plain words", "\u2003em"}
+	dates := []time.Time{time.Date(2026, 3, 4, 0, 0, 0, 0, time.UTC), time.Date(-5, 1, 2, 0, 0, 0, 0, time.UTC),
+		time.Date(12345, 1, 2, 0, 0, 0, 0, time.UTC), {}}
+	thetas := [][]float64{{0.25, 0.25, 0.25, 0.25}, {0, 0, 1, 0}, {0.1, 0.6, 0, 0.3}, {0.00004, 0.99996, 0, 0}, {0.5, 0, 0.5, 0}}
+	for _, n := range []int{0, 1, 7, 3000} {
+		var wide []export.WideRow
+		var long []export.LongRow
+		var gotW, gotL bytes.Buffer
+		ww, err := newWideCSV(&gotW, []string{"district", "=grp"}, labels)
+		if err != nil {
 			t.Fatal(err)
 		}
-		cw := newChunkWriter(&got, func(w io.Writer, rs []export.WideRow) error {
-			return export.WriteWide(w, []string{"district"}, labels, rs)
-		})
-		for _, r := range rows {
-			if err := cw.add(r); err != nil {
+		lw, err := newLongCSV(&gotL)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for i := range n {
+			id := cells[i%len(cells)]
+			g := []string{cells[(i/3)%len(cells)], cells[(i*7)%len(cells)]}
+			th := thetas[i%len(thetas)]
+			d := dates[(i/5)%len(dates)]
+			has := !d.IsZero()
+			row := export.WideRow{ID: id, Groups: g, Theta: th}
+			if has {
+				row.Date = d.Format("2006-01-02")
+			}
+			wide = append(wide, row)
+			long = export.LongRows(long, id, th, 0.01)
+			if err := ww.wide(id, d, has, g, th); err != nil {
+				t.Fatal(err)
+			}
+			if err := lw.long(id, th, 0.01); err != nil {
 				t.Fatal(err)
 			}
 		}
-		if err := cw.flush(); err != nil {
+		if err := ww.flush(); err != nil {
 			t.Fatal(err)
 		}
-		if got.String() != want.String() {
-			t.Errorf("%d rows: chunked output differs", n)
+		if err := lw.flush(); err != nil {
+			t.Fatal(err)
 		}
+		var wantW, wantL bytes.Buffer
+		if err := export.WriteWide(&wantW, []string{"district", "=grp"}, labels, wide); err != nil {
+			t.Fatal(err)
+		}
+		if err := export.WriteLong(&wantL, long); err != nil {
+			t.Fatal(err)
+		}
+		if gotW.String() != wantW.String() {
+			t.Errorf("%d rows: wide CSV differs from export.WriteWide:\n%.600s\nwant\n%.600s", n, gotW.String(), wantW.String())
+		}
+		if gotL.String() != wantL.String() {
+			t.Errorf("%d rows: long CSV differs from export.WriteLong", n)
+		}
+	}
+	// A share that is not a proportion is a row error naming the row, as export's.
+	var b bytes.Buffer
+	ww, _ := newWideCSV(&b, nil, labels)
+	ww.wide("ok", time.Time{}, false, nil, thetas[0])
+	err := ww.wide("bad", time.Time{}, false, nil, []float64{math.NaN(), 0, 0, 1})
+	var re *export.RowError
+	if !errors.As(err, &re) || re.Row != 1 || re.ID != "bad" {
+		t.Errorf("NaN share: %v", err)
 	}
 }
 
