@@ -50,18 +50,37 @@ func TestInferPinned(t *testing.T) {
 		rng := rand.New(rand.NewPCG(9, uint64(tc.k)))
 		h := sha256.New()
 		var b [8]byte
+		var docs []Doc
+		var alone []float64
 		for i := range 300 {
 			ids := make([]int32, i%120)
 			for j := range ids {
 				ids[j] = int32(rng.IntN(tc.v))
 			}
-			for _, x := range tg.Infer(fmt.Sprintf("pin-%d", i), ids) {
+			d := Doc{ID: fmt.Sprintf("pin-%d", i), IDs: ids}
+			docs = append(docs, d)
+			th := tg.Infer(d.ID, d.IDs)
+			alone = append(alone, th...)
+			for _, x := range th {
 				binary.LittleEndian.PutUint64(b[:], math.Float64bits(x))
 				h.Write(b[:])
 			}
 		}
 		if got := hex.EncodeToString(h.Sum(nil)); got != tc.want {
 			t.Errorf("K = %d: θ hash %s, want %s", tc.k, got, tc.want)
+		}
+		// InferBatchTo gives each narrative's θ bit for bit, whatever the batch size.
+		for _, size := range []int{1, 7, 300} {
+			got := make([]float64, len(alone))
+			for lo := 0; lo < len(docs); lo += size {
+				hi := min(lo+size, len(docs))
+				tg.InferBatchTo(got[lo*tc.k:hi*tc.k], docs[lo:hi])
+			}
+			for i := range got {
+				if math.Float64bits(got[i]) != math.Float64bits(alone[i]) {
+					t.Fatalf("K = %d, batches of %d: θ of %s differs from InferTo's", tc.k, size, docs[i/tc.k].ID)
+				}
+			}
 		}
 	}
 }

@@ -20,8 +20,10 @@ import (
 
 // BenchmarkTag measures tagging throughput (narratives/s) on demotown narratives with a
 // model fitted on 2,000 of them (K = 14, the corpus's number of planted themes): the
-// stages alone and the whole of tagRecords (redact, blank, frozen pipeline, fold-in with
-// the streaming tagger). Issue 9's goal is ≥ 20k narratives/s streaming with flat memory.
+// stages alone (fold-in one narrative at a time and in batches of tagBatch) and the whole
+// of tagRecords (redact, blank, frozen pipeline and fold-in in the batch workers). Issue
+// 9's goal is ≥ 20k narratives/s streaming with flat memory; BenchmarkTagCommand adds
+// reading and writing the files.
 //
 //	go test -run '^$' -bench Tag -benchtime 20000x ./cmd/undercurrent/
 func BenchmarkTag(b *testing.B) {
