@@ -374,6 +374,9 @@ func tagRecords(ctx context.Context, next func() (intake.Record, error), red *re
 			continue
 		}
 		for i := range b.recs {
+			if err = ctx.Err(); err != nil {
+				break // interrupted: nothing more is emitted
+			}
 			st.n++
 			if b.routine[i] {
 				st.routine++
@@ -384,6 +387,9 @@ func tagRecords(ctx context.Context, next func() (intake.Record, error), red *re
 				cancel()
 				break
 			}
+		}
+		if err != nil {
+			continue
 		}
 		clear(b.recs) // drop the texts before the batch waits in free
 		clear(b.docs)

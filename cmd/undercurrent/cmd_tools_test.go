@@ -9,6 +9,7 @@ import (
 	"encoding/json"
 	"errors"
 	"fmt"
+	"io"
 	"math"
 	"os"
 	"path/filepath"
@@ -16,12 +17,14 @@ import (
 	"strconv"
 	"strings"
 	"sync"
+	"sync/atomic"
 	"testing"
 	"time"
 
 	"undercurrent/report/export"
 	"undercurrent/text/demotown"
 	"undercurrent/text/intake"
+	"undercurrent/text/redact"
 	"undercurrent/topics"
 )
 
@@ -634,3 +637,80 @@ const (
 	pinTagWide  = "2ce07587a241dde5b8df66e36e130ba4eeb18a12e8985a3729ad015b90050757"
 	pinTagLong  = "54b9070584b16e8b9beb891d8a5dc70e8bb625a1f6feb3b71419679f57306fb1"
 )
+
+// TestTagRecordsFlatAndStops: tagRecords reads at most its recycled batches ahead of the
+// narrative being emitted (memory does not grow with the rows), and stops cleanly on an
+// emit error or a cancelled context, whatever is in flight.
+func TestTagRecordsFlatAndStops(t *testing.T) {
+	_, model := fitted(t)
+	m, _, err := loadModel(model)
+	if err != nil {
+		t.Fatal(err)
+	}
+	pipes, err := framePipelines(m, 2)
+	if err != nil {
+		t.Fatal(err)
+	}
+	red, err := redact.New(redact.Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	c := demotown.Generate(demotown.Config{Seed: 3, N: 200})
+	source := func(n int, read *atomic.Int64) func() (intake.Record, error) {
+		i := 0
+		return func() (intake.Record, error) {
+			if i == n {
+				return intake.Record{}, io.EOF
+			}
+			in := c.Incidents[i%len(c.Incidents)]
+			i++
+			read.Add(1)
+			return intake.Record{ID: fmt.Sprint(i), Text: in.Narrative}, nil
+		}
+	}
+	tg := topics.NewTagger(m, topics.InferSettings{Iterations: 5, Workers: 2})
+	var read atomic.Int64
+	emitted, ahead := int64(0), int64(0)
+	st, err := tagRecords(context.Background(), source(3000, &read), red, pipes, tg, func(*intake.Record, []float64) error {
+		emitted++
+		ahead = max(ahead, read.Load()-emitted)
+		return nil
+	})
+	if err != nil || st.n != 3000 || emitted != 3000 {
+		t.Fatalf("err %v, %d tagged, %d emitted", err, st.n, emitted)
+	}
+	if limit := int64((2*len(pipes) + 1) * tagBatch); ahead > limit {
+		t.Errorf("%d narratives read ahead of emit, want ≤ %d", ahead, limit)
+	}
+	stop := errors.New("stop")
+	ctx, cancel := context.WithCancel(context.Background())
+	defer cancel()
+	for _, tc := range []struct {
+		name string
+		fn   func(n int) error
+		want error
+	}{
+		{"emit error", func(n int) error {
+			if n == 100 {
+				return stop
+			}
+			return nil
+		}, stop},
+		{"cancelled", func(n int) error {
+			if n == 100 {
+				cancel()
+			}
+			return nil
+		}, context.Canceled},
+	} {
+		n := 0
+		var r atomic.Int64
+		_, err := tagRecords(ctx, source(3000, &r), red, pipes, tg, func(*intake.Record, []float64) error {
+			n++
+			return tc.fn(n)
+		})
+		if !errors.Is(err, tc.want) || n != 100 {
+			t.Errorf("%s: err %v after %d rows", tc.name, err, n)
+		}
+	}
+}
