@@ -182,11 +182,26 @@ func (t *Tagger) infer(sc *scratch, dst []float64, id string, ids []int32) {
 	n := 0
 	inv := 1 / (float64(N) + t.a0)
 	for it := 0; it < t.s.Iterations; it++ {
-		for i := range z {
-			k := z[i]
+		row := rows
+		for i, k := range z {
 			ndk[k]--
 			c[k] = float64(ndk[k]) + alpha[k]
-			nk := draw(&rng, p, c, rows[i*K:i*K+K])
+			// draw, inlined by hand (the compiler does not: too big).
+			r := row[:K]
+			row = row[K:]
+			tot := 0.0
+			for j := range p {
+				tot += c[j] * r[j]
+				p[j] = tot
+			}
+			u := float64(rng.Uint64()<<11>>11) / (1 << 53) * tot
+			nk := K - 1
+			for j, x := range p[:K-1] {
+				if u < x {
+					nk = j
+					break
+				}
+			}
 			z[i] = uint16(nk)
 			ndk[nk]++
 			c[nk] = float64(ndk[nk]) + alpha[nk]
