@@ -44,7 +44,9 @@ is split: name the id column with -id.) Narratives stream through in small batch
 memory does not grow with the number of rows: the input is read twice (a first pass makes
 the column choices exactly as the other commands make them; standard input is first
 copied to a temporary file), and between rows only a hash per id value and the repeated
-ids are kept. An Excel workbook is held whole while it is read.
+ids are kept. An Excel workbook is held whole while it is read. Unless the GOGC
+environment variable is set, tagging lets the heap grow to five times its live data
+between collections (GOGC=400) under a 1 GiB soft limit (or GOMEMLIMIT's).
 
 Routine narratives (whose content reduces to a few routine words, as the pipeline settings
 in the model define them) are not tagged with a theme: they get the extra last theme,
@@ -444,8 +446,8 @@ func openInputs(ctx context.Context, e *env, f *inputFlags, args []string) (*int
 // variable sets one. Tagging keeps little alive (the model, a few batches in flight: some
 // tens of MB) but allocates about 8 KB per narrative in redaction and the text pipeline,
 // so the default 100 collects every few thousand narratives; 400 lets the heap grow to
-// five times the live data instead and cut
-// BenchmarkTag/whole from 104–120 to 90–92 cpu-µs/narrative on the shared machine.
+// five times the live data instead and cut BenchmarkTag/whole from 104–120 to 90–92
+// cpu-µs/narrative on the shared machine.
 //
 // What grows with the rows is intake's record of the ids seen (some tens of bytes per
 // row), which the higher target would multiply by five; tagMemoryLimit (unless GOMEMLIMIT
