@@ -59,11 +59,18 @@ func NewTagger(m *Model, s InferSettings) *Tagger {
 	return t
 }
 
+// scratch is one goroutine's working memory for InferTo, kept in the Tagger's pool.
 type scratch struct {
-	z   []uint16
-	ndk []int32
-	p   []float64
+	z    []uint16
+	ndk  []int32
+	c    []float64 // c[k] = float64(ndk[k]) + α_k, kept in step with ndk
+	p    []float64 // cumulative weights of the draw
+	rows []float64 // the φ column of each token, token-major (len(ids) × K)
+	seed []byte    // docSeed's message
 }
+
+// K returns the number of themes, the length of each θ.
+func (t *Tagger) K() int { return t.m.k }
 
 // Infer returns θ for one narrative given its word ids (one per token, in text order; ids
 // must be columns of the model's vocabulary). See InferTo.
@@ -82,6 +89,12 @@ func (t *Tagger) Infer(id string, ids []int32) []float64 {
 // the other narratives in its batch or on the order they are tagged. An empty narrative
 // gets the prior mean α/α_0. It panics if a word id is outside the vocabulary or dst has the
 // wrong length.
+//
+// Each draw sums the K weights (n_dk + α_k) φ_k,w in theme order and picks the first theme
+// whose running sum exceeds u·total, u uniform in [0, 1) from the narrative's PCG stream
+// (53 bits, as rand.Rand.Float64). The result is pinned bit for bit (TestInferPinned):
+// speed-ups must keep every floating-point operation and its order; a sparse sampler that
+// splits the sum (α φ + n φ) would round differently, change draws and so change tags.
 func (t *Tagger) InferTo(dst []float64, id string, ids []int32) []float64 {
 	K := t.m.k
 	if len(dst) != K {
@@ -92,45 +105,110 @@ func (t *Tagger) InferTo(dst []float64, id string, ids []int32) []float64 {
 			panic(fmt.Sprintf("topics: word id %d outside vocabulary of %d", w, t.m.v))
 		}
 	}
+	sc := t.getScratch()
+	t.infer(sc, dst, id, ids)
+	t.pool.Put(sc)
+	return dst
+}
+
+// InferBatchTo writes θ of docs[j] into dst[j·K : (j+1)·K] and returns dst, exactly as
+// InferTo would for each narrative (bit for bit), with one set of working memory. It
+// panics if len(dst) is not len(docs)·K or a word id is outside the vocabulary.
+func (t *Tagger) InferBatchTo(dst []float64, docs []Doc) []float64 {
+	K := t.m.k
+	if len(dst) != len(docs)*K {
+		panic("topics: destination length does not match K × narratives")
+	}
+	for _, d := range docs {
+		for _, w := range d.IDs {
+			if w < 0 || int(w) >= t.m.v {
+				panic(fmt.Sprintf("topics: word id %d outside vocabulary of %d", w, t.m.v))
+			}
+		}
+	}
+	sc := t.getScratch()
+	for j, d := range docs {
+		t.infer(sc, dst[j*K:j*K+K], d.ID, d.IDs)
+	}
+	t.pool.Put(sc)
+	return dst
+}
+
+func (t *Tagger) getScratch() *scratch {
+	if sc, _ := t.pool.Get().(*scratch); sc != nil {
+		return sc
+	}
+	K := t.m.k
+	return &scratch{ndk: make([]int32, K), c: make([]float64, K), p: make([]float64, K)}
+}
+
+// infer is InferTo after the checks, with sc's memory.
+func (t *Tagger) infer(sc *scratch, dst []float64, id string, ids []int32) {
+	K := t.m.k
 	clear(dst)
-	alpha := t.m.alpha
+	alpha := t.m.alpha[:K]
 	if len(ids) == 0 {
 		for k, a := range alpha {
 			dst[k] = a / t.a0
 		}
-		return dst
+		return
 	}
-	sc, _ := t.pool.Get().(*scratch)
-	if sc == nil {
-		sc = &scratch{ndk: make([]int32, K), p: make([]float64, K)}
+	var s1, s2 uint64
+	s1, s2, sc.seed = docSeed(sc.seed[:0], id, ids)
+	var rng rand.PCG
+	rng.Seed(s1, s2)
+	N := len(ids)
+	if cap(sc.z) < N {
+		sc.z = make([]uint16, N)
 	}
-	defer t.pool.Put(sc)
-	s1, s2 := docSeed(id, ids)
-	rng := rand.New(rand.NewPCG(s1, s2))
-	if cap(sc.z) < len(ids) {
-		sc.z = make([]uint16, len(ids))
+	if cap(sc.rows) < N*K {
+		sc.rows = make([]float64, N*K)
 	}
-	z := sc.z[:len(ids)]
-	ndk, p := sc.ndk, sc.p
-	clear(ndk)
-	// Start each token in a theme drawn from p(k) ∝ α_k φ_kw.
+	z := sc.z[:N]
+	rows := sc.rows[:N*K]
 	for i, w := range ids {
-		k := t.draw(rng, p, ndk, int(w))
+		copy(rows[i*K:i*K+K], t.phiT[int(w)*K:int(w)*K+K])
+	}
+	ndk, c, p := sc.ndk[:K], sc.c[:K], sc.p[:K]
+	clear(ndk)
+	copy(c, alpha) // float64(0) + α_k == α_k
+	// Start each token in a theme drawn from p(k) ∝ α_k φ_kw.
+	for i := range z {
+		k := draw(&rng, p, c, rows[i*K:i*K+K])
 		z[i] = uint16(k)
 		ndk[k]++
+		c[k] = float64(ndk[k]) + alpha[k]
 	}
 	n := 0
-	inv := 1 / (float64(len(ids)) + t.a0)
+	inv := 1 / (float64(N) + t.a0)
 	for it := 0; it < t.s.Iterations; it++ {
-		for i, w := range ids {
-			ndk[z[i]]--
-			k := t.draw(rng, p, ndk, int(w))
-			z[i] = uint16(k)
-			ndk[k]++
+		row := rows
+		for i, k := range z {
+			ndk[k]--
+			c[k] = float64(ndk[k]) + alpha[k]
+			// draw, inlined by hand (the compiler does not: too big).
+			r := row[:K]
+			row = row[K:]
+			tot := 0.0
+			for j := range p {
+				tot += c[j] * r[j]
+				p[j] = tot
+			}
+			u := float64(rng.Uint64()<<11>>11) / (1 << 53) * tot
+			nk := K - 1
+			for j, x := range p[:K-1] {
+				if u < x {
+					nk = j
+					break
+				}
+			}
+			z[i] = uint16(nk)
+			ndk[nk]++
+			c[nk] = float64(ndk[nk]) + alpha[nk]
 		}
 		if it >= t.s.BurnIn {
 			for k := range dst {
-				dst[k] += (float64(ndk[k]) + alpha[k]) * inv
+				dst[k] += c[k] * inv
 			}
 			n++
 		}
@@ -138,18 +216,19 @@ func (t *Tagger) InferTo(dst []float64, id string, ids []int32) []float64 {
 	for k := range dst {
 		dst[k] /= float64(n)
 	}
-	return dst
 }
 
-func (t *Tagger) draw(rng *rand.Rand, p []float64, ndk []int32, w int) int {
-	K := t.m.k
-	row := t.phiT[w*K : w*K+K]
+// draw returns a theme drawn with weights c[k]·row[k]: the first k whose running sum
+// exceeds u·total, or the last theme.
+func draw(rng *rand.PCG, p, c, row []float64) int {
+	K := len(p)
+	c, row = c[:K], row[:K]
 	tot := 0.0
-	for k := 0; k < K; k++ {
-		tot += (float64(ndk[k]) + t.m.alpha[k]) * row[k]
+	for k := range p {
+		tot += c[k] * row[k]
 		p[k] = tot
 	}
-	u := rng.Float64() * tot
+	u := float64(rng.Uint64()<<11>>11) / (1 << 53) * tot
 	for k := 0; k < K; k++ {
 		if u < p[k] {
 			return k
@@ -160,23 +239,16 @@ func (t *Tagger) draw(rng *rand.Rand, p []float64, ndk []int32, w int) int {
 
 // docSeed returns the two PCG seeds of a narrative: the first 16 bytes (two little-endian
 // uint64) of SHA-256("undercurrent/tag/v1" ‖ uint64 len(id) ‖ id ‖ each id as int32 LE).
-func docSeed(id string, ids []int32) (uint64, uint64) {
-	h := sha256.New()
-	var b [8]byte
-	h.Write([]byte("undercurrent/tag/v1"))
-	binary.LittleEndian.PutUint64(b[:], uint64(len(id)))
-	h.Write(b[:])
-	h.Write([]byte(id))
-	buf := make([]byte, 0, 4*min(len(ids), 1024))
-	for i, w := range ids {
+// buf is scratch space for the message; the grown buffer is returned for reuse.
+func docSeed(buf []byte, id string, ids []int32) (uint64, uint64, []byte) {
+	buf = append(buf, "undercurrent/tag/v1"...)
+	buf = binary.LittleEndian.AppendUint64(buf, uint64(len(id)))
+	buf = append(buf, id...)
+	for _, w := range ids {
 		buf = binary.LittleEndian.AppendUint32(buf, uint32(w))
-		if len(buf) == cap(buf) || i == len(ids)-1 {
-			h.Write(buf)
-			buf = buf[:0]
-		}
 	}
-	s := h.Sum(nil)
-	return binary.LittleEndian.Uint64(s[:8]), binary.LittleEndian.Uint64(s[8:16])
+	s := sha256.Sum256(buf)
+	return binary.LittleEndian.Uint64(s[:8]), binary.LittleEndian.Uint64(s[8:16]), buf
 }
 
 // Doc is one narrative to tag: its id and its word ids, one per token.

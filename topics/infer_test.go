@@ -74,9 +74,9 @@ func TestTagsIndependentOfBatch(t *testing.T) {
 		t.Fatalf("fold-in dominant theme agrees with the fit on %d of 40 narratives", agree)
 	}
 	// The same text under another id gets its own stream (so tags are seeded per narrative).
-	a1, a2 := docSeed("x", docs[0].IDs)
-	b1, b2 := docSeed("y", docs[0].IDs)
-	c1, c2 := docSeed("x", docs[1].IDs)
+	a1, a2, _ := docSeed(nil, "x", docs[0].IDs)
+	b1, b2, _ := docSeed(nil, "y", docs[0].IDs)
+	c1, c2, _ := docSeed(nil, "x", docs[1].IDs)
 	if a1 == b1 && a2 == b2 || a1 == c1 && a2 == c2 {
 		t.Fatal("seed ignores the id or the tokens")
 	}

@@ -3,13 +3,18 @@ package main
 import (
 	"bytes"
 	"context"
+	"encoding/csv"
 	"encoding/json"
-	"errors"
 	"flag"
 	"fmt"
 	"io"
+	"math"
 	"os"
-	"sync"
+	"runtime/debug"
+	"strconv"
+	"strings"
+	"time"
+	"unicode/utf8"
 
 	"undercurrent/report"
 	"undercurrent/report/export"
@@ -39,7 +44,9 @@ is split: name the id column with -id.) Narratives stream through in small batch
 memory does not grow with the number of rows: the input is read twice (a first pass makes
 the column choices exactly as the other commands make them; standard input is first
 copied to a temporary file), and between rows only a hash per id value and the repeated
-ids are kept. An Excel workbook is held whole while it is read.
+ids are kept. An Excel workbook is held whole while it is read. Unless the GOGC
+environment variable is set, tagging lets the heap grow to five times its live data
+between collections (GOGC=400) under a 1 GiB soft limit (or GOMEMLIMIT's).
 
 Routine narratives (whose content reduces to a few routine words, as the pipeline settings
 in the model define them) are not tagged with a theme: they get the extra last theme,
@@ -98,6 +105,12 @@ Example:
 				if !(minShare >= 0 && minShare <= 1) {
 					return usagef("-min-share %v: want 0 to 1", minShare)
 				}
+				if os.Getenv("GOGC") == "" {
+					defer debug.SetGCPercent(debug.SetGCPercent(tagGCPercent))
+					if os.Getenv("GOMEMLIMIT") == "" {
+						defer debug.SetMemoryLimit(debug.SetMemoryLimit(tagMemoryLimit))
+					}
+				}
 				m, _, err := loadModel(path)
 				if err != nil {
 					return err
@@ -125,29 +138,24 @@ Example:
 				tg := topics.NewTagger(m, topics.InferSettings{Iterations: iters, Workers: workers})
 				var st tagStats
 				write := func(wide, longW io.Writer) error {
-					ww := newChunkWriter(wide, func(w io.Writer, rows []export.WideRow) error {
-						return export.WriteWide(w, set.GroupNames, lab, rows)
-					})
-					var lw *chunkWriter[export.LongRow]
+					ww, err := newWideCSV(wide, set.GroupNames, lab)
+					if err != nil {
+						return err
+					}
+					var lw *tagCSV
 					if longW != nil {
-						lw = newChunkWriter(longW, export.WriteLong)
+						if lw, err = newLongCSV(longW); err != nil {
+							return err
+						}
 					}
 					folded := make([]float64, k+1)
 					st, err = tagRecords(ctx, rd.Next, red, pipes, tg, func(r *intake.Record, theta []float64) error {
 						tm.Fold(folded, theta)
-						row := export.WideRow{ID: r.ID, Groups: r.Groups, Theta: append([]float64(nil), folded...)}
-						if r.HasDate {
-							row.Date = r.Date.Format("2006-01-02")
-						}
-						if err := ww.add(row); err != nil {
+						if err := ww.wide(r.ID, r.Date, r.HasDate, r.Groups, folded); err != nil {
 							return err
 						}
 						if lw != nil {
-							for _, lr := range export.LongRows(nil, r.ID, folded, minShare) {
-								if err := lw.add(lr); err != nil {
-									return err
-								}
-							}
+							return lw.long(r.ID, folded, minShare)
 						}
 						return nil
 					})
@@ -249,21 +257,16 @@ type tagStats struct {
 	n, routine, empty int
 }
 
-// prepDoc is one narrative after redaction and the frozen pipeline.
-type prepDoc struct {
-	terms   []int32
-	routine bool
-}
-
 // tagRecords pulls records from next until io.EOF, redacts each, runs it through the
-// frozen pipeline (one copy per worker, in parallel, in batches of tagBatch narratives)
-// and folds it in with tg.Stream, then calls emit with the record and its K+1 theme
-// shares (the last one is the routine column) in input order. At most a fixed number of
-// narratives are in flight, so memory does not grow with the number of records. theta
-// passed to emit is reused afterwards; the record is not.
+// frozen pipeline and folds it in (one worker per pipeline copy, in batches of tagBatch
+// narratives; tg.InferBatchTo per batch), then calls emit with the record and its K+1
+// theme shares (the last one is the routine column) in input order, from the caller's
+// goroutine. At most 2 × workers + 1 batches exist, recycled, so memory does not grow with
+// the number of records. The record and theta passed to emit are reused after emit returns.
 //
 // The processing of one narrative is exactly prepare's for fitting: redactor.Redact, then
-// redact.Blank, then the frozen pipeline's Transform.
+// redact.Blank, then the frozen pipeline's Transform. Fold-in is per narrative (seeded from
+// its id and words), so the batches change nothing in the results.
 func tagRecords(ctx context.Context, next func() (intake.Record, error), red *redact.Redactor, pipes []*text.Frozen, tg *topics.Tagger, emit func(r *intake.Record, theta []float64) error) (tagStats, error) {
 	ctx, cancel := context.WithCancel(ctx)
 	defer cancel()
@@ -272,20 +275,41 @@ func tagRecords(ctx context.Context, next func() (intake.Record, error), red *re
 	if W < 1 {
 		panic("undercurrent: tagRecords without a pipeline")
 	}
-	window := 2 * W // batches in flight in the preprocessing stage
+	K := tg.K()
+	window := 2 * W // batches in flight in the workers
 	type batch struct {
-		recs  []intake.Record
-		docs  []prepDoc
-		ready chan struct{}
+		recs    []intake.Record
+		docs    []topics.Doc
+		routine []bool
+		theta   []float64 // tagBatch × K
+		full    []float64 // tagBatch × (K+1), what emit gets
+		ready   chan struct{}
+	}
+	free := make(chan *batch, window+1)
+	for range window + 1 {
+		free <- &batch{
+			recs:    make([]intake.Record, 0, tagBatch),
+			docs:    make([]topics.Doc, tagBatch),
+			routine: make([]bool, tagBatch),
+			theta:   make([]float64, tagBatch*K),
+			full:    make([]float64, tagBatch*(K+1)),
+			ready:   make(chan struct{}, 1),
+		}
 	}
 	jobs := make(chan *batch, window)
-	order := make(chan *batch, window)
+	order := make(chan *batch, window+1)
 	var readErr error // set by the producer before it closes order
 	go func() {
 		defer close(jobs)
 		defer close(order)
 		for done := false; !done; {
-			b := &batch{recs: make([]intake.Record, 0, tagBatch), ready: make(chan struct{})}
+			var b *batch
+			select {
+			case b = <-free:
+			case <-ctx.Done():
+				return
+			}
+			b.recs = b.recs[:0]
 			for len(b.recs) < tagBatch {
 				r, err := next()
 				if err == io.EOF {
@@ -301,11 +325,8 @@ func tagRecords(ctx context.Context, next func() (intake.Record, error), red *re
 			if len(b.recs) == 0 {
 				break
 			}
-			select {
-			case order <- b:
-			case <-ctx.Done():
-				return
-			}
+			// order has room for every batch there is, so this never blocks.
+			order <- b
 			select {
 			case jobs <- b:
 			case <-ctx.Done():
@@ -317,96 +338,75 @@ func tagRecords(ctx context.Context, next func() (intake.Record, error), red *re
 		fr := pipes[w]
 		go func() {
 			for b := range jobs {
-				b.docs = make([]prepDoc, len(b.recs))
+				n := len(b.recs)
 				for i := range b.recs {
 					out, _ := red.Redact(b.recs[i].Text)
 					d := fr.Transform(redact.Blank(out))
-					b.docs[i] = prepDoc{terms: d.Terms, routine: d.Routine != text.NotRoutine}
+					b.routine[i] = d.Routine != text.NotRoutine
+					ids := d.Terms
+					if b.routine[i] {
+						ids = nil // not a theme of the model: no need to sample
+					}
+					b.docs[i] = topics.Doc{ID: b.recs[i].ID, IDs: ids}
 				}
-				close(b.ready)
+				tg.InferBatchTo(b.theta[:n*K], b.docs[:n])
+				for i := range n {
+					full := b.full[i*(K+1) : (i+1)*(K+1)]
+					if b.routine[i] {
+						clear(full)
+						full[K] = 1
+					} else {
+						copy(full, b.theta[i*K:(i+1)*K])
+						full[K] = 0
+					}
+				}
+				b.ready <- struct{}{}
 			}
 		}()
 	}
-	// fifo carries each narrative's record and routine flag from the source to emit:
-	// Stream calls Next and emit in the same (input) order and holds at most
-	// 4 × Workers narratives, so the queue stays that short.
-	type entry struct {
-		r       *intake.Record
-		routine bool
-	}
-	var (
-		mu   sync.Mutex
-		fifo []entry
-		head int
-	)
-	var cur *batch
-	at := 0
-	src := &sourceFunc{next: func() (topics.Doc, error) {
-		if cur == nil || at == len(cur.docs) {
-			b, ok := <-order
-			if !ok {
-				if err := ctx.Err(); err != nil {
-					return topics.Doc{}, err
-				}
-				if readErr != nil {
-					return topics.Doc{}, readErr
-				}
-				return topics.Doc{}, io.EOF
-			}
+	var err error
+	for b := range order {
+		if err == nil {
 			select {
 			case <-b.ready:
 			case <-ctx.Done():
-				return topics.Doc{}, ctx.Err()
+				err = ctx.Err()
 			}
-			cur, at = b, 0
 		}
-		p := cur.docs[at]
-		r := &cur.recs[at]
-		at++
-		mu.Lock()
-		if head > 0 && head == len(fifo) {
-			fifo, head = fifo[:0], 0 // reuse the queue's array
+		if err != nil {
+			// Drain until the producer sees the cancellation and stops; a worker may
+			// still hold b, so it is left alone.
+			continue
 		}
-		fifo = append(fifo, entry{r, p.routine})
-		mu.Unlock()
-		ids := p.terms
-		if p.routine {
-			ids = nil // not a theme of the model: no need to sample
-		}
-		return topics.Doc{ID: r.ID, IDs: ids}, nil
-	}}
-	var full []float64
-	err := tg.Stream(ctx, src, func(d topics.Doc, theta []float64) error {
-		mu.Lock()
-		en := fifo[head]
-		fifo[head] = entry{}
-		head++
-		mu.Unlock()
-		if full == nil {
-			full = make([]float64, len(theta)+1)
-		}
-		st.n++
-		if en.routine {
-			clear(full)
-			full[len(theta)] = 1
-			st.routine++
-		} else {
-			copy(full, theta)
-			full[len(theta)] = 0
-			if len(d.IDs) == 0 {
+		for i := range b.recs {
+			if err = ctx.Err(); err != nil {
+				break // interrupted: nothing more is emitted
+			}
+			st.n++
+			if b.routine[i] {
+				st.routine++
+			} else if len(b.docs[i].IDs) == 0 {
 				st.empty++
 			}
+			if err = emit(&b.recs[i], b.full[i*(K+1):(i+1)*(K+1)]); err != nil {
+				cancel()
+				break
+			}
 		}
-		return emit(en.r, full)
-	})
+		if err != nil {
+			continue
+		}
+		clear(b.recs) // drop the texts before the batch waits in free
+		clear(b.docs)
+		free <- b
+	}
 	if err != nil {
-		cancel()
-		// let the producer and workers see the cancellation and stop.
-		for range order {
-		}
 		return st, err
 	}
-	return st, nil
+	if readErr != nil {
+		return st, readErr
+	}
+	return st, ctx.Err()
 }
 
 // sliceRecords returns a next function over recs, for tagRecords.
@@ -442,76 +442,228 @@ func openInputs(ctx context.Context, e *env, f *inputFlags, args []string) (*int
 	return rd, nil
 }
 
+// tagGCPercent is the garbage collector's target (GOGC) while tagging, unless the GOGC
+// variable sets one. Tagging keeps little alive (the model, a few batches in flight: some
+// tens of MB) but allocates about 8 KB per narrative in redaction and the text pipeline,
+// so the default 100 collects every few thousand narratives; 400 lets the heap grow to
+// five times the live data instead and cut BenchmarkTag/whole from 104–120 to 90–92
+// cpu-µs/narrative on the shared machine.
+//
+// What grows with the rows is intake's record of the ids seen (some tens of bytes per
+// row), which the higher target would multiply by five; tagMemoryLimit (unless GOMEMLIMIT
+// sets one) makes the collector work harder instead once the process nears it. Measured on
+// 1M demotown rows: peak RSS 111 MB (53 MB with the defaults).
+const (
+	tagGCPercent   = 400
+	tagMemoryLimit = 1 << 30
+)
+
 // tagBatch is the number of narratives a preprocessing worker takes at a time.
 const tagBatch = 64
 
-type sourceFunc struct {
-	next func() (topics.Doc, error)
+// tagCSV writes the tag command's wide or long CSV row by row, appending every cell to one
+// buffer (strconv.Append*, no per-cell strings), and gives the same bytes as export.WriteWide
+// and export.WriteLong over all the rows (TestTagCSVMatchesExport): the header comes from
+// those functions, cells are defused as they defuse them (a leading = + - @ tab or CR gets
+// a ') and quoted by encoding/csv's rules, shares have four decimals.
+type tagCSV struct {
+	w      io.Writer
+	buf    []byte
+	rows   int      // rows written, for RowError
+	labels [][]byte // each label's cell, encoded once (wide only)
+	date   []byte   // scratch: the formatted date
+	cell   []byte   // scratch: the id's cell (long)
+	quoted bytes.Buffer
+	qw     *csv.Writer
 }
 
-func (s *sourceFunc) Next() (topics.Doc, error) { return s.next() }
+// tagCSVFlush is the buffered size at which tagCSV writes to its writer.
+const tagCSVFlush = 64 << 10
 
-// chunkWriter streams rows through a whole-file CSV writer (export.WriteWide, WriteLong)
-// in chunks: the header is written once, then each chunk's rows without the header the
-// writer repeats. Memory holds one chunk.
-type chunkWriter[R any] struct {
-	w       io.Writer
-	fn      func(io.Writer, []R) error
-	rows    []R
-	buf     bytes.Buffer
-	header  []byte
-	started bool
-	done    int // rows written
+func newWideCSV(w io.Writer, groupCols, labels []string) (*tagCSV, error) {
+	c := &tagCSV{w: w}
+	var hb bytes.Buffer
+	if err := export.WriteWide(&hb, groupCols, labels, nil); err != nil {
+		return nil, err
+	}
+	c.buf = append(c.buf, hb.Bytes()...)
+	for _, l := range labels {
+		c.labels = append(c.labels, c.appendCell(nil, l))
+	}
+	return c, nil
 }
 
-const chunkRows = 512
-
-func newChunkWriter[R any](w io.Writer, fn func(io.Writer, []R) error) *chunkWriter[R] {
-	return &chunkWriter[R]{w: w, fn: fn}
+func newLongCSV(w io.Writer) (*tagCSV, error) {
+	c := &tagCSV{w: w}
+	var hb bytes.Buffer
+	if err := export.WriteLong(&hb, nil); err != nil {
+		return nil, err
+	}
+	c.buf = append(c.buf, hb.Bytes()...)
+	return c, nil
 }
 
-func (c *chunkWriter[R]) add(r R) error {
-	c.rows = append(c.rows, r)
-	if len(c.rows) >= chunkRows {
-		return c.write()
+// wide appends one row of narratives-wide.csv: id, date (empty without one), groups, the
+// strongest theme with its label and share, the next two themes with their shares.
+func (c *tagCSV) wide(id string, date time.Time, hasDate bool, groups []string, theta []float64) error {
+	if len(theta) != len(c.labels) {
+		panic("undercurrent: tagCSV.wide: len(theta) does not match the labels")
+	}
+	for _, v := range theta {
+		if err := finiteShare(v); err != nil {
+			return &export.RowError{Row: c.rows, ID: id, Err: err}
+		}
+	}
+	b := c.appendCell(c.buf, id)
+	b = append(b, ',')
+	if hasDate {
+		c.date = date.AppendFormat(c.date[:0], "2006-01-02")
+		if c.date[0] == '-' || len(c.date) != len("2006-01-02") {
+			b = c.appendCell(b, string(c.date)) // a year before 1 or after 9999
+		} else {
+			b = append(b, c.date...) // digits and hyphens: a plain cell
+		}
+	}
+	for _, g := range groups {
+		b = append(b, ',')
+		b = c.appendCell(b, g)
+	}
+	best, n := top3(theta)
+	b = append(b, ',')
+	b = strconv.AppendInt(b, int64(best[0]), 10)
+	b = append(b, ',')
+	b = append(b, c.labels[best[0]]...)
+	b = append(b, ',')
+	b = strconv.AppendFloat(b, theta[best[0]], 'f', 4, 64)
+	for i := 1; i < 3; i++ {
+		b = append(b, ',')
+		if i < n {
+			b = strconv.AppendInt(b, int64(best[i]), 10)
+			b = append(b, ',')
+			b = strconv.AppendFloat(b, theta[best[i]], 'f', 4, 64)
+		} else {
+			b = append(b, ',')
+		}
+	}
+	c.buf = append(b, '\n')
+	c.rows++
+	return c.maybeFlush()
+}
+
+// long appends one row of the long CSV per theme with a share of at least min.
+func (c *tagCSV) long(id string, theta []float64, min float64) error {
+	var cell []byte
+	for k, v := range theta {
+		if !(v >= min) {
+			continue
+		}
+		if err := finiteShare(v); err != nil {
+			return &export.RowError{Row: c.rows, ID: id, Err: err}
+		}
+		if cell == nil {
+			c.cell = c.appendCell(c.cell[:0], id)
+			cell = c.cell
+		}
+		b := append(c.buf, cell...)
+		b = append(b, ',')
+		b = strconv.AppendInt(b, int64(k), 10)
+		b = append(b, ',')
+		b = strconv.AppendFloat(b, v, 'f', 4, 64)
+		c.buf = append(b, '\n')
+		c.rows++
+	}
+	return c.maybeFlush()
+}
+
+func (c *tagCSV) maybeFlush() error {
+	if len(c.buf) < tagCSVFlush {
+		return nil
+	}
+	return c.flush()
+}
+
+// flush writes what is buffered.
+func (c *tagCSV) flush() error {
+	_, err := c.w.Write(c.buf)
+	c.buf = c.buf[:0]
+	return err
+}
+
+// appendCell appends s as export's writers write a text cell: defused, then as
+// encoding/csv writes a field. Plain cells are copied; the rare cell that needs quotes or
+// starts with a non-ASCII byte goes through a csv.Writer, so the rules are csv's own.
+func (c *tagCSV) appendCell(dst []byte, s string) []byte {
+	pre := s != "" && strings.IndexByte("=+-@\t\r", s[0]) >= 0
+	if plainCell(s, pre) {
+		if pre {
+			dst = append(dst, '\'')
+		}
+		return append(dst, s...)
+	}
+	f := s
+	if pre {
+		f = "'" + s
+	}
+	if c.qw == nil {
+		c.qw = csv.NewWriter(&c.quoted)
+	}
+	c.quoted.Reset()
+	c.qw.Write([]string{f}) // a bytes.Buffer does not fail
+	c.qw.Flush()
+	out := c.quoted.Bytes()
+	return append(dst, out[:len(out)-1]...) // without the record's "\n"
+}
+
+// plainCell reports whether encoding/csv writes s (after a defusing ' when pre) as it
+// is: no line break, quote or comma, not `\.`, and not starting with a space (any
+// non-ASCII first byte is sent the slow way, which decides for itself).
+func plainCell(s string, pre bool) bool {
+	if s == "" {
+		return true
+	}
+	if !pre {
+		if s == `\.` || s[0] >= utf8.RuneSelf {
+			return false
+		}
+		switch s[0] {
+		case ' ', '\t', '\n', '\v', '\f', '\r':
+			return false
+		}
+	}
+	for i := 0; i < len(s); i++ {
+		switch s[i] {
+		case '\n', '\r', '"', ',':
+			return false
+		}
+	}
+	return true
+}
+
+// finiteShare is export's check of a share (same wording).
+func finiteShare(v float64) error {
+	if math.IsNaN(v) || math.IsInf(v, 0) || v < 0 || v > 1+1e-9 {
+		return fmt.Errorf("share %v is not between 0 and 1", v)
 	}
 	return nil
 }
 
-func (c *chunkWriter[R]) write() error {
-	if c.header == nil {
-		var hb bytes.Buffer
-		if err := c.fn(&hb, nil); err != nil {
-			return err
+// top3 returns the indices of the three largest values, ties to the lower index (export's
+// rule), and how many there are.
+func top3(theta []float64) ([3]int, int) {
+	var best [3]int
+	n := 0
+	for i, v := range theta {
+		pos := n
+		for pos > 0 && v > theta[best[pos-1]] {
+			pos--
 		}
-		c.header = hb.Bytes()
-	}
-	c.buf.Reset()
-	if err := c.fn(&c.buf, c.rows); err != nil {
-		var re *export.RowError
-		if errors.As(err, &re) {
-			re.Row += c.done // the row's number in the whole file, not in the chunk
+		if pos < 3 {
+			if n < 3 {
+				n++
+			}
+			copy(best[pos+1:n], best[pos:n-1])
+			best[pos] = i
 		}
-		return err
 	}
-	c.done += len(c.rows)
-	b := c.buf.Bytes()
-	if !bytes.HasPrefix(b, c.header) {
-		return errors.New("undercurrent: CSV writer did not start with its header")
-	}
-	if c.started {
-		b = b[len(c.header):]
-	}
-	c.started = true
-	c.rows = c.rows[:0]
-	_, err := c.w.Write(b)
-	return err
-}
-
-// flush writes the rows held (and the header if nothing was written yet).
-func (c *chunkWriter[R]) flush() error {
-	if len(c.rows) == 0 && c.started {
-		return nil
-	}
-	return c.write()
+	return best, n
 }

@@ -3,21 +3,28 @@ package main
 import (
 	"bytes"
 	"context"
+	"crypto/sha256"
 	"encoding/csv"
+	"encoding/hex"
 	"encoding/json"
+	"errors"
 	"fmt"
 	"io"
+	"math"
 	"os"
 	"path/filepath"
 	"runtime"
 	"strconv"
 	"strings"
 	"sync"
+	"sync/atomic"
 	"testing"
+	"time"
 
 	"undercurrent/report/export"
 	"undercurrent/text/demotown"
 	"undercurrent/text/intake"
+	"undercurrent/text/redact"
 	"undercurrent/topics"
 )
 
@@ -490,31 +497,76 @@ func TestFitDeterministic(t *testing.T) {
 
 // Streaming through export.WriteWide in chunks gives the bytes of one WriteWide call over
 // all rows: the header once, rows in order; no rows gives the header alone.
-func TestChunkWriter(t *testing.T) {
-	labels := []string{"a", "b", "c"}
-	for _, n := range []int{0, 1, chunkRows, chunkRows + 1, 3*chunkRows + 7} {
-		rows := make([]export.WideRow, n)
-		for i := range rows {
-			rows[i] = export.WideRow{ID: fmt.Sprintf("r%d", i), Groups: []string{"g"}, Theta: []float64{0.2, 0.5, 0.3}}
-		}
-		var want, got bytes.Buffer
-		if err := export.WriteWide(&want, []string{"district"}, labels, rows); err != nil {
+// TestTagCSVMatchesExport: the tag command's row-by-row CSV writer gives the bytes of
+// export.WriteWide and export.WriteLong (the reference: the report's own exports) for
+// cells that need defusing or quoting by encoding/csv's rules, dates outside 1–9999, ties,
+// merged themes (zero shares) and more rows than one buffer holds.
+func TestTagCSVMatchesExport(t *testing.T) {
+	labels := []string{"a", "=b", "c,d", `say "e"`}
+	cells := []string{"", "r1", "=1+2", "+x", "-3", "@me", "\tx", "\rx", " lead", "\u00a0nbsp", "é", `\.`,
+		"a,b", `q"q`, "line\nbreak", "cr\rcr", "'", "plain words", "\u2003em"}
+	dates := []time.Time{time.Date(2026, 3, 4, 0, 0, 0, 0, time.UTC), time.Date(-5, 1, 2, 0, 0, 0, 0, time.UTC),
+		time.Date(12345, 1, 2, 0, 0, 0, 0, time.UTC), {}}
+	thetas := [][]float64{{0.25, 0.25, 0.25, 0.25}, {0, 0, 1, 0}, {0.1, 0.6, 0, 0.3}, {0.00004, 0.99996, 0, 0}, {0.5, 0, 0.5, 0}}
+	for _, n := range []int{0, 1, 7, 3000} {
+		var wide []export.WideRow
+		var long []export.LongRow
+		var gotW, gotL bytes.Buffer
+		ww, err := newWideCSV(&gotW, []string{"district", "=grp"}, labels)
+		if err != nil {
 			t.Fatal(err)
 		}
-		cw := newChunkWriter(&got, func(w io.Writer, rs []export.WideRow) error {
-			return export.WriteWide(w, []string{"district"}, labels, rs)
-		})
-		for _, r := range rows {
-			if err := cw.add(r); err != nil {
+		lw, err := newLongCSV(&gotL)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for i := range n {
+			id := cells[i%len(cells)]
+			g := []string{cells[(i/3)%len(cells)], cells[(i*7)%len(cells)]}
+			th := thetas[i%len(thetas)]
+			d := dates[(i/5)%len(dates)]
+			has := !d.IsZero()
+			row := export.WideRow{ID: id, Groups: g, Theta: th}
+			if has {
+				row.Date = d.Format("2006-01-02")
+			}
+			wide = append(wide, row)
+			long = export.LongRows(long, id, th, 0.01)
+			if err := ww.wide(id, d, has, g, th); err != nil {
+				t.Fatal(err)
+			}
+			if err := lw.long(id, th, 0.01); err != nil {
 				t.Fatal(err)
 			}
 		}
-		if err := cw.flush(); err != nil {
+		if err := ww.flush(); err != nil {
 			t.Fatal(err)
 		}
-		if got.String() != want.String() {
-			t.Errorf("%d rows: chunked output differs", n)
+		if err := lw.flush(); err != nil {
+			t.Fatal(err)
 		}
+		var wantW, wantL bytes.Buffer
+		if err := export.WriteWide(&wantW, []string{"district", "=grp"}, labels, wide); err != nil {
+			t.Fatal(err)
+		}
+		if err := export.WriteLong(&wantL, long); err != nil {
+			t.Fatal(err)
+		}
+		if gotW.String() != wantW.String() {
+			t.Errorf("%d rows: wide CSV differs from export.WriteWide:\n%.600s\nwant\n%.600s", n, gotW.String(), wantW.String())
+		}
+		if gotL.String() != wantL.String() {
+			t.Errorf("%d rows: long CSV differs from export.WriteLong", n)
+		}
+	}
+	// A share that is not a proportion is a row error naming the row, as export's.
+	var b bytes.Buffer
+	ww, _ := newWideCSV(&b, nil, labels)
+	ww.wide("ok", time.Time{}, false, nil, thetas[0])
+	err := ww.wide("bad", time.Time{}, false, nil, []float64{math.NaN(), 0, 0, 1})
+	var re *export.RowError
+	if !errors.As(err, &re) || re.Row != 1 || re.ID != "bad" {
+		t.Errorf("NaN share: %v", err)
 	}
 }
 
@@ -550,5 +602,115 @@ func TestTagStdinAndAccounting(t *testing.T) {
 	}
 	if !strings.Contains(errs, set.Summary()+"\n") {
 		t.Errorf("tag's stderr lacks %q:\n%s", set.Summary(), errs)
+	}
+}
+
+// TestTagPinned pins the tag command's output (wide and long CSV) on the test corpus: the
+// SHA-256 values below were computed with the code before the tagging path was sped up
+// (commit 1469ef9). The output depends on the fitted model too, so the model file's hash
+// is pinned beside them; when fitting changes (another engineer's work), the test says so
+// and skips instead of blaming the tagger — re-pin from the code before a tagging change.
+func TestTagPinned(t *testing.T) {
+	csvPath, model := fitted(t)
+	mb, err := os.ReadFile(model)
+	if err != nil {
+		t.Fatal(err)
+	}
+	long := filepath.Join(t.TempDir(), "long.csv")
+	wide, _ := tagFile(t, model, csvPath, "-group", "district", "-long", long)
+	lb, err := os.ReadFile(long)
+	if err != nil {
+		t.Fatal(err)
+	}
+	sum := func(b []byte) string { s := sha256.Sum256(b); return hex.EncodeToString(s[:]) }
+	gotModel, gotWide, gotLong := sum(mb), sum([]byte(wide)), sum(lb)
+	if gotModel != pinTagModel {
+		t.Skipf("model file hash %s, pinned %s: fitting changed, so the pinned tag output no longer applies (wide %s, long %s)", gotModel, pinTagModel, gotWide, gotLong)
+	}
+	if gotWide != pinTagWide || gotLong != pinTagLong {
+		t.Errorf("tag output changed: wide %s (pinned %s), long %s (pinned %s)", gotWide, pinTagWide, gotLong, pinTagLong)
+	}
+}
+
+const (
+	pinTagModel = "f067c9e9c609827e8430c5b2eb7b652e49c1d16948533a77a9ae575118deb92f"
+	pinTagWide  = "2ce07587a241dde5b8df66e36e130ba4eeb18a12e8985a3729ad015b90050757"
+	pinTagLong  = "54b9070584b16e8b9beb891d8a5dc70e8bb625a1f6feb3b71419679f57306fb1"
+)
+
+// TestTagRecordsFlatAndStops: tagRecords reads at most its recycled batches ahead of the
+// narrative being emitted (memory does not grow with the rows), and stops cleanly on an
+// emit error or a cancelled context, whatever is in flight.
+func TestTagRecordsFlatAndStops(t *testing.T) {
+	_, model := fitted(t)
+	m, _, err := loadModel(model)
+	if err != nil {
+		t.Fatal(err)
+	}
+	pipes, err := framePipelines(m, 2)
+	if err != nil {
+		t.Fatal(err)
+	}
+	red, err := redact.New(redact.Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	c := demotown.Generate(demotown.Config{Seed: 3, N: 200})
+	source := func(n int, read *atomic.Int64) func() (intake.Record, error) {
+		i := 0
+		return func() (intake.Record, error) {
+			if i == n {
+				return intake.Record{}, io.EOF
+			}
+			in := c.Incidents[i%len(c.Incidents)]
+			i++
+			read.Add(1)
+			return intake.Record{ID: fmt.Sprint(i), Text: in.Narrative}, nil
+		}
+	}
+	tg := topics.NewTagger(m, topics.InferSettings{Iterations: 5, Workers: 2})
+	var read atomic.Int64
+	emitted, ahead := int64(0), int64(0)
+	st, err := tagRecords(context.Background(), source(3000, &read), red, pipes, tg, func(*intake.Record, []float64) error {
+		emitted++
+		ahead = max(ahead, read.Load()-emitted)
+		return nil
+	})
+	if err != nil || st.n != 3000 || emitted != 3000 {
+		t.Fatalf("err %v, %d tagged, %d emitted", err, st.n, emitted)
+	}
+	if limit := int64((2*len(pipes) + 1) * tagBatch); ahead > limit {
+		t.Errorf("%d narratives read ahead of emit, want ≤ %d", ahead, limit)
+	}
+	stop := errors.New("stop")
+	ctx, cancel := context.WithCancel(context.Background())
+	defer cancel()
+	for _, tc := range []struct {
+		name string
+		fn   func(n int) error
+		want error
+	}{
+		{"emit error", func(n int) error {
+			if n == 100 {
+				return stop
+			}
+			return nil
+		}, stop},
+		{"cancelled", func(n int) error {
+			if n == 100 {
+				cancel()
+			}
+			return nil
+		}, context.Canceled},
+	} {
+		n := 0
+		var r atomic.Int64
+		_, err := tagRecords(ctx, source(3000, &r), red, pipes, tg, func(*intake.Record, []float64) error {
+			n++
+			return tc.fn(n)
+		})
+		if !errors.Is(err, tc.want) || n != 100 {
+			t.Errorf("%s: err %v after %d rows", tc.name, err, n)
+		}
 	}
 }
