@@ -61,7 +61,8 @@ Output: one row per kept narrative in the wide form of narratives-wide.csv (id, 
 -group columns, the strongest theme with its label and share, the next two themes) to -out
 or standard output; with -long also one row per narrative and theme with a share of at least
 -min-share. A labels file (-labels, as for 'undercurrent report') merges and labels themes
-before the rows are written. Ids are written as they are in the input; narrative text is
+before the rows are written; "hide" lines only hide a theme in the report, so a hidden
+theme's shares are still tagged here. Ids are written as they are in the input; narrative text is
 never written.
 
 Themes summarise what narrative writers wrote; they are not findings of fact. Ids, dates
