@@ -209,10 +209,19 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 			} else {
 				ch.intern.reset()
 			}
-			ch.surfs, ch.stream, ch.off, ch.tokens = ch.surfs[:0], ch.stream[:0], append(ch.off[:0], 0), 0
 			sc := &scanners[worker]
 			lo := (w0 + k) * chunkDocs
 			hi := min(lo+chunkDocs, len(docs))
+			// Sized once from the chunk's bytes (about one token per 5 bytes, one new
+			// surface per 60), so that the appends below seldom grow.
+			cb := 0
+			for _, raw := range docs[lo:hi] {
+				cb += len(raw)
+			}
+			ch.surfs = slices.Grow(ch.surfs[:0], cb/60+64)
+			ch.stream = slices.Grow(ch.stream[:0], cb/4+64)
+			ch.off = append(slices.Grow(ch.off[:0], hi-lo+1), 0)
+			ch.tokens = 0
 			for _, raw := range docs[lo:hi] {
 				start := len(ch.stream)
 				sc.scan(raw, s.Tokens.KeepPossessive)
@@ -486,19 +495,42 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 			}
 		}
 	}
+	// lexCache[id] holds the entries of surface id (one backing array for all); info[id] packs
+	// what the pass-2 loop reads per token (repair target, join flags, the stem ids' place in
+	// lexStems), so that a token costs one cache line there instead of several.
+	type p2info struct {
+		repair, lo, hi int32
+		jp, js         bool
+	}
+	nLex := 0
+	for _, words := range lexWords {
+		nLex += len(words)
+	}
 	lexCache := make([][]lexEntry, len(surfs))
+	lexBack := make([]lexEntry, 0, nLex)
+	lexStems := make([]int32, 0, nLex)
+	info := make([]p2info, len(surfs))
 	for id, words := range lexWords {
-		if len(words) == 0 {
-			continue
+		inf := &info[id]
+		inf.repair, inf.lo = -1, int32(len(lexStems))
+		if id < nScanned {
+			inf.repair = repairTo[id]
+			if joinOn {
+				inf.jp, inf.js = joinPrefix[id], joinSuffix[id]
+			}
 		}
-		le := make([]lexEntry, len(words))
-		for k, w := range words {
-			le[k] = lexEntry{internStem(w.stem, w.protected), w.word, w.protected}
+		if len(words) > 0 {
+			lo := len(lexBack)
+			for _, w := range words {
+				st := internStem(w.stem, w.protected)
+				lexBack = append(lexBack, lexEntry{st, w.word, w.protected})
+				lexStems = append(lexStems, st)
+			}
+			lexCache[id] = lexBack[lo:len(lexBack):len(lexBack)]
 		}
-		lexCache[id] = le
+		inf.hi = int32(len(lexStems))
 	}
 	lexWords = nil
-	lexOf := func(id int32) []lexEntry { return lexCache[id] }
 	// Pass 2 over blocks of narratives in parallel, each block writing its own stem stream and
 	// each worker its own counters; blocks are then joined in order and counters summed.
 	type p2worker struct {
@@ -538,28 +570,32 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 					}
 					continue
 				}
+				inf := &info[id]
 				joined := false
-				if joinOn && i+1 < len(ss) && ss[i+1] >= 0 {
+				if inf.jp && i+1 < len(ss) && ss[i+1] >= 0 && info[ss[i+1]].js {
 					if j := joinable(id, ss[i+1], st.joinCache, &st.buf); j >= 0 {
 						st.joinCount[[2]int32{id, ss[i+1]}]++
 						id, joined = j, true
+						inf = &info[id]
 						i++
 					}
 				}
-				if !joined && int(id) < nScanned && repairTo[id] >= 0 {
+				if !joined && inf.repair >= 0 {
 					st.repairCount[id]++
-					id = repairTo[id]
+					id = inf.repair
+					inf = &info[id]
 				}
 				st.occ[id]++
-				le := lexOf(id)
-				if len(le) == 0 {
+				if inf.lo == inf.hi {
 					if len(out) > start && out[len(out)-1] != -1 {
 						out = append(out, -1)
 					}
 					continue
 				}
-				for _, e := range le {
-					out = append(out, e.stem)
+				if inf.hi == inf.lo+1 {
+					out = append(out, lexStems[inf.lo])
+				} else {
+					out = append(out, lexStems[inf.lo:inf.hi]...)
 				}
 			}
 			if len(out) > start && out[len(out)-1] == -1 {

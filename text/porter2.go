@@ -52,6 +52,44 @@ func (w *p2word) firstSuffix(list ...string) string {
 	return ""
 }
 
+// suffixTable is a suffix list split by last byte, each part in the list's order: the first
+// suffix of the list that ends the word is the first of its part that does.
+type suffixTable [256][]string
+
+func newSuffixTable(list ...string) (t suffixTable) {
+	for _, s := range list {
+		t[s[len(s)-1]] = append(t[s[len(s)-1]], s)
+	}
+	return
+}
+
+var (
+	p2Step1a = newSuffixTable("sses", "ied", "ies", "us", "ss", "s")
+	p2Step1b = newSuffixTable("eedly", "ingly", "edly", "ing", "eed", "ed")
+	p2Step2  = newSuffixTable("ational", "fulness", "iveness", "ization", "ousness",
+		"biliti", "lessli", "tional", "alism", "aliti", "ation",
+		"entli", "fulli", "iviti", "ousli", "anci", "abli",
+		"alli", "ator", "enci", "izer", "bli", "ogi", "li")
+	p2Step3 = newSuffixTable("ational", "tional", "alize", "icate", "ative",
+		"iciti", "ical", "ful", "ness")
+	p2Step4 = newSuffixTable("ement", "ance", "ence", "able", "ible", "ment",
+		"ent", "ant", "ism", "ate", "iti", "ous", "ive",
+		"ize", "ion", "al", "er", "ic")
+)
+
+// firstSuffixIn is firstSuffix over a split list.
+func (w *p2word) firstSuffixIn(t *suffixTable) string {
+	if w.n == 0 {
+		return ""
+	}
+	for _, s := range t[w.b[w.n-1]] {
+		if w.hasSuffix(s) {
+			return s
+		}
+	}
+	return ""
+}
+
 // clamp is the library's resetR1R2: region starts never pass the end of the word.
 func (w *p2word) clamp() {
 	w.r1, w.r2 = min(w.r1, w.n), min(w.r2, w.n)
@@ -132,7 +170,7 @@ func stemASCII(word string) (string, bool) {
 		w.cut(len(s))
 	}
 	// Step 1a.
-	switch s := w.firstSuffix("sses", "ied", "ies", "us", "ss", "s"); s {
+	switch s := w.firstSuffixIn(&p2Step1a); s {
 	case "sses":
 		w.replace(s, "ss")
 	case "ies", "ied":
@@ -150,7 +188,7 @@ func stemASCII(word string) (string, bool) {
 		}
 	}
 	// Step 1b.
-	switch s := w.firstSuffix("eedly", "ingly", "edly", "ing", "eed", "ed"); s {
+	switch s := w.firstSuffixIn(&p2Step1b); s {
 	case "eed", "eedly":
 		if len(s) <= w.n-w.r1 {
 			w.replace(s, "ee")
@@ -189,10 +227,7 @@ step1c:
 		w.b[w.n-1] = 'i'
 	}
 	// Step 2.
-	if s := w.firstSuffix("ational", "fulness", "iveness", "ization", "ousness",
-		"biliti", "lessli", "tional", "alism", "aliti", "ation",
-		"entli", "fulli", "iviti", "ousli", "anci", "abli",
-		"alli", "ator", "enci", "izer", "bli", "ogi", "li"); s != "" && len(s) <= w.n-w.r1 {
+	if s := w.firstSuffixIn(&p2Step2); s != "" && len(s) <= w.n-w.r1 {
 		switch s {
 		case "li":
 			if w.n >= 3 {
@@ -210,8 +245,7 @@ step1c:
 		}
 	}
 	// Step 3.
-	if s := w.firstSuffix("ational", "tional", "alize", "icate", "ative",
-		"iciti", "ical", "ful", "ness"); s != "" && len(s) <= w.n-w.r1 {
+	if s := w.firstSuffixIn(&p2Step3); s != "" && len(s) <= w.n-w.r1 {
 		switch s {
 		case "ative":
 			if w.n-w.r2 >= 5 {
@@ -230,9 +264,7 @@ step1c:
 		}
 	}
 	// Step 4.
-	if s := w.firstSuffix("ement", "ance", "ence", "able", "ible", "ment",
-		"ent", "ant", "ism", "ate", "iti", "ous", "ive",
-		"ize", "ion", "al", "er", "ic"); s != "" && len(s) <= w.n-w.r2 {
+	if s := w.firstSuffixIn(&p2Step4); s != "" && len(s) <= w.n-w.r2 {
 		if s != "ion" {
 			w.cut(len(s))
 		} else if w.n >= 4 && (w.b[w.n-4] == 's' || w.b[w.n-4] == 't') {
