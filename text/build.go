@@ -222,23 +222,15 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 			ch.stream = slices.Grow(ch.stream[:0], cb/4+64)
 			ch.off = append(slices.Grow(ch.off[:0], hi-lo+1), 0)
 			ch.tokens = 0
+			// The scanner interns as it scans (fused mode), into the chunk's tables.
+			sc.in, sc.surfs, sc.ids = ch.intern, ch.surfs, ch.stream
 			for _, raw := range docs[lo:hi] {
-				start := len(ch.stream)
 				sc.scan(raw, s.Tokens.KeepPossessive)
-				for _, t := range sc.toks {
-					if t.brk && len(ch.stream) > start && ch.stream[len(ch.stream)-1] != -1 {
-						ch.stream = append(ch.stream, -1)
-					}
-					id := ch.intern.id(sc.text[t.a:t.b])
-					if int(id) == len(ch.surfs) {
-						ch.surfs = append(ch.surfs, surface{ch.intern.strs[id], t.kind, 0})
-					}
-					ch.surfs[id].count++
-					ch.stream = append(ch.stream, id)
-				}
-				ch.tokens += len(sc.toks)
-				ch.off = append(ch.off, len(ch.stream))
+				ch.tokens += sc.ntok
+				ch.off = append(ch.off, len(sc.ids))
 			}
+			ch.surfs, ch.stream = sc.surfs, sc.ids
+			sc.in, sc.surfs, sc.ids = nil, nil, nil
 		})
 		// Surface ids in chunk order (serial: first occurrence numbers them), then the
 		// chunks' streams remapped and copied in parallel to their places.
