@@ -1,6 +1,7 @@
 package text
 
 import (
+	"encoding/binary"
 	"hash/maphash"
 	"math/bits"
 )
@@ -16,9 +17,9 @@ type internTable struct {
 }
 
 type islot struct {
-	h     uint64
-	id    int32 // id+1; 0 marks an empty slot
-	short bool  // h holds the text's bytes (at most 7) and length, not a hash
+	lo, hi uint64
+	id     int32 // id+1; 0 marks an empty slot
+	short  bool  // lo, hi hold the text's bytes (at most 15) and length, not a hash
 }
 
 func newInternTable(sizeHint int) *internTable {
@@ -32,34 +33,40 @@ func (t *internTable) reset() {
 	t.strs = t.strs[:0]
 }
 
-// id returns the id of b, adding a copy of it when new. Texts of at most 7 bytes (most
-// words) are keyed by their bytes packed into a uint64 with the length in the top byte, so
-// that a lookup compares one integer and reads no string; longer texts are keyed by maphash
-// and compared in full. The short flag keeps the two kinds of key apart.
+// id returns the id of b, adding a copy of it when new. Texts of at most 15 bytes (nearly
+// all words) are keyed by their bytes packed into two uint64s, the length in the top byte of
+// the second, so that a lookup compares two integers and reads no string; longer texts are
+// keyed by maphash and compared in full. The short flag keeps the two kinds of key apart.
 func (t *internTable) id(b []byte) int32 {
-	var h uint64
-	short := len(b) <= 7
-	if short {
-		h = uint64(len(b)) << 56
+	var lo, hi uint64
+	short := len(b) <= 15
+	switch {
+	case len(b) <= 7:
+		hi = uint64(len(b)) << 56
 		for k, c := range b {
-			h |= uint64(c) << (8 * k)
+			lo |= uint64(c) << (8 * k)
 		}
-	} else {
-		h = maphash.Bytes(t.seed, b)
+	case short:
+		// b[8:] are the high bytes of the last 8; shifting by 64 (len 8) gives 0.
+		lo = binary.LittleEndian.Uint64(b)
+		hi = binary.LittleEndian.Uint64(b[len(b)-8:])>>(8*(16-len(b))) | uint64(len(b))<<56
+	default:
+		lo = maphash.Bytes(t.seed, b)
 	}
+	h := lo ^ mix64(hi)
 	mask := uint64(len(t.slots) - 1)
 	for i := mix64(h) & mask; ; i = (i + 1) & mask {
 		s := &t.slots[i]
 		if s.id == 0 {
 			id := int32(len(t.strs))
 			t.strs = append(t.strs, string(b))
-			s.h, s.id, s.short = h, id+1, short
+			s.lo, s.hi, s.id, s.short = lo, hi, id+1, short
 			if 2*len(t.strs) > len(t.slots) {
 				t.grow()
 			}
 			return id
 		}
-		if s.h == h && s.short == short && (short || t.strs[s.id-1] == string(b)) {
+		if s.lo == lo && s.hi == hi && s.short == short && (short || t.strs[s.id-1] == string(b)) {
 			return s.id - 1
 		}
 	}
@@ -73,7 +80,7 @@ func (t *internTable) grow() {
 		if s.id == 0 {
 			continue
 		}
-		i := mix64(s.h) & mask
+		i := mix64(s.lo^mix64(s.hi)) & mask
 		for t.slots[i].id != 0 {
 			i = (i + 1) & mask
 		}
