@@ -269,10 +269,11 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 	}
 	chunks = nil
 
-	// Stems of every scanned word, in parallel, seeded into the lexer's cache.
+	// Stems of every scanned word, in parallel: stems[id] for the surfaces of kind Word (the
+	// repair step and the lexers read them by id; the lexer's cache keeps only other words).
+	var stems []string
 	if !s.Stem.Off {
-		lx.stems = newStemCache(len(surfs))
-		stems := make([]string, len(surfs))
+		stems = make([]string, len(surfs))
 		const per = 512
 		parallelFor((len(surfs)+per-1)/per, func(_, k int) {
 			for id := k * per; id < min((k+1)*per, len(surfs)); id++ {
@@ -281,11 +282,6 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 				}
 			}
 		})
-		for id, st := range stems {
-			if surfs[id].kind == Word {
-				lx.stems.own[surfs[id].text] = st
-			}
-		}
 	}
 	addSurface := func(w string) int32 {
 		if id, ok := intern[w]; ok {
@@ -361,7 +357,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		if !s.Stem.Off {
 			for id := 0; id < nScanned; id++ {
 				if sf := surfs[id]; sf.kind == Word && lettersOnly(sf.text, true) {
-					st := lx.stems.stem(sf.text)
+					st := stems[id]
 					family[st] = append(family[st], id)
 				}
 			}
@@ -380,7 +376,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 			if !rs.Families && !s.Stem.Off {
 				real := false
 				tstem := candTarget[int(id)]
-				for _, sib := range family[lx.stems.stem(surfs[id].text)] {
+				for _, sib := range family[stems[id]] {
 					if sib != int(id) && candTarget[sib] != tstem {
 						real = true
 						break
@@ -395,7 +391,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 					continue // not rare enough beside its target
 				}
 			}
-			if !s.Stem.Off && lx.stems.stem(tgt) == lx.stems.stem(surfs[id].text) {
+			if !s.Stem.Off && lx.stems.stem(tgt) == stems[id] {
 				continue // an inflection of the target: stemming already merges them
 			}
 			repairTo[id] = addSurface(tgt)
@@ -473,12 +469,25 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		}
 		const per = 512
 		parallelFor((len(surfs)+per-1)/per, func(w, k int) {
-			for id := k * per; id < min((k+1)*per, len(surfs)); id++ {
-				words, exp := forks[w].lex(surfs[id].text, surfs[id].kind)
-				if len(words) > 0 {
-					lexWords[id] = append([]lexWord(nil), words...)
+			var flat []lexWord // one array per block of surfaces
+			hi := min((k+1)*per, len(surfs))
+			ends := make([]int, 0, per)
+			for id := k * per; id < hi; id++ {
+				hint := ""
+				if id < len(stems) && surfs[id].kind == Word {
+					hint = stems[id]
 				}
+				words, exp := forks[w].lexHint(surfs[id].text, surfs[id].kind, hint)
+				flat = append(flat, words...)
+				ends = append(ends, len(flat))
 				lexExp[id] = exp
+			}
+			lo := 0
+			for k2, e := range ends {
+				if e > lo {
+					lexWords[k*per+k2] = flat[lo:e:e]
+				}
+				lo = e
 			}
 		})
 		for _, f := range forks {
