@@ -179,7 +179,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 	for _, raw := range docs {
 		nbytes += len(raw)
 	}
-	intern := make(map[string]int32, min(nbytes/100, 1<<20)+64)
+	intern := newInternTable(min(nbytes/100, 1<<20) + 64) // all surfaces, ids in surfs order
 	var surfs []surface
 	c.Bytes = nbytes
 	stream := make([]int32, 0, nbytes/5+16)
@@ -239,10 +239,8 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 			ch := &chunks[k]
 			ch.remap = ch.remap[:0]
 			for _, sf := range ch.surfs {
-				id, ok := intern[sf.text]
-				if !ok {
-					id = int32(len(surfs))
-					intern[sf.text] = id
+				id := intern.idString(sf.text)
+				if int(id) == len(surfs) {
 					surfs = append(surfs, surface{sf.text, sf.kind, 0})
 				}
 				surfs[id].count += sf.count
@@ -284,12 +282,10 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		})
 	}
 	addSurface := func(w string) int32 {
-		if id, ok := intern[w]; ok {
-			return id
+		id := intern.idString(w)
+		if int(id) == len(surfs) {
+			surfs = append(surfs, surface{w, Word, 0})
 		}
-		id := int32(len(surfs))
-		intern[w] = id
-		surfs = append(surfs, surface{w, Word, 0})
 		return id
 	}
 
@@ -387,7 +383,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 				}
 			}
 			if n := surfs[id].count; n > rmax {
-				if tid, ok := intern[tgt]; !ok || float64(surfs[tid].count) < ratio*float64(n) {
+				if tid := intern.findString(tgt); tid < 0 || float64(surfs[tid].count) < ratio*float64(n) {
 					continue // not rare enough beside its target
 				}
 			}
@@ -410,10 +406,10 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 				continue
 			}
 			for k := 1; k < len(sf.text); k++ {
-				if pid, ok := intern[sf.text[:k]]; ok && int(pid) < nScanned {
+				if pid := intern.findString(sf.text[:k]); pid >= 0 && int(pid) < nScanned {
 					joinPrefix[pid] = true
 				}
-				if sid, ok := intern[sf.text[k:]]; ok && int(sid) < nScanned {
+				if sid := intern.findString(sf.text[k:]); sid >= 0 && int(sid) < nScanned {
 					joinSuffix[sid] = true
 				}
 			}
@@ -436,7 +432,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		j := int32(-1)
 		if lettersOnly(sa.text, false) && lettersOnly(sb.text, false) {
 			*buf = append(append((*buf)[:0], sa.text...), sb.text...)
-			if id, ok := intern[string(*buf)]; ok && int(id) < nScanned && surfs[id].count >= fmin && surfs[id].kind == Word {
+			if id := intern.find(*buf); id >= 0 && int(id) < nScanned && surfs[id].count >= fmin && surfs[id].kind == Word {
 				j = id
 			}
 		}

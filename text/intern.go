@@ -4,12 +4,14 @@ import (
 	"encoding/binary"
 	"hash/maphash"
 	"math/bits"
+	"unsafe"
 )
 
 // internTable maps token texts to dense ids, first come first numbered. It is an
 // open-addressing hash table (linear probing, power-of-two size, load at most 1/2) keyed by
-// maphash of the bytes; a lookup of a known text allocates nothing. It exists because the
-// scan loop looks up every token, and this is about twice as fast as a map[string]int32 there.
+// the packed bytes of texts up to 15 bytes and by maphash of longer ones; a lookup of a known
+// text allocates nothing. It exists because the scan loop looks up every token, and this is
+// about twice as fast as a map[string]int32 there; Build also keeps all its surfaces in one.
 type internTable struct {
 	seed  maphash.Seed
 	slots []islot
@@ -33,13 +35,58 @@ func (t *internTable) reset() {
 	t.strs = t.strs[:0]
 }
 
-// id returns the id of b, adding a copy of it when new. Texts of at most 15 bytes (nearly
-// all words) are keyed by their bytes packed into two uint64s, the length in the top byte of
-// the second, so that a lookup compares two integers and reads no string; longer texts are
-// keyed by maphash and compared in full. The short flag keeps the two kinds of key apart.
-func (t *internTable) id(b []byte) int32 {
-	var lo, hi uint64
-	short := len(b) <= 15
+// find returns the id of b, or -1 when b is not in the table. It only reads the table, so
+// several goroutines may call it at once while nobody adds.
+func (t *internTable) find(b []byte) int32 {
+	if s := t.slot(b); s.id != 0 {
+		return s.id - 1
+	}
+	return -1
+}
+
+// findString is find for a string.
+func (t *internTable) findString(w string) int32 {
+	return t.find(unsafe.Slice(unsafe.StringData(w), len(w)))
+}
+
+// idString returns the id of w, adding w itself (not a copy) when new.
+func (t *internTable) idString(w string) int32 {
+	b := unsafe.Slice(unsafe.StringData(w), len(w)) // read only
+	s := t.slot(b)
+	if s.id != 0 {
+		return s.id - 1
+	}
+	return t.add(s, b, w)
+}
+
+// slot returns b's slot: the one holding b, or the empty slot where b would go.
+func (t *internTable) slot(b []byte) *islot {
+	lo, hi, short := t.key(b)
+	mask := uint64(len(t.slots) - 1)
+	for i := mix64(lo^mix64(hi)) & mask; ; i = (i + 1) & mask {
+		s := &t.slots[i]
+		if s.id == 0 || (s.lo == lo && s.hi == hi && s.short == short && (short || t.strs[s.id-1] == string(b))) {
+			return s
+		}
+	}
+}
+
+// add puts b (whose text is w) into the empty slot s and returns its new id.
+func (t *internTable) add(s *islot, b []byte, w string) int32 {
+	id := int32(len(t.strs))
+	t.strs = append(t.strs, w)
+	s.lo, s.hi, s.short = t.key(b)
+	s.id = id + 1
+	if 2*len(t.strs) > len(t.slots) {
+		t.grow()
+	}
+	return id
+}
+
+// key packs texts of at most 15 bytes, the length in the top byte of hi; longer texts get
+// maphash in lo.
+func (t *internTable) key(b []byte) (lo, hi uint64, short bool) {
+	short = len(b) <= 15
 	switch {
 	case len(b) <= 7:
 		hi = uint64(len(b)) << 56
@@ -53,23 +100,19 @@ func (t *internTable) id(b []byte) int32 {
 	default:
 		lo = maphash.Bytes(t.seed, b)
 	}
-	h := lo ^ mix64(hi)
-	mask := uint64(len(t.slots) - 1)
-	for i := mix64(h) & mask; ; i = (i + 1) & mask {
-		s := &t.slots[i]
-		if s.id == 0 {
-			id := int32(len(t.strs))
-			t.strs = append(t.strs, string(b))
-			s.lo, s.hi, s.id, s.short = lo, hi, id+1, short
-			if 2*len(t.strs) > len(t.slots) {
-				t.grow()
-			}
-			return id
-		}
-		if s.lo == lo && s.hi == hi && s.short == short && (short || t.strs[s.id-1] == string(b)) {
-			return s.id - 1
-		}
+	return
+}
+
+// id returns the id of b, adding a copy of it when new. Texts of at most 15 bytes (nearly
+// all words) are keyed by their bytes packed into two uint64s, the length in the top byte of
+// the second, so that a lookup compares two integers and reads no string; longer texts are
+// keyed by maphash and compared in full. The short flag keeps the two kinds of key apart.
+func (t *internTable) id(b []byte) int32 {
+	s := t.slot(b)
+	if s.id != 0 {
+		return s.id - 1
 	}
+	return t.add(s, b, string(b))
 }
 
 func (t *internTable) grow() {

@@ -29,6 +29,17 @@ func TestInternTable(t *testing.T) {
 			ref[w] = id
 		}
 	}
+	for w, id := range ref {
+		if tb.findString(w) != id || tb.find([]byte(w)) != id || tb.idString(w) != id {
+			t.Fatalf("%q: find/idString disagree with id %d", w, id)
+		}
+	}
+	if tb.findString("not there") != -1 {
+		t.Fatal("find of a missing text")
+	}
+	if id := tb.idString("new text"); int(id) != len(ref) || tb.strs[id] != "new text" {
+		t.Fatalf("idString of a new text: %d", id)
+	}
 	tb.reset()
 	if tb.id([]byte("x")) != 0 {
 		t.Fatal("reset")
