@@ -323,13 +323,17 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		var cand []int32
 		for id := 0; id < nScanned; id++ {
 			sf := surfs[id]
-			if sf.kind != Word || sf.count >= fmin || (sf.count > rmax && ratio < 0) || user[sf.text] || lx.stop.Has(sf.text) || !lettersOnly(sf.text, true) || (rs.KeepKnown && lexicon.Has(sf.text)) {
+			if sf.kind != Word || sf.count >= fmin || (sf.count > rmax && ratio < 0) {
+				continue
+			}
+			// The cheap tests first (all are pure: the order does not change the result).
+			if n := utf8.RuneCountInString(sf.text); n < minLen || n > maxRepairLen || !lettersOnly(sf.text, true) {
+				continue
+			}
+			if user[sf.text] || lx.stop.Has(sf.text) || (rs.KeepKnown && lexicon.Has(sf.text)) {
 				continue
 			}
 			if _, ok := lx.abbrev.Lookup(sf.text); ok {
-				continue
-			}
-			if n := utf8.RuneCountInString(sf.text); n < minLen || n > maxRepairLen {
 				continue
 			}
 			cand = append(cand, int32(id))
