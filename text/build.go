@@ -942,19 +942,32 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 	// Rows are built in blocks in parallel and stacked in order.
 	const rowsPer = 4096
 	blocks := make([]*sparse.Matrix, (len(docs)+rowsPer-1)/rowsPer)
-	parallelFor(len(blocks), func(_, blk int) {
+	// Each row counts its terms in a dense per-worker array and sorts only its distinct ones.
+	rowCounts := make([][]int32, workers())
+	parallelFor(len(blocks), func(w, blk int) {
 		lo, hi := blk*rowsPer, min((blk+1)*rowsPer, len(docs))
 		b := sparse.NewBuilder(len(keep))
 		b.Grow(hi-lo, (docOff2[hi]-docOff2[lo])/2)
+		if rowCounts[w] == nil {
+			rowCounts[w] = make([]int32, len(keep))
+		}
+		cnt := rowCounts[w]
 		var ids []int32
 		for d := lo; d < hi; d++ {
 			ids = ids[:0]
 			for _, t := range out[docOff2[d]:docOff2[d+1]] {
-				if t >= 0 && newID[t] >= 0 {
-					ids = append(ids, newID[t])
+				if t < 0 {
+					continue
+				}
+				if j := newID[t]; j >= 0 {
+					if cnt[j] == 0 {
+						ids = append(ids, j)
+					}
+					cnt[j]++
 				}
 			}
-			b.AddIDs(ids)
+			slices.Sort(ids)
+			b.AddSortedCounts(ids, cnt)
 		}
 		blocks[blk] = b.Matrix()
 	})
