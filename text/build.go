@@ -643,17 +643,17 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 	p2 = nil
 
 	// Display forms of stems: the most frequent word, ties to the smaller (byte order).
-	type sw struct {
-		stem int32
-		word string
-	}
-	dispCount := make(map[sw]int)
+	// Counted per (stem, word id) in a countTable; the choice below does not depend on the
+	// order the table is read in.
+	dispWords := newInternTable(len(surfs))
+	dispCount := newCountTable(len(stemStr))
 	for id := range surfs {
 		if occ[id] == 0 {
 			continue
 		}
 		for _, e := range lexCache[id] {
-			dispCount[sw{e.stem, e.word}] += occ[id]
+			w := dispWords.idString(e.word)
+			dispCount.add(uint64(uint32(e.stem))<<32|uint64(uint32(w)), occ[id])
 		}
 		if lexExp[id] {
 			e, _ := lx.abbrev.Lookup(surfs[id].text)
@@ -663,11 +663,13 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 	sort.Slice(c.Expansions, func(i, j int) bool { return c.Expansions[i].Abbrev < c.Expansions[j].Abbrev })
 	disp := make([]string, len(stemStr))
 	best := make([]int, len(stemStr))
-	for k, n := range dispCount {
-		if n > best[k.stem] || (n == best[k.stem] && k.word < disp[k.stem]) {
-			best[k.stem], disp[k.stem] = n, k.word
+	dispCount.each(func(k uint64, n int) {
+		st, w := int32(k>>32), dispWords.strs[uint32(k)]
+		if n > best[st] || (n == best[st] && w < disp[st]) {
+			best[st], disp[st] = n, w
 		}
-	}
+	})
+	dispWords, dispCount = nil, nil
 
 	// Phrases.
 	var phrasePairs [][2]string
