@@ -733,7 +733,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		pairCount = nil
 		sel := phrase.Select(pc, left, right, n, s.Phrases.Settings)
 		phraseID := make(map[uint64]int32, len(sel))
-		isLeft := make([]bool, len(stemStr))
+		isLeft, isRight := make([]bool, len(stemStr)), make([]bool, len(stemStr))
 		for _, p := range sel {
 			key := stemStr[p.A] + "_" + stemStr[p.B]
 			id := internStem(key, false)
@@ -743,7 +743,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 			disp[id] = disp[p.A] + "_" + disp[p.B]
 			phraseID[uint64(p.A)<<32|uint64(p.B)] = id
 			phraseParts = append(phraseParts, [3]int32{id, p.A, p.B})
-			isLeft[p.A] = true
+			isLeft[p.A], isRight[p.B] = true, true
 			phrasePairs = append(phrasePairs, [2]string{stemStr[p.A], stemStr[p.B]})
 			c.Phrases = append(c.Phrases, PhraseInfo{key, disp[id], p.Count, p.Score})
 		}
@@ -755,7 +755,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 					a, b := docOff2[d], docOff2[d+1]
 					w := a
 					for k := a; k < b; {
-						if k+1 < b && out[k] >= 0 && out[k+1] >= 0 && isLeft[out[k]] {
+						if k+1 < b && out[k] >= 0 && out[k+1] >= 0 && isLeft[out[k]] && isRight[out[k+1]] {
 							if p, ok := phraseID[uint64(out[k])<<32|uint64(out[k+1])]; ok {
 								out[w] = p
 								w++
