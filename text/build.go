@@ -353,12 +353,21 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		// A word with an inflection of its own in the corpus ("clump" beside "clumped") is
 		// taken for a real word: OCR seldom makes the same wrong word twice in two forms. An
 		// inflection that is itself repaired to the same family does not count.
+		// Families are gathered only for the stems of candidates that found a target.
 		family := make(map[string][]int)
-		if !s.Stem.Off {
+		if !s.Stem.Off && !rs.Families {
+			for k, id := range cand {
+				if found[k] != "" {
+					family[stems[id]] = nil
+				}
+			}
+		}
+		if len(family) > 0 {
 			for id := 0; id < nScanned; id++ {
-				if sf := surfs[id]; sf.kind == Word && lettersOnly(sf.text, true) {
-					st := stems[id]
-					family[st] = append(family[st], id)
+				if sf := surfs[id]; sf.kind == Word {
+					if l, ok := family[stems[id]]; ok && lettersOnly(sf.text, true) {
+						family[stems[id]] = append(l, id)
+					}
 				}
 			}
 		}
