@@ -63,7 +63,7 @@ func (t *internTable) idString(w string) int32 {
 func (t *internTable) slot(b []byte) *islot {
 	lo, hi, short := t.key(b)
 	mask := uint64(len(t.slots) - 1)
-	for i := mix64(lo^mix64(hi)) & mask; ; i = (i + 1) & mask {
+	for i := t.home(lo, hi); ; i = (i + 1) & mask {
 		s := &t.slots[i]
 		if s.id == 0 || (s.lo == lo && s.hi == hi && s.short == short && (short || t.strs[s.id-1] == string(b))) {
 			return s
@@ -83,6 +83,12 @@ func (t *internTable) add(s *islot, b []byte, w string) int32 {
 	return id
 }
 
+// home is a key's first slot: multiplicative hashing (Knuth, TAOCP vol. 3, §6.4), the top
+// bits of the product.
+func (t *internTable) home(lo, hi uint64) uint64 {
+	return ((lo*0x9e3779b97f4a7c15 ^ hi) * 0xbf58476d1ce4e5b9) >> (64 - bits.TrailingZeros(uint(len(t.slots))))
+}
+
 // key packs texts of at most 15 bytes, the length in the top byte of hi; longer texts get
 // maphash in lo.
 func (t *internTable) key(b []byte) (lo, hi uint64, short bool) {
@@ -90,8 +96,13 @@ func (t *internTable) key(b []byte) (lo, hi uint64, short bool) {
 	switch {
 	case len(b) <= 7:
 		hi = uint64(len(b)) << 56
-		for k, c := range b {
-			lo |= uint64(c) << (8 * k)
+		if cap(b) >= 8 {
+			// One load of 8 bytes (those past len(b) are in b's own array) and a mask.
+			lo = binary.LittleEndian.Uint64(b[:8]) & (1<<(8*len(b)) - 1)
+		} else {
+			for k, c := range b {
+				lo |= uint64(c) << (8 * k)
+			}
 		}
 	case short:
 		// b[8:] are the high bytes of the last 8; shifting by 64 (len 8) gives 0.
@@ -123,7 +134,7 @@ func (t *internTable) grow() {
 		if s.id == 0 {
 			continue
 		}
-		i := mix64(s.lo^mix64(s.hi)) & mask
+		i := t.home(s.lo, s.hi)
 		for t.slots[i].id != 0 {
 			i = (i + 1) & mask
 		}
