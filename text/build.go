@@ -204,11 +204,6 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		nw := min(wave, nChunks-w0)
 		parallelFor(nw, func(worker, k int) {
 			ch := &chunks[k]
-			if ch.intern == nil {
-				ch.intern = newInternTable(4096)
-			} else {
-				ch.intern.reset()
-			}
 			sc := &scanners[worker]
 			lo := (w0 + k) * chunkDocs
 			hi := min(lo+chunkDocs, len(docs))
@@ -217,6 +212,11 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 			cb := 0
 			for _, raw := range docs[lo:hi] {
 				cb += len(raw)
+			}
+			if ch.intern == nil {
+				ch.intern = newInternTable(max(4096, cb/60))
+			} else {
+				ch.intern.reset()
 			}
 			ch.surfs = slices.Grow(ch.surfs[:0], cb/60+64)
 			ch.stream = slices.Grow(ch.stream[:0], cb/4+64)
