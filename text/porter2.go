@@ -142,7 +142,7 @@ func stemASCII(word string) (string, bool) {
 	if len(word) <= 2 {
 		return word, true
 	}
-	if s, ok := porter2Special[word]; ok {
+	if s, ok := porter2Special(word); ok {
 		return s, true
 	}
 	var w p2word
@@ -241,7 +241,7 @@ step1c:
 				w.replace(s, "og")
 			}
 		default:
-			w.replace(s, porter2Step2[s])
+			w.replace(s, porter2Step2(s))
 		}
 	}
 	// Step 3.
@@ -297,25 +297,142 @@ step1c:
 	return string(w.b[:w.n]), true
 }
 
-var porter2Step2 = map[string]string{
-	"tional": "tion", "enci": "ence", "anci": "ance", "abli": "able", "entli": "ent",
-	"izer": "ize", "ization": "ize", "ational": "ate", "ation": "ate", "ator": "ate",
-	"alism": "al", "aliti": "al", "alli": "al", "fulness": "ful", "ousli": "ous",
-	"ousness": "ous", "iveness": "ive", "iviti": "ive", "biliti": "ble", "bli": "ble",
-	"fulli": "ful", "lessli": "less",
+// porter2Step2 is step 2's replacement of each suffix (other than li and ogi).
+func porter2Step2(suffix string) string {
+	switch suffix {
+	case "tional":
+		return "tion"
+	case "enci":
+		return "ence"
+	case "anci":
+		return "ance"
+	case "abli":
+		return "able"
+	case "entli":
+		return "ent"
+	case "izer":
+		return "ize"
+	case "ization":
+		return "ize"
+	case "ational":
+		return "ate"
+	case "ation":
+		return "ate"
+	case "ator":
+		return "ate"
+	case "alism":
+		return "al"
+	case "aliti":
+		return "al"
+	case "alli":
+		return "al"
+	case "fulness":
+		return "ful"
+	case "ousli":
+		return "ous"
+	case "ousness":
+		return "ous"
+	case "iveness":
+		return "ive"
+	case "iviti":
+		return "ive"
+	case "biliti":
+		return "ble"
+	case "bli":
+		return "ble"
+	case "fulli":
+		return "ful"
+	case "lessli":
+		return "less"
+	}
+	return ""
 }
 
-// porter2Special are the library's exception words (stemSpecialWord), checked on the whole
-// word before any step.
-var porter2Special = map[string]string{
-	"skis": "ski", "skies": "sky", "dying": "die", "lying": "lie", "tying": "tie",
-	"idly": "idl", "gently": "gentl", "ugly": "ugli", "early": "earli", "only": "onli",
-	"singly": "singl", "sky": "sky", "news": "news", "howe": "howe", "atlas": "atlas",
-	"cosmos": "cosmos", "bias": "bias", "andes": "andes", "inning": "inning",
-	"innings": "inning", "outing": "outing", "outings": "outing", "canning": "canning",
-	"cannings": "canning", "herring": "herring", "herrings": "herring", "earring": "earring",
-	"earrings": "earring", "proceed": "proceed", "proceeds": "proceed", "proceeded": "proceed",
-	"proceeding": "proceed", "exceed": "exceed", "exceeds": "exceed", "exceeded": "exceed",
-	"exceeding": "exceed", "succeed": "succeed", "succeeds": "succeed",
-	"succeeded": "succeed", "succeeding": "succeed",
+// porter2Special returns the library's stem of one of its exception words (stemSpecialWord),
+// checked on the whole word before any step; ok is false for other words. A switch on
+// constant strings compiles to comparisons by length and bytes, with no hashing.
+func porter2Special(w string) (string, bool) {
+	switch w {
+	case "skis":
+		return "ski", true
+	case "skies":
+		return "sky", true
+	case "dying":
+		return "die", true
+	case "lying":
+		return "lie", true
+	case "tying":
+		return "tie", true
+	case "idly":
+		return "idl", true
+	case "gently":
+		return "gentl", true
+	case "ugly":
+		return "ugli", true
+	case "early":
+		return "earli", true
+	case "only":
+		return "onli", true
+	case "singly":
+		return "singl", true
+	case "sky":
+		return "sky", true
+	case "news":
+		return "news", true
+	case "howe":
+		return "howe", true
+	case "atlas":
+		return "atlas", true
+	case "cosmos":
+		return "cosmos", true
+	case "bias":
+		return "bias", true
+	case "andes":
+		return "andes", true
+	case "inning":
+		return "inning", true
+	case "innings":
+		return "inning", true
+	case "outing":
+		return "outing", true
+	case "outings":
+		return "outing", true
+	case "canning":
+		return "canning", true
+	case "cannings":
+		return "canning", true
+	case "herring":
+		return "herring", true
+	case "herrings":
+		return "herring", true
+	case "earring":
+		return "earring", true
+	case "earrings":
+		return "earring", true
+	case "proceed":
+		return "proceed", true
+	case "proceeds":
+		return "proceed", true
+	case "proceeded":
+		return "proceed", true
+	case "proceeding":
+		return "proceed", true
+	case "exceed":
+		return "exceed", true
+	case "exceeds":
+		return "exceed", true
+	case "exceeded":
+		return "exceed", true
+	case "exceeding":
+		return "exceed", true
+	case "succeed":
+		return "succeed", true
+	case "succeeds":
+		return "succeed", true
+	case "succeeded":
+		return "succeed", true
+	case "succeeding":
+		return "succeed", true
+	}
+	return "", false
 }
