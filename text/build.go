@@ -179,7 +179,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 	for _, raw := range docs {
 		nbytes += len(raw)
 	}
-	intern := make(map[string]int32, min(nbytes/100, 1<<20)+64)
+	intern := newInternTable(min(nbytes/100, 1<<20) + 64) // all surfaces, ids in surfs order
 	var surfs []surface
 	c.Bytes = nbytes
 	stream := make([]int32, 0, nbytes/5+16)
@@ -204,32 +204,33 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		nw := min(wave, nChunks-w0)
 		parallelFor(nw, func(worker, k int) {
 			ch := &chunks[k]
-			if ch.intern == nil {
-				ch.intern = newInternTable(4096)
-			} else {
-				ch.intern.reset()
-			}
-			ch.surfs, ch.stream, ch.off, ch.tokens = ch.surfs[:0], ch.stream[:0], append(ch.off[:0], 0), 0
 			sc := &scanners[worker]
 			lo := (w0 + k) * chunkDocs
 			hi := min(lo+chunkDocs, len(docs))
+			// Sized once from the chunk's bytes (about one token per 5 bytes, one new
+			// surface per 60), so that the appends below seldom grow.
+			cb := 0
 			for _, raw := range docs[lo:hi] {
-				start := len(ch.stream)
-				sc.scan(raw, s.Tokens.KeepPossessive)
-				for _, t := range sc.toks {
-					if t.brk && len(ch.stream) > start && ch.stream[len(ch.stream)-1] != -1 {
-						ch.stream = append(ch.stream, -1)
-					}
-					id := ch.intern.id(sc.text[t.a:t.b])
-					if int(id) == len(ch.surfs) {
-						ch.surfs = append(ch.surfs, surface{ch.intern.strs[id], t.kind, 0})
-					}
-					ch.surfs[id].count++
-					ch.stream = append(ch.stream, id)
-				}
-				ch.tokens += len(sc.toks)
-				ch.off = append(ch.off, len(ch.stream))
+				cb += len(raw)
 			}
+			if ch.intern == nil {
+				ch.intern = newInternTable(max(4096, cb/60))
+			} else {
+				ch.intern.reset()
+			}
+			ch.surfs = slices.Grow(ch.surfs[:0], cb/60+64)
+			ch.stream = slices.Grow(ch.stream[:0], cb/4+64)
+			ch.off = append(slices.Grow(ch.off[:0], hi-lo+1), 0)
+			ch.tokens = 0
+			// The scanner interns as it scans (fused mode), into the chunk's tables.
+			sc.in, sc.surfs, sc.ids = ch.intern, ch.surfs, ch.stream
+			for _, raw := range docs[lo:hi] {
+				sc.scan(raw, s.Tokens.KeepPossessive)
+				ch.tokens += sc.ntok
+				ch.off = append(ch.off, len(sc.ids))
+			}
+			ch.surfs, ch.stream = sc.surfs, sc.ids
+			sc.in, sc.surfs, sc.ids = nil, nil, nil
 		})
 		// Surface ids in chunk order (serial: first occurrence numbers them), then the
 		// chunks' streams remapped and copied in parallel to their places.
@@ -238,10 +239,8 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 			ch := &chunks[k]
 			ch.remap = ch.remap[:0]
 			for _, sf := range ch.surfs {
-				id, ok := intern[sf.text]
-				if !ok {
-					id = int32(len(surfs))
-					intern[sf.text] = id
+				id := intern.idString(sf.text)
+				if int(id) == len(surfs) {
 					surfs = append(surfs, surface{sf.text, sf.kind, 0})
 				}
 				surfs[id].count += sf.count
@@ -268,10 +267,11 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 	}
 	chunks = nil
 
-	// Stems of every scanned word, in parallel, seeded into the lexer's cache.
+	// Stems of every scanned word, in parallel: stems[id] for the surfaces of kind Word (the
+	// repair step and the lexers read them by id; the lexer's cache keeps only other words).
+	var stems []string
 	if !s.Stem.Off {
-		lx.stems = newStemCache(len(surfs))
-		stems := make([]string, len(surfs))
+		stems = make([]string, len(surfs))
 		const per = 512
 		parallelFor((len(surfs)+per-1)/per, func(_, k int) {
 			for id := k * per; id < min((k+1)*per, len(surfs)); id++ {
@@ -280,19 +280,12 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 				}
 			}
 		})
-		for id, st := range stems {
-			if surfs[id].kind == Word {
-				lx.stems.own[surfs[id].text] = st
-			}
-		}
 	}
 	addSurface := func(w string) int32 {
-		if id, ok := intern[w]; ok {
-			return id
+		id := intern.idString(w)
+		if int(id) == len(surfs) {
+			surfs = append(surfs, surface{w, Word, 0})
 		}
-		id := int32(len(surfs))
-		intern[w] = id
-		surfs = append(surfs, surface{w, Word, 0})
 		return id
 	}
 
@@ -330,13 +323,17 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		var cand []int32
 		for id := 0; id < nScanned; id++ {
 			sf := surfs[id]
-			if sf.kind != Word || sf.count >= fmin || (sf.count > rmax && ratio < 0) || user[sf.text] || lx.stop.Has(sf.text) || !lettersOnly(sf.text, true) || (rs.KeepKnown && lexicon.Has(sf.text)) {
+			if sf.kind != Word || sf.count >= fmin || (sf.count > rmax && ratio < 0) {
+				continue
+			}
+			// The cheap tests first (all are pure: the order does not change the result).
+			if n := utf8.RuneCountInString(sf.text); n < minLen || n > maxRepairLen || !lettersOnly(sf.text, true) {
+				continue
+			}
+			if user[sf.text] || lx.stop.Has(sf.text) || (rs.KeepKnown && lexicon.Has(sf.text)) {
 				continue
 			}
 			if _, ok := lx.abbrev.Lookup(sf.text); ok {
-				continue
-			}
-			if n := utf8.RuneCountInString(sf.text); n < minLen || n > maxRepairLen {
 				continue
 			}
 			cand = append(cand, int32(id))
@@ -356,12 +353,21 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		// A word with an inflection of its own in the corpus ("clump" beside "clumped") is
 		// taken for a real word: OCR seldom makes the same wrong word twice in two forms. An
 		// inflection that is itself repaired to the same family does not count.
+		// Families are gathered only for the stems of candidates that found a target.
 		family := make(map[string][]int)
-		if !s.Stem.Off {
+		if !s.Stem.Off && !rs.Families {
+			for k, id := range cand {
+				if found[k] != "" {
+					family[stems[id]] = nil
+				}
+			}
+		}
+		if len(family) > 0 {
 			for id := 0; id < nScanned; id++ {
-				if sf := surfs[id]; sf.kind == Word && lettersOnly(sf.text, true) {
-					st := lx.stems.stem(sf.text)
-					family[st] = append(family[st], id)
+				if sf := surfs[id]; sf.kind == Word {
+					if l, ok := family[stems[id]]; ok && lettersOnly(sf.text, true) {
+						family[stems[id]] = append(l, id)
+					}
 				}
 			}
 		}
@@ -379,7 +385,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 			if !rs.Families && !s.Stem.Off {
 				real := false
 				tstem := candTarget[int(id)]
-				for _, sib := range family[lx.stems.stem(surfs[id].text)] {
+				for _, sib := range family[stems[id]] {
 					if sib != int(id) && candTarget[sib] != tstem {
 						real = true
 						break
@@ -390,11 +396,11 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 				}
 			}
 			if n := surfs[id].count; n > rmax {
-				if tid, ok := intern[tgt]; !ok || float64(surfs[tid].count) < ratio*float64(n) {
+				if tid := intern.findString(tgt); tid < 0 || float64(surfs[tid].count) < ratio*float64(n) {
 					continue // not rare enough beside its target
 				}
 			}
-			if !s.Stem.Off && lx.stems.stem(tgt) == lx.stems.stem(surfs[id].text) {
+			if !s.Stem.Off && lx.stems.stem(tgt) == stems[id] {
 				continue // an inflection of the target: stemming already merges them
 			}
 			repairTo[id] = addSurface(tgt)
@@ -413,10 +419,10 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 				continue
 			}
 			for k := 1; k < len(sf.text); k++ {
-				if pid, ok := intern[sf.text[:k]]; ok && int(pid) < nScanned {
+				if pid := intern.findString(sf.text[:k]); pid >= 0 && int(pid) < nScanned {
 					joinPrefix[pid] = true
 				}
-				if sid, ok := intern[sf.text[k:]]; ok && int(sid) < nScanned {
+				if sid := intern.findString(sf.text[k:]); sid >= 0 && int(sid) < nScanned {
 					joinSuffix[sid] = true
 				}
 			}
@@ -439,7 +445,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		j := int32(-1)
 		if lettersOnly(sa.text, false) && lettersOnly(sb.text, false) {
 			*buf = append(append((*buf)[:0], sa.text...), sb.text...)
-			if id, ok := intern[string(*buf)]; ok && int(id) < nScanned && surfs[id].count >= fmin && surfs[id].kind == Word {
+			if id := intern.find(*buf); id >= 0 && int(id) < nScanned && surfs[id].count >= fmin && surfs[id].kind == Word {
 				j = id
 			}
 		}
@@ -472,12 +478,25 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		}
 		const per = 512
 		parallelFor((len(surfs)+per-1)/per, func(w, k int) {
-			for id := k * per; id < min((k+1)*per, len(surfs)); id++ {
-				words, exp := forks[w].lex(surfs[id].text, surfs[id].kind)
-				if len(words) > 0 {
-					lexWords[id] = append([]lexWord(nil), words...)
+			var flat []lexWord // one array per block of surfaces
+			hi := min((k+1)*per, len(surfs))
+			ends := make([]int, 0, per)
+			for id := k * per; id < hi; id++ {
+				hint := ""
+				if id < len(stems) && surfs[id].kind == Word {
+					hint = stems[id]
 				}
+				words, exp := forks[w].lexHint(surfs[id].text, surfs[id].kind, hint)
+				flat = append(flat, words...)
+				ends = append(ends, len(flat))
 				lexExp[id] = exp
+			}
+			lo := 0
+			for k2, e := range ends {
+				if e > lo {
+					lexWords[k*per+k2] = flat[lo:e:e]
+				}
+				lo = e
 			}
 		})
 		for _, f := range forks {
@@ -486,19 +505,42 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 			}
 		}
 	}
+	// lexCache[id] holds the entries of surface id (one backing array for all); info[id] packs
+	// what the pass-2 loop reads per token (repair target, join flags, the stem ids' place in
+	// lexStems), so that a token costs one cache line there instead of several.
+	type p2info struct {
+		repair, lo, hi int32
+		jp, js         bool
+	}
+	nLex := 0
+	for _, words := range lexWords {
+		nLex += len(words)
+	}
 	lexCache := make([][]lexEntry, len(surfs))
+	lexBack := make([]lexEntry, 0, nLex)
+	lexStems := make([]int32, 0, nLex)
+	info := make([]p2info, len(surfs))
 	for id, words := range lexWords {
-		if len(words) == 0 {
-			continue
+		inf := &info[id]
+		inf.repair, inf.lo = -1, int32(len(lexStems))
+		if id < nScanned {
+			inf.repair = repairTo[id]
+			if joinOn {
+				inf.jp, inf.js = joinPrefix[id], joinSuffix[id]
+			}
 		}
-		le := make([]lexEntry, len(words))
-		for k, w := range words {
-			le[k] = lexEntry{internStem(w.stem, w.protected), w.word, w.protected}
+		if len(words) > 0 {
+			lo := len(lexBack)
+			for _, w := range words {
+				st := internStem(w.stem, w.protected)
+				lexBack = append(lexBack, lexEntry{st, w.word, w.protected})
+				lexStems = append(lexStems, st)
+			}
+			lexCache[id] = lexBack[lo:len(lexBack):len(lexBack)]
 		}
-		lexCache[id] = le
+		inf.hi = int32(len(lexStems))
 	}
 	lexWords = nil
-	lexOf := func(id int32) []lexEntry { return lexCache[id] }
 	// Pass 2 over blocks of narratives in parallel, each block writing its own stem stream and
 	// each worker its own counters; blocks are then joined in order and counters summed.
 	type p2worker struct {
@@ -538,28 +580,32 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 					}
 					continue
 				}
+				inf := &info[id]
 				joined := false
-				if joinOn && i+1 < len(ss) && ss[i+1] >= 0 {
+				if inf.jp && i+1 < len(ss) && ss[i+1] >= 0 && info[ss[i+1]].js {
 					if j := joinable(id, ss[i+1], st.joinCache, &st.buf); j >= 0 {
 						st.joinCount[[2]int32{id, ss[i+1]}]++
 						id, joined = j, true
+						inf = &info[id]
 						i++
 					}
 				}
-				if !joined && int(id) < nScanned && repairTo[id] >= 0 {
+				if !joined && inf.repair >= 0 {
 					st.repairCount[id]++
-					id = repairTo[id]
+					id = inf.repair
+					inf = &info[id]
 				}
 				st.occ[id]++
-				le := lexOf(id)
-				if len(le) == 0 {
+				if inf.lo == inf.hi {
 					if len(out) > start && out[len(out)-1] != -1 {
 						out = append(out, -1)
 					}
 					continue
 				}
-				for _, e := range le {
-					out = append(out, e.stem)
+				if inf.hi == inf.lo+1 {
+					out = append(out, lexStems[inf.lo])
+				} else {
+					out = append(out, lexStems[inf.lo:inf.hi]...)
 				}
 			}
 			if len(out) > start && out[len(out)-1] == -1 {
@@ -606,17 +652,17 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 	p2 = nil
 
 	// Display forms of stems: the most frequent word, ties to the smaller (byte order).
-	type sw struct {
-		stem int32
-		word string
-	}
-	dispCount := make(map[sw]int)
+	// Counted per (stem, word id) in a countTable; the choice below does not depend on the
+	// order the table is read in.
+	dispWords := newInternTable(len(surfs))
+	dispCount := newCountTable(len(stemStr))
 	for id := range surfs {
 		if occ[id] == 0 {
 			continue
 		}
 		for _, e := range lexCache[id] {
-			dispCount[sw{e.stem, e.word}] += occ[id]
+			w := dispWords.idString(e.word)
+			dispCount.add(uint64(uint32(e.stem))<<32|uint64(uint32(w)), occ[id])
 		}
 		if lexExp[id] {
 			e, _ := lx.abbrev.Lookup(surfs[id].text)
@@ -626,11 +672,13 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 	sort.Slice(c.Expansions, func(i, j int) bool { return c.Expansions[i].Abbrev < c.Expansions[j].Abbrev })
 	disp := make([]string, len(stemStr))
 	best := make([]int, len(stemStr))
-	for k, n := range dispCount {
-		if n > best[k.stem] || (n == best[k.stem] && k.word < disp[k.stem]) {
-			best[k.stem], disp[k.stem] = n, k.word
+	dispCount.each(func(k uint64, n int) {
+		st, w := int32(k>>32), dispWords.strs[uint32(k)]
+		if n > best[st] || (n == best[st] && w < disp[st]) {
+			best[st], disp[st] = n, w
 		}
-	}
+	})
+	dispWords, dispCount = nil, nil
 
 	// Phrases.
 	var phrasePairs [][2]string
@@ -694,7 +742,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		pairCount = nil
 		sel := phrase.Select(pc, left, right, n, s.Phrases.Settings)
 		phraseID := make(map[uint64]int32, len(sel))
-		isLeft := make([]bool, len(stemStr))
+		isLeft, isRight := make([]bool, len(stemStr)), make([]bool, len(stemStr))
 		for _, p := range sel {
 			key := stemStr[p.A] + "_" + stemStr[p.B]
 			id := internStem(key, false)
@@ -704,7 +752,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 			disp[id] = disp[p.A] + "_" + disp[p.B]
 			phraseID[uint64(p.A)<<32|uint64(p.B)] = id
 			phraseParts = append(phraseParts, [3]int32{id, p.A, p.B})
-			isLeft[p.A] = true
+			isLeft[p.A], isRight[p.B] = true, true
 			phrasePairs = append(phrasePairs, [2]string{stemStr[p.A], stemStr[p.B]})
 			c.Phrases = append(c.Phrases, PhraseInfo{key, disp[id], p.Count, p.Score})
 		}
@@ -716,7 +764,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 					a, b := docOff2[d], docOff2[d+1]
 					w := a
 					for k := a; k < b; {
-						if k+1 < b && out[k] >= 0 && out[k+1] >= 0 && isLeft[out[k]] {
+						if k+1 < b && out[k] >= 0 && out[k+1] >= 0 && isLeft[out[k]] && isRight[out[k+1]] {
 							if p, ok := phraseID[uint64(out[k])<<32|uint64(out[k+1])]; ok {
 								out[w] = p
 								w++
@@ -905,19 +953,32 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 	// Rows are built in blocks in parallel and stacked in order.
 	const rowsPer = 4096
 	blocks := make([]*sparse.Matrix, (len(docs)+rowsPer-1)/rowsPer)
-	parallelFor(len(blocks), func(_, blk int) {
+	// Each row counts its terms in a dense per-worker array and sorts only its distinct ones.
+	rowCounts := make([][]int32, workers())
+	parallelFor(len(blocks), func(w, blk int) {
 		lo, hi := blk*rowsPer, min((blk+1)*rowsPer, len(docs))
 		b := sparse.NewBuilder(len(keep))
 		b.Grow(hi-lo, (docOff2[hi]-docOff2[lo])/2)
+		if rowCounts[w] == nil {
+			rowCounts[w] = make([]int32, len(keep))
+		}
+		cnt := rowCounts[w]
 		var ids []int32
 		for d := lo; d < hi; d++ {
 			ids = ids[:0]
 			for _, t := range out[docOff2[d]:docOff2[d+1]] {
-				if t >= 0 && newID[t] >= 0 {
-					ids = append(ids, newID[t])
+				if t < 0 {
+					continue
+				}
+				if j := newID[t]; j >= 0 {
+					if cnt[j] == 0 {
+						ids = append(ids, j)
+					}
+					cnt[j]++
 				}
 			}
-			b.AddIDs(ids)
+			slices.Sort(ids)
+			b.AddSortedCounts(ids, cnt)
 		}
 		blocks[blk] = b.Matrix()
 	})

@@ -10,6 +10,10 @@ func TestInternTable(t *testing.T) {
 	words := []string{}
 	for i := 0; i < 5000; i++ {
 		words = append(words, fmt.Sprint("w", i%1700))
+		// Every length from 1 to 20 (packed keys up to 15 bytes, hashed beyond), texts that
+		// differ only in their last byte or in their length.
+		n := 1 + i%20
+		words = append(words, fmt.Sprintf("%0*d", n, i%37), fmt.Sprintf("%0*d", n, i%37)+"\x00")
 	}
 	ref := map[string]int32{}
 	for _, w := range words {
@@ -24,6 +28,17 @@ func TestInternTable(t *testing.T) {
 			}
 			ref[w] = id
 		}
+	}
+	for w, id := range ref {
+		if tb.findString(w) != id || tb.find([]byte(w)) != id || tb.idString(w) != id {
+			t.Fatalf("%q: find/idString disagree with id %d", w, id)
+		}
+	}
+	if tb.findString("not there") != -1 {
+		t.Fatal("find of a missing text")
+	}
+	if id := tb.idString("new text"); int(id) != len(ref) || tb.strs[id] != "new text" {
+		t.Fatalf("idString of a new text: %d", id)
 	}
 	tb.reset()
 	if tb.id([]byte("x")) != 0 {
@@ -50,6 +65,23 @@ func TestCountTable(t *testing.T) {
 	for k, v := range ref {
 		if got[k] != v {
 			t.Fatalf("key %d: %d, want %d", k, got[k], v)
+		}
+	}
+}
+
+// BenchmarkFusedScan is Build's first pass on one goroutine: scan and intern the OSHA
+// abstracts (or the generated corpus when OSHA is missing).
+func BenchmarkFusedScan(b *testing.B) {
+	docs := genCorpus(5000, 1)
+	if oshaPath != "" {
+		docs = loadOSHA(b, 0)
+	}
+	b.SetBytes(totalBytes(docs))
+	var sc scanner
+	for i := 0; i < b.N; i++ {
+		sc.in, sc.surfs, sc.ids = newInternTable(4096), sc.surfs[:0], sc.ids[:0]
+		for _, d := range docs {
+			sc.scan(d, false)
 		}
 	}
 }

@@ -131,7 +131,10 @@ func keepWord(stop *stopwords.Set, minLen int, w string) bool {
 
 // lex returns the words a token becomes (nil when it is removed) and whether an abbreviation
 // was expanded. The result aliases the lexer's buffer.
-func (lx *lexer) lex(text string, kind Kind) ([]lexWord, bool) {
+func (lx *lexer) lex(text string, kind Kind) ([]lexWord, bool) { return lx.lexHint(text, kind, "") }
+
+// lexHint is lex with the stem of text itself already known (stem, or "" when not known).
+func (lx *lexer) lexHint(text string, kind Kind, stem string) ([]lexWord, bool) {
 	lx.buf = lx.buf[:0]
 	exp := expand(lx.tok, lx.abbrev, text, kind, func(w string, protected bool) {
 		if protected {
@@ -143,7 +146,11 @@ func (lx *lexer) lex(text string, kind Kind) ([]lexWord, bool) {
 		}
 		st := w
 		if !lx.stemOff {
-			st = lx.stems.stem(w)
+			if stem != "" && w == text {
+				st = stem
+			} else {
+				st = lx.stems.stem(w)
+			}
 		}
 		lx.buf = append(lx.buf, lexWord{w, st, false})
 	})

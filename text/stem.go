@@ -10,9 +10,14 @@ import (
 // possessive "'s" stripped first. The kljensen/snowball stemmer checks Porter2's exception
 // words before it strips "'s" (earring's → ear), so we strip it ourselves (see LIBNOTES).
 // english.Stem is called with stemStopWords=true: stopwords are removed by our own step.
+// Lower-case ASCII words go through stemASCII, a byte-level copy of the library's rules that
+// gives the same stems without its rune conversions (porter2.go).
 func StemWord(w string) string {
 	if len(w) > 2 && strings.HasSuffix(w, "'s") {
 		w = w[:len(w)-2]
+	}
+	if st, ok := stemASCII(w); ok {
+		return st
 	}
 	return english.Stem(w, true)
 }

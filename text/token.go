@@ -69,6 +69,16 @@ type scanner struct {
 	nb   normBuf
 	text []byte
 	toks []rawTok
+
+	// Fused mode (Build's first pass), when in is not nil: each token is interned into in as
+	// it is scanned, a new text gets a surface in surfs, and its id is appended to ids (-1
+	// for a break between two tokens of the narrative); no rawTok is recorded and toks stays
+	// empty. idStart is where the narrative's ids begin, ntok counts its tokens.
+	in      *internTable
+	surfs   []surface
+	ids     []int32
+	idStart int
+	ntok    int
 }
 
 const (
@@ -125,6 +135,7 @@ func (sc *scanner) scan(raw string, keepPossessive bool) {
 	x := sc.nb.bytes()
 	sc.text = sc.text[:0]
 	sc.toks = sc.toks[:0]
+	sc.idStart, sc.ntok = len(sc.ids), 0
 	brk, nl := false, 0
 	for i := 0; i < len(x); {
 		c := x[i]
@@ -175,11 +186,24 @@ func (sc *scanner) appendLower(r rune) {
 	sc.text = utf8.AppendRune(sc.text, unicode.ToLower(r))
 }
 
+// flush copies a token's pending first run x[i:*pend] to sc.text (see word).
+func (sc *scanner) flush(x []byte, i int, pend *int) {
+	if *pend >= 0 {
+		sc.text = append(sc.text, x[i:*pend]...)
+		*pend = -1
+	}
+}
+
 // word scans one token starting at x[i] and returns the index after it.
+//
+// A token that is one run of lower-case ASCII letters and digits (most tokens) is not copied:
+// while pend >= 0 its text is x[i:pend], and it is copied to sc.text (flush) only when
+// something else is added to it.
 func (sc *scanner) word(x []byte, i int, brk, keepPossessive bool) int {
 	a := len(sc.text)
 	hasL, hasD, slashWord := false, false, false
 	colon, slash, hyph := 0, 0, 0
+	pend := -1
 	j := i
 loop:
 	for j < len(x) {
@@ -193,6 +217,11 @@ loop:
 				}
 				hasL = hasL || seen&classLetter != 0
 				hasD = hasD || seen&classDigit != 0
+				if j == i && seen&classUpper == 0 {
+					pend, j = k, k
+					continue
+				}
+				sc.flush(x, i, &pend)
 				base := len(sc.text)
 				sc.text = append(sc.text, x[j:k]...)
 				if seen&classUpper != 0 {
@@ -217,12 +246,14 @@ loop:
 			switch c {
 			case '\'':
 				if hasL && isLetterAt(x, j+1) && (isLetterASCII(prev) || prev >= utf8.RuneSelf) {
+					sc.flush(x, i, &pend)
 					sc.text = append(sc.text, '\'')
 					j++
 					continue
 				}
 			case '-':
 				if digits {
+					sc.flush(x, i, &pend)
 					sc.text = append(sc.text, '-')
 					hyph++
 					j++
@@ -236,6 +267,7 @@ loop:
 				}
 			case ':':
 				if digits {
+					sc.flush(x, i, &pend)
 					sc.text = append(sc.text, ':')
 					colon++
 					j++
@@ -243,17 +275,20 @@ loop:
 				}
 			case '.', ',':
 				if digits {
+					sc.flush(x, i, &pend)
 					sc.text = append(sc.text, c)
 					j++
 					continue
 				}
 			case '/':
 				if digits && colon == 0 {
+					sc.flush(x, i, &pend)
 					sc.text = append(sc.text, '/')
 					slash++
 					j++
 					continue
 				}
+				sc.flush(x, i, &pend) // (the length test below reads sc.text)
 				if hasL && !hasD && len(sc.text)-a <= 2 && (i == 0 || x[i-1] != '/') {
 					k := j + 1
 					for k < len(x) && k-j-1 < 3 && isLetterASCII(x[k]) {
@@ -273,6 +308,7 @@ loop:
 			break
 		}
 		r, n := utf8.DecodeRune(x[j:])
+		sc.flush(x, i, &pend)
 		switch {
 		case unicode.IsLetter(r) || (unicode.IsMark(r) && j > i):
 			sc.appendLower(r)
@@ -298,19 +334,50 @@ loop:
 	default:
 		kind = Number
 	}
-	if kind == Word && hasD && isOrdinal(sc.text[a:]) {
-		kind = Number
-	}
-	if kind == Time {
-		j = sc.meridiem(x, j)
-	}
-	if kind == Word && !keepPossessive {
-		if t := sc.text[a:]; len(t) > 2 && t[len(t)-2] == '\'' && t[len(t)-1] == 's' {
-			sc.text = sc.text[:len(sc.text)-2]
+	if pend >= 0 {
+		// One lower-case run: no apostrophe (no possessive) and no colon (not a Time).
+		if kind == Word && hasD && isOrdinal(x[i:pend]) {
+			kind = Number
+		}
+		if sc.in != nil {
+			sc.emit(x[i:pend], kind, brk)
+			return j
+		}
+		sc.text = append(sc.text, x[i:pend]...)
+	} else {
+		if kind == Word && hasD && isOrdinal(sc.text[a:]) {
+			kind = Number
+		}
+		if kind == Time {
+			j = sc.meridiem(x, j)
+		}
+		if kind == Word && !keepPossessive {
+			if t := sc.text[a:]; len(t) > 2 && t[len(t)-2] == '\'' && t[len(t)-1] == 's' {
+				sc.text = sc.text[:len(sc.text)-2]
+			}
+		}
+		if sc.in != nil {
+			sc.emit(sc.text[a:], kind, brk)
+			sc.text = sc.text[:a]
+			return j
 		}
 	}
 	sc.toks = append(sc.toks, rawTok{a: int32(a), b: int32(len(sc.text)), s: int32(i), e: int32(j), kind: kind, brk: brk})
 	return j
+}
+
+// emit interns one token in fused mode (see scanner).
+func (sc *scanner) emit(t []byte, kind Kind, brk bool) {
+	if brk && len(sc.ids) > sc.idStart && sc.ids[len(sc.ids)-1] != -1 {
+		sc.ids = append(sc.ids, -1)
+	}
+	id := sc.in.id(t)
+	if int(id) == len(sc.surfs) {
+		sc.surfs = append(sc.surfs, surface{sc.in.strs[id], kind, 0})
+	}
+	sc.surfs[id].count++
+	sc.ids = append(sc.ids, id)
+	sc.ntok++
 }
 
 // isOrdinal reports whether t is digits followed by st, nd, rd or th ("1st", "22nd", "10th"),

@@ -5,6 +5,7 @@ import (
 	"io"
 	"sort"
 	"strconv"
+	"unicode/utf8"
 )
 
 func confusable(a, b rune) bool {
@@ -121,13 +122,80 @@ func canonical(w string) []rune {
 	return out
 }
 
+// canonicalASCII is canonical for an ASCII word, on bytes, appended to dst.
+func canonicalASCII(dst []byte, w string) []byte {
+	for i := 0; i < len(w); i++ {
+		c := w[i]
+		if i+1 < len(w) {
+			switch {
+			case c == 'r' && w[i+1] == 'n':
+				dst = append(dst, 'm')
+				i++
+				continue
+			case c == 'c' && w[i+1] == 'l':
+				dst = append(dst, 'd')
+				i++
+				continue
+			case c == 'v' && w[i+1] == 'v':
+				dst = append(dst, 'w')
+				i++
+				continue
+			}
+		}
+		switch c {
+		case '0':
+			c = 'o'
+		case '1', 'i':
+			c = 'l'
+		case '5':
+			c = 's'
+		case 'e':
+			c = 'c'
+		}
+		dst = append(dst, c)
+	}
+	return dst
+}
+
+func isASCII(w string) bool {
+	for i := 0; i < len(w); i++ {
+		if w[i] >= utf8.RuneSelf {
+			return false
+		}
+	}
+	return true
+}
+
 // keys calls f with the canonical form of w and every string made by deleting one rune of
-// it. Two words within one plain edit plus any number of OCR confusions share a key
-// (the "symmetric delete" idea), so with costs of at most 1 no candidate is missed, apart from
-// rare interactions of an edit with a two-character confusion.
-func (ix *Index) keys(w string, f func(string)) {
+// it, each as UTF-8 bytes that f must not keep. Two words within one plain edit plus any
+// number of OCR confusions share a key (the "symmetric delete" idea), so with costs of at
+// most 1 no candidate is missed, apart from rare interactions of an edit with a two-character
+// confusion. ASCII words (nearly all) are handled on bytes, without allocating.
+func (ix *Index) keys(w string, f func([]byte)) {
+	if len(w) <= 64 && isASCII(w) {
+		var cb, bb [64]byte
+		c := canonicalASCII(cb[:0], w)
+		f(c)
+		if ix.canonOnly {
+			return
+		}
+		for i := range c {
+			if i > 0 && c[i] == c[i-1] {
+				continue // same string as deleting c[i-1]
+			}
+			f(append(append(bb[:0], c[:i]...), c[i+1:]...))
+		}
+		return
+	}
+	ix.keysRunes(w, f)
+}
+
+// keysRunes is keys on runes, for any word.
+func (ix *Index) keysRunes(w string, f func([]byte)) {
 	c := canonical(w)
-	f(string(c))
+	var out []byte
+	out = appendRunes(out[:0], c)
+	f(out)
 	if ix.canonOnly {
 		return
 	}
@@ -137,8 +205,17 @@ func (ix *Index) keys(w string, f func(string)) {
 			continue // same string as deleting c[i-1]
 		}
 		buf = append(append(buf[:0], c[:i]...), c[i+1:]...)
-		f(string(buf))
+		out = appendRunes(out[:0], buf)
+		f(out)
 	}
+}
+
+// appendRunes appends rs as UTF-8, as string(rs) would spell it.
+func appendRunes(dst []byte, rs []rune) []byte {
+	for _, r := range rs {
+		dst = utf8.AppendRune(dst, r)
+	}
+	return dst
 }
 
 // NewIndex indexes the target words (duplicates are ignored) for queries with costs up to 1.
@@ -158,10 +235,10 @@ func NewIndexLimit(targets []string, limit float64) *Index {
 		id := int32(len(ix.targets))
 		ix.targets = append(ix.targets, t)
 		ix.runes = append(ix.runes, []rune(t))
-		ix.keys(t, func(s string) {
-			l := ix.del[s]
+		ix.keys(t, func(s []byte) {
+			l := ix.del[string(s)]
 			if len(l) == 0 || l[len(l)-1] != id {
-				ix.del[s] = append(l, id)
+				ix.del[string(s)] = append(l, id)
 			}
 		})
 	}
@@ -177,8 +254,8 @@ func (ix *Index) Best(w string, maxCost float64) (target string, cost float64, o
 	if ix.canonOnly && maxCost >= 1 {
 		panic("repair: Index built with NewIndexLimit below 1 queried with maxCost >= 1")
 	}
-	ix.keys(w, func(s string) {
-		cands = append(cands, ix.del[s]...)
+	ix.keys(w, func(s []byte) {
+		cands = append(cands, ix.del[string(s)]...)
 	})
 	sort.Slice(cands, func(i, j int) bool { return cands[i] < cands[j] })
 	best, second := maxCost+1, maxCost+1

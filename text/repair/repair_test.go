@@ -2,6 +2,7 @@ package repair
 
 import (
 	"bytes"
+	"strings"
 	"testing"
 )
 
@@ -80,6 +81,30 @@ func TestIndexLimit(t *testing.T) {
 		b, cb, okb := small.Best(w, 0.5)
 		if a != b || ca != cb || oka != okb {
 			t.Errorf("%q: full %q %v %v, canonical-only %q %v %v", w, a, ca, oka, b, cb, okb)
+		}
+	}
+}
+
+// The byte path of keys (ASCII words) gives the same keys, in the same order, as the rune
+// path, on seeded random words over the OCR-confusable letters and digits.
+func TestKeysASCIIMatchesRunes(t *testing.T) {
+	const alpha = "rnclvvv015ieabsmdwo"
+	x := uint64(1)
+	for _, canonOnly := range []bool{true, false} {
+		ix := &Index{canonOnly: canonOnly}
+		for i := 0; i < 20000; i++ {
+			var b []byte
+			for k := 1 + i%12; k > 0; k-- {
+				x = x*6364136223846793005 + 1442695040888963407
+				b = append(b, alpha[(x>>33)%uint64(len(alpha))])
+			}
+			w := string(b)
+			var got, want []string
+			ix.keys(w, func(k []byte) { got = append(got, string(k)) })
+			ix.keysRunes(w, func(k []byte) { want = append(want, string(k)) })
+			if strings.Join(got, ",") != strings.Join(want, ",") {
+				t.Fatalf("%q: keys %q, rune path %q", w, got, want)
+			}
 		}
 	}
 }

@@ -1,6 +1,9 @@
 package routine
 
-import "math/rand/v2"
+import (
+	"math/rand/v2"
+	"sync"
+)
 
 // Settings for near-duplicate detection. Zero values mean the defaults given.
 type Settings struct {
@@ -157,8 +160,15 @@ func (h *Hasher) GroupsParallel(sigs [][]uint64, run func(n int, f func(b int)))
 		}
 	})
 	pairs := make([][][2]int32, h.s.Bands)
+	// One table per concurrent band search, emptied between bands (its contents never
+	// outlive a band, so which table a band gets changes nothing).
+	tables := sync.Pool{New: func() any { return newFirstTable(n) }}
 	run(h.s.Bands, func(b int) {
-		first := newFirstTable(n)
+		first := tables.Get().(*firstTable)
+		defer func() {
+			clear(first.slots)
+			tables.Put(first)
+		}()
 		var out [][2]int32
 		bk, bu := keys[b*n:(b+1)*n], used[b*n:(b+1)*n]
 		for i, key := range bk {

@@ -168,6 +168,25 @@ func (b *Builder) AddIDs(ids []int32) {
 	b.m.Indptr = append(b.m.Indptr, len(b.m.Indices))
 }
 
+// AddSortedCounts appends a row of counts: the columns cols, in increasing order and each
+// once, with the values counts[c] (counts is a dense scratch array of at least Cols entries).
+// It sets counts[c] back to 0 for every c in cols, so that one array serves every row. It
+// panics if cols is not increasing or a column is out of range.
+func (b *Builder) AddSortedCounts(cols []int32, counts []int32) {
+	prev := int32(-1)
+	for _, c := range cols {
+		if c <= prev || int(c) >= b.m.Cols {
+			panic(fmt.Sprintf("sparse: column %d out of order or out of range [0,%d)", c, b.m.Cols))
+		}
+		prev = c
+		b.m.Indices = append(b.m.Indices, c)
+		b.m.Data = append(b.m.Data, float64(counts[c]))
+		counts[c] = 0
+	}
+	b.m.Rows++
+	b.m.Indptr = append(b.m.Indptr, len(b.m.Indices))
+}
+
 // Grow reserves room for about rows more rows and nnz more stored entries.
 func (b *Builder) Grow(rows, nnz int) {
 	b.m.Indptr = slices.Grow(b.m.Indptr, rows)

@@ -2,6 +2,7 @@ package sparse
 
 import (
 	"reflect"
+	"slices"
 	"testing"
 )
 
@@ -64,5 +65,34 @@ func TestStack(t *testing.T) {
 	}
 	if m := Stack(); m.Rows != 0 || len(m.Indptr) != 1 {
 		t.Fatal("empty Stack")
+	}
+}
+
+// AddSortedCounts gives the same rows as AddIDs on the same occurrences, and leaves the
+// scratch array zeroed.
+func TestAddSortedCounts(t *testing.T) {
+	rows := [][]int32{{3, 1, 3, 0, 3}, {}, {4}, {2, 2, 1}}
+	a, b := NewBuilder(5), NewBuilder(5)
+	cnt := make([]int32, 5)
+	for _, r := range rows {
+		a.AddIDs(append([]int32(nil), r...))
+		var cols []int32
+		for _, c := range r {
+			if cnt[c] == 0 {
+				cols = append(cols, c)
+			}
+			cnt[c]++
+		}
+		slices.Sort(cols)
+		b.AddSortedCounts(cols, cnt)
+	}
+	ma, mb := a.Matrix(), b.Matrix()
+	if !reflect.DeepEqual(ma, mb) {
+		t.Fatalf("AddSortedCounts %+v, AddIDs %+v", mb, ma)
+	}
+	for _, v := range cnt {
+		if v != 0 {
+			t.Fatal("scratch not zeroed")
+		}
 	}
 }
