@@ -39,6 +39,7 @@ fi
 
 if want cluster; then
   note "hierarchical clustering (issue 4): Ward and average vs scipy and fastcluster"
+  mkdir -p "$OUT/cluster"
   $PY cluster/testdata/bench_ref.py --dump "$OUT/cluster" | emit
   UNDERCURRENT_BENCH_REF="$OUT/cluster" UNDERCURRENT_BENCH_JSON=1 go test -run '^$' -bench 'BenchmarkWardVectors|BenchmarkAverage$|BenchmarkSummary100k' -benchtime 1x -timeout 60m ./cluster | emit
 fi
