@@ -146,6 +146,9 @@ type GroupShare struct {
 	// StandsOut is empty, or plain words such as "more than the other groups" when the
 	// adjusted standardised residual of the cell is large.
 	StandsOut string
+	// Higher gives the direction of a cell that stands out: above the other groups (true) or
+	// below them (false). The panel marks it ▲ or ▼.
+	Higher bool
 }
 
 // Example is one redacted narrative.

@@ -211,7 +211,7 @@ func Sample(s SampleSettings) *Data {
 				gs.Low, gs.High = wilson(c, n, 1.959963984540054)
 			}
 			if g == k%len(sampleGroups) && !gs.Withheld && k%4 == 0 {
-				gs.StandsOut = "more than in the other districts"
+				gs.StandsOut, gs.Higher = "more than in the other districts", true
 			}
 			th.Groups = append(th.Groups, gs)
 		}

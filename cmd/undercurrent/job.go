@@ -342,7 +342,9 @@ func monthPoints(s *trend.Series, mask *trend.Mask, flags []trend.Flag, k int, p
 			mp.Flag = "above its baseline"
 			var texts []string
 			for _, fl := range fs {
-				texts = append(texts, fl.text)
+				if len(texts) == 0 || texts[len(texts)-1] != fl.text {
+					texts = append(texts, fl.text) // one "details withheld" for several methods
+				}
 			}
 			mp.FlagText = strings.Join(texts, " ")
 		}
@@ -378,9 +380,9 @@ func groupShares(g *trend.GroupTable, mask *trend.Mask, k int, pub trend.Publish
 			gs.Share, gs.Low, gs.High = g.Share[i][k], g.Low[i][k], g.High[i][k]
 			if g.Test != nil && g.Test.StandsOut[i][k] {
 				if g.Test.Residual[i][k] > 0 {
-					gs.StandsOut = "more than in the other groups"
+					gs.StandsOut, gs.Higher = "higher than the rest", true
 				} else {
-					gs.StandsOut = "less than in the other groups"
+					gs.StandsOut = "lower than the rest"
 				}
 			}
 		}
