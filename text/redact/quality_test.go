@@ -1,7 +1,6 @@
 package redact
 
 import (
-	"encoding/csv"
 	"encoding/json"
 	"fmt"
 	"os"
@@ -154,34 +153,15 @@ func sharedFile(rel string) string {
 // almost no one, and reports what is redacted per type. Ages ("a 45-year-old employee") are
 // real ages and are expected; the check is on the other types.
 func TestOSHAFalsePositives(t *testing.T) {
-	p := sharedFile("corpora/osha-abstracts/osha.csv")
-	if p == "" {
+	texts := oshaTexts(t)
+	if texts == nil {
 		t.Skip("osha.csv not found")
-	}
-	f, err := os.Open(p)
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer f.Close()
-	rows, err := csv.NewReader(f).ReadAll()
-	if err != nil {
-		t.Fatal(err)
-	}
-	col := -1
-	for i, h := range rows[0] {
-		if h == "Abstract Text" {
-			col = i
-		}
-	}
-	if col < 0 {
-		t.Fatal("no Abstract Text column")
 	}
 	r, _ := New(Options{})
 	var c Counts
 	tokens := 0
 	examples := map[Type][]string{}
-	for _, row := range rows[1:] {
-		text := row[col]
+	for _, text := range texts {
 		tokens += tokensOf(text)
 		_, spans := r.Redact(text)
 		c.Add(spans)
@@ -194,8 +174,8 @@ func TestOSHAFalsePositives(t *testing.T) {
 	}
 	// the same abstracts in capitals, as CAD exports often are.
 	var cu Counts
-	for _, row := range rows[1:] {
-		_, spans := r.Redact(strings.ToUpper(row[col]))
+	for _, text := range texts {
+		_, spans := r.Redact(strings.ToUpper(text))
 		cu.Add(spans)
 	}
 	fmt.Printf(`{"bench":"redact","system":"undercurrent","corpus":"osha-abstracts-caps","type":"name","found":%d,"tokens":%d,"per_1k_tokens":%.3f}`+"\n", cu.Of(Name), tokens, 1000*float64(cu.Of(Name))/float64(tokens))
