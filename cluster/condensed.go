@@ -92,6 +92,11 @@ func nnChainCondensed(dist []float64, n int, m Linkage, workers int, own bool) (
 		size[i] = 1
 		act[i] = i
 	}
+	// rs[i] + j is the position of d(i, j), i < j (see cidx).
+	rs := make([]int, n)
+	for i := range rs {
+		rs[i] = n*i - i*(i+1)/2 - i - 1
+	}
 	chain := make([]int, 0, n)
 	best := make([]cand, max(1, workers))
 	bad := make([]bool, max(1, workers))
@@ -110,28 +115,31 @@ func nnChainCondensed(dist []float64, n int, m Linkage, workers int, own bool) (
 				b0 = cand{v: d[cidx(n, x, prev)], prev: true, key: prev}
 			}
 			used := parallelRanges(len(act), workers, minParallel, func(w, lo, hi int) {
-				b := b0
+				// An ascending scan with strict comparisons: the previous
+				// chain element (b0) keeps a tie, and otherwise the lowest
+				// index wins, as the order (distance, not-previous, index)
+				// asks. Distances are finite (checked), so the first
+				// element always beats b0 = +Inf.
+				bv, bk := b0.v, b0.key
 				part := act[lo:hi]
 				mid, _ := slices.BinarySearch(part, x)
 				// Points below x: d(i, x) lies in row i (one read per row).
 				for _, i := range part[:mid] {
-					v := d[n*i-i*(i+1)/2+x-i-1]
-					if v < b.v || (v == b.v && !b.prev && i < b.key) || b.key < 0 {
-						b = cand{v: v, prev: i == prev, key: i}
+					if v := d[rs[i]+x]; v < bv {
+						bv, bk = v, i
 					}
 				}
 				// Points above x: row x, contiguous.
-				base := n*x - x*(x+1)/2 - x - 1 // d(x, i) = d[base+i]
+				rx := rs[x]
 				for _, i := range part[mid:] {
 					if i == x {
 						continue
 					}
-					v := d[base+i]
-					if v < b.v || (v == b.v && !b.prev && i < b.key) || b.key < 0 {
-						b = cand{v: v, prev: i == prev, key: i}
+					if v := d[rx+i]; v < bv {
+						bv, bk = v, i
 					}
 				}
-				best[w] = b
+				best[w] = cand{v: bv, prev: bk >= 0 && bk == prev, key: bk}
 			})
 			r := best[0]
 			for w := 1; w < used; w++ {
@@ -157,27 +165,54 @@ func nnChainCondensed(dist []float64, n int, m Linkage, workers int, own bool) (
 		act = slices.Delete(act, ax, ax+1)
 		parallelRanges(len(act), workers, minParallel, func(wk, lo, hi int) {
 			part := act[lo:hi]
+			// d(i, x) and d(i, y) by where i lies: below x both are in row
+			// i; between x and y, d(x, i) is in row x and d(i, y) in row
+			// i; above y both are in rows x and y (contiguous).
+			px, _ := slices.BinarySearch(part, x)
+			py, _ := slices.BinarySearch(part, y)
+			rx, ry := rs[x], rs[y]
 			if m == Average {
 				// update(Average, ...) written out, same operations.
-				for _, i := range part {
+				s := nx + ny
+				for _, i := range part[:px] {
+					ri := rs[i]
+					d[ri+y] = (float64(nx*d[ri+x]) + float64(ny*d[ri+y])) / s
+				}
+				for _, i := range part[px:py] {
+					iy := rs[i] + y
+					d[iy] = (float64(nx*d[rx+i]) + float64(ny*d[iy])) / s
+				}
+				for _, i := range part[py:] {
 					if i == y {
 						continue
 					}
-					iy := cidx(n, i, y)
-					d[iy] = (float64(nx*d[cidx(n, i, x)]) + float64(ny*d[iy])) / (nx + ny)
+					d[ry+i] = (float64(nx*d[rx+i]) + float64(ny*d[ry+i])) / s
 				}
 				return
 			}
-			for _, i := range part {
+			nan := false
+			for _, i := range part[:px] {
+				ri := rs[i]
+				v := update(m, d[ri+x], d[ri+y], cur, nx, ny, size[i])
+				nan = nan || math.IsNaN(v)
+				d[ri+y] = v
+			}
+			for _, i := range part[px:py] {
+				iy := rs[i] + y
+				v := update(m, d[rx+i], d[iy], cur, nx, ny, size[i])
+				nan = nan || math.IsNaN(v)
+				d[iy] = v
+			}
+			for _, i := range part[py:] {
 				if i == y {
 					continue
 				}
-				iy := cidx(n, i, y)
-				v := update(m, d[cidx(n, i, x)], d[iy], cur, nx, ny, size[i])
-				if math.IsNaN(v) {
-					bad[wk] = true
-				}
-				d[iy] = v
+				v := update(m, d[rx+i], d[ry+i], cur, nx, ny, size[i])
+				nan = nan || math.IsNaN(v)
+				d[ry+i] = v
+			}
+			if nan {
+				bad[wk] = true
 			}
 		})
 		if slices.Contains(bad, true) {
