@@ -97,9 +97,29 @@ func nnChainCondensed(dist []float64, n int, m Linkage, workers int, own bool) (
 	for i := range rs {
 		rs[i] = n*i - i*(i+1)/2 - i - 1
 	}
+	// Column minima: for every active j, the smallest d(i, j) over the
+	// active i < j (colV) and the lowest such i (colI, -1 if none), unless
+	// stale[j]. Column j of the condensed matrix is strided (one entry per
+	// row), so the scan of a chain tip x reads it only when stale[x]; the
+	// rest of its scan is row x, contiguous. A merge of x < y into slot y
+	// changes in column j > x only the entries of rows x and y, and the
+	// new column minimum is min(old minimum, new d(y, j)) unless the old
+	// one was at x or y (then the column is stale); column y is rewritten
+	// by the update, which computes its minimum on the way. This is exact:
+	// the same comparisons on the same values as a full scan, so the
+	// chain, its ties and the merges are unchanged.
+	colV := make([]float64, n)
+	colI := make([]int, n)
+	stale := make([]bool, n)
+	initColumns(d, rs, n, colV, colI, workers)
 	chain := make([]int, 0, n)
 	best := make([]cand, max(1, workers))
 	bad := make([]bool, max(1, workers))
+	type colMin struct {
+		v float64
+		i int
+	}
+	ymin := make([]colMin, max(1, workers))
 	for k := 0; k < n-1; k++ {
 		if len(chain) == 0 {
 			chain = append(chain, act[0])
@@ -114,35 +134,34 @@ func nnChainCondensed(dist []float64, n int, m Linkage, workers int, own bool) (
 				prev = chain[len(chain)-2]
 				b0 = cand{v: d[cidx(n, x, prev)], prev: true, key: prev}
 			}
-			used := parallelRanges(len(act), workers, minParallel, func(w, lo, hi int) {
+			if stale[x] {
+				rescanColumn(d, rs, act, x, colV, colI, workers)
+				stale[x] = false
+			}
+			mid, _ := slices.BinarySearch(act, x)
+			above := act[mid+1:]
+			used := parallelRanges(len(above), workers, minParallel, func(w, lo, hi int) {
 				// An ascending scan with strict comparisons: the previous
 				// chain element (b0) keeps a tie, and otherwise the lowest
 				// index wins, as the order (distance, not-previous, index)
 				// asks. Distances are finite (checked), so the first
 				// element always beats b0 = +Inf.
 				bv, bk := b0.v, b0.key
-				part := act[lo:hi]
-				mid, _ := slices.BinarySearch(part, x)
-				// Points below x: d(i, x) lies in row i (one read per row).
-				for _, i := range part[:mid] {
-					if v := d[rs[i]+x]; v < bv {
-						bv, bk = v, i
-					}
-				}
-				// Points above x: row x, contiguous.
 				rx := rs[x]
-				for _, i := range part[mid:] {
-					if i == x {
-						continue
-					}
+				for _, i := range above[lo:hi] {
 					if v := d[rx+i]; v < bv {
 						bv, bk = v, i
 					}
 				}
 				best[w] = cand{v: bv, prev: bk >= 0 && bk == prev, key: bk}
 			})
-			r := best[0]
-			for w := 1; w < used; w++ {
+			r := b0
+			if ci := colI[x]; ci >= 0 {
+				if c := (cand{v: colV[x], prev: ci == prev, key: ci}); c.less(r) {
+					r = c
+				}
+			}
+			for w := 0; w < used; w++ {
 				if best[w].less(r) {
 					r = best[w]
 				}
@@ -163,7 +182,7 @@ func nnChainCondensed(dist []float64, n int, m Linkage, workers int, own bool) (
 		size[y] = nx + ny
 		ax, _ := slices.BinarySearch(act, x)
 		act = slices.Delete(act, ax, ax+1)
-		parallelRanges(len(act), workers, minParallel, func(wk, lo, hi int) {
+		used := parallelRanges(len(act), workers, minParallel, func(wk, lo, hi int) {
 			part := act[lo:hi]
 			// d(i, x) and d(i, y) by where i lies: below x both are in row
 			// i; between x and y, d(x, i) is in row x and d(i, y) in row
@@ -171,56 +190,113 @@ func nnChainCondensed(dist []float64, n int, m Linkage, workers int, own bool) (
 			px, _ := slices.BinarySearch(part, x)
 			py, _ := slices.BinarySearch(part, y)
 			rx, ry := rs[x], rs[y]
-			if m == Average {
-				// update(Average, ...) written out, same operations.
-				s := nx + ny
-				for _, i := range part[:px] {
-					ri := rs[i]
-					d[ri+y] = (float64(nx*d[ri+x]) + float64(ny*d[ri+y])) / s
-				}
-				for _, i := range part[px:py] {
-					iy := rs[i] + y
-					d[iy] = (float64(nx*d[rx+i]) + float64(ny*d[iy])) / s
-				}
-				for _, i := range part[py:] {
-					if i == y {
-						continue
-					}
-					d[ry+i] = (float64(nx*d[rx+i]) + float64(ny*d[ry+i])) / s
-				}
-				return
-			}
 			nan := false
+			mv, mi := math.Inf(1), -1 // minimum of the new column y
 			for _, i := range part[:px] {
 				ri := rs[i]
-				v := update(m, d[ri+x], d[ri+y], cur, nx, ny, size[i])
-				nan = nan || math.IsNaN(v)
+				var v float64
+				if m == Average {
+					// update(Average, ...) written out, same operations.
+					v = (float64(nx*d[ri+x]) + float64(ny*d[ri+y])) / (nx + ny)
+				} else {
+					v = update(m, d[ri+x], d[ri+y], cur, nx, ny, size[i])
+					nan = nan || math.IsNaN(v)
+				}
 				d[ri+y] = v
+				if v < mv {
+					mv, mi = v, i
+				}
 			}
 			for _, i := range part[px:py] {
 				iy := rs[i] + y
-				v := update(m, d[rx+i], d[iy], cur, nx, ny, size[i])
-				nan = nan || math.IsNaN(v)
+				var v float64
+				if m == Average {
+					v = (float64(nx*d[rx+i]) + float64(ny*d[iy])) / (nx + ny)
+				} else {
+					v = update(m, d[rx+i], d[iy], cur, nx, ny, size[i])
+					nan = nan || math.IsNaN(v)
+				}
 				d[iy] = v
+				if v < mv {
+					mv, mi = v, i
+				}
+				// Column i (x < i < y) loses the entry of row x.
+				if colI[i] == x {
+					stale[i] = true
+				}
 			}
 			for _, i := range part[py:] {
 				if i == y {
 					continue
 				}
-				v := update(m, d[rx+i], d[ry+i], cur, nx, ny, size[i])
-				nan = nan || math.IsNaN(v)
+				var v float64
+				if m == Average {
+					v = (float64(nx*d[rx+i]) + float64(ny*d[ry+i])) / (nx + ny)
+				} else {
+					v = update(m, d[rx+i], d[ry+i], cur, nx, ny, size[i])
+					nan = nan || math.IsNaN(v)
+				}
 				d[ry+i] = v
+				// Column i (> y) loses row x and gets a new row y entry.
+				switch ci := colI[i]; {
+				case stale[i]:
+				case ci == x || ci == y:
+					stale[i] = true
+				case v < colV[i] || (v == colV[i] && y < ci):
+					colV[i], colI[i] = v, y
+				}
 			}
 			if nan {
 				bad[wk] = true
 			}
+			ymin[wk] = colMin{mv, mi}
 		})
+		// Parts are in ascending index order: the first of equal minima
+		// has the lowest index.
+		c := colMin{math.Inf(1), -1}
+		for w := 0; w < used; w++ {
+			if p := ymin[w]; p.i >= 0 && (c.i < 0 || p.v < c.v) {
+				c = p
+			}
+		}
+		colV[y], colI[y], stale[y] = c.v, c.i, false
 		if slices.Contains(bad, true) {
 			return nil, nonReal(m, k)
 		}
 	}
 	sortAndLabel(z, n)
 	return &Dendrogram{N: n, Merges: z}, nil
+}
+
+// initColumns sets colV[j], colI[j] to the smallest d(i, j) over i < j
+// and its lowest i (colI[0] = -1), reading the rows of d in order; the
+// columns are split over workers.
+func initColumns(d []float64, rs []int, n int, colV []float64, colI []int, workers int) {
+	for j := range colV {
+		colV[j], colI[j] = math.Inf(1), -1
+	}
+	parallelRanges(n, workers, 1024, func(_, lo, hi int) {
+		for i := 0; i < hi-1; i++ {
+			for j := max(lo, i+1); j < hi; j++ {
+				if v := d[rs[i]+j]; v < colV[j] {
+					colV[j], colI[j] = v, i
+				}
+			}
+		}
+	})
+}
+
+// rescanColumn recomputes the minimum of column x over the active rows
+// below x (act ascending).
+func rescanColumn(d []float64, rs, act []int, x int, colV []float64, colI []int, workers int) {
+	mid, _ := slices.BinarySearch(act, x)
+	bv, bk := math.Inf(1), -1
+	for _, i := range act[:mid] {
+		if v := d[rs[i]+x]; v < bv {
+			bv, bk = v, i
+		}
+	}
+	colV[x], colI[x] = bv, bk
 }
 
 // genericCondensed is Müllner's generic algorithm (2011, fig. 3) for
