@@ -538,7 +538,7 @@ func (c *tagCSV) wide(id string, date time.Time, hasDate bool, groups []string, 
 	b = strconv.AppendFloat(b, theta[best[0]], 'f', 4, 64)
 	for i := 1; i < 3; i++ {
 		b = append(b, ',')
-		if i < n {
+		if i < n && theta[best[i]] > 0 { // as export.WriteWide: no share, no next theme
 			b = strconv.AppendInt(b, int64(best[i]), 10)
 			b = append(b, ',')
 			b = strconv.AppendFloat(b, theta[best[i]], 'f', 4, 64)

@@ -636,7 +636,7 @@ func TestTagPinned(t *testing.T) {
 
 const (
 	pinTagModel = "f067c9e9c609827e8430c5b2eb7b652e49c1d16948533a77a9ae575118deb92f"
-	pinTagWide  = "432bcf67e19fc01f48def16e7249bddfdda820f5b3675040665e810cca6e33fa"
+	pinTagWide  = "e79899aa83bcdd3872a0fa7fade785fa54abe0290fb93b7001fe784a408013ae" // routine rows: no next themes (2026-12-02)
 	pinTagLong  = "54b9070584b16e8b9beb891d8a5dc70e8bb625a1f6feb3b71419679f57306fb1"
 )
 

@@ -36,9 +36,9 @@ var WideColumns = []Column{
 	{"theme", "number of the narrative's strongest theme (0-based, as in the report)"},
 	{"label", "label of that theme"},
 	{"share", "that theme's share of the narrative, 0 to 1"},
-	{"second_theme", "number of the second strongest theme (empty with only one theme)"},
+	{"second_theme", "number of the second strongest theme (empty when no other theme has a share: with only one theme, and for routine narratives)"},
 	{"second_share", "its share"},
-	{"third_theme", "number of the third strongest theme"},
+	{"third_theme", "number of the third strongest theme (empty likewise)"},
 	{"third_share", "its share"},
 }
 
@@ -151,7 +151,8 @@ func top3(theta []float64) []int {
 }
 
 // WriteWide writes one row per narrative: id, date, the group columns, the strongest
-// theme with its label and share, and the next two themes with their shares. labels[i]
+// theme with its label and share, and the next two themes with their shares (empty when
+// they have no share). labels[i]
 // is the label of theme i; every row's Theta must have len(labels) entries and its
 // Groups len(groupCols) (a mismatch is a caller bug and panics).
 func WriteWide(w io.Writer, groupCols, labels []string, rows []WideRow) error {
@@ -188,7 +189,9 @@ func WriteWide(w io.Writer, groupCols, labels []string, rows []WideRow) error {
 		}
 		rec = append(rec, strconv.Itoa(best[0]), safe(labels[best[0]]), share(row.Theta[best[0]]))
 		for i := 1; i < 3; i++ {
-			if i < len(best) {
+			// A theme with no share is not a "next strongest" theme (routine narratives
+			// have all their share in the routine column).
+			if i < len(best) && row.Theta[best[i]] > 0 {
 				rec = append(rec, strconv.Itoa(best[i]), share(row.Theta[best[i]]))
 			} else {
 				rec = append(rec, "", "")

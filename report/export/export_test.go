@@ -27,7 +27,7 @@ func TestWriteWide(t *testing.T) {
 	want := "id,date,district,theme,label,share,second_theme,second_share,third_theme,third_share\n" +
 		"LK-1,2024-03-01,Harbour,1,\"noise \"\"loud\"\"\",0.6000,2,0.2000,0,0.1000\n" +
 		"'=cmd|' /C calc'!A0,,\"Old Town, east\",0,parking,0.2500,1,0.2500,2,0.2500\n" +
-		"LK-3,2024-03-02,'-5,3,theft,1.0000,0,0.0000,1,0.0000\n"
+		"LK-3,2024-03-02,'-5,3,theft,1.0000,,,,\n"
 	if buf.String() != want {
 		t.Errorf("got\n%s\nwant\n%s", buf.String(), want)
 	}
