@@ -126,14 +126,14 @@ func decide(ctx context.Context, tabs []*table, perms [][]int, sv *survey, opt *
 // builder turns rows (in the first file's column order) into records or rejects, by the
 // checks in the order the package documentation gives, duplicates aside.
 type builder struct {
-	s                                   *Set
-	opt                                 *Options
-	idCol, dateCol, timeCol             int
-	textCols, groupCols, extraCols      []int
-	reading                             *dateReading
-	late                                time.Time
-	rows                                int // rows built
-	synth, noDate, badDate, implausible int
+	s                                               *Set
+	opt                                             *Options
+	idCol, dateCol, timeCol                         int
+	textCols, groupCols, extraCols                  []int
+	reading                                         *dateReading
+	late                                            time.Time
+	rows                                            int // rows built
+	synth, noDate, badDate, implausible, otherOrder int
 }
 
 // dateOf is the date text of a row: the date column, and the time column after it.
@@ -201,6 +201,10 @@ func (b *builder) build(file string, line int, f []string) (rec Record, rj Rejec
 		default:
 			t, err := b.reading.parse(v)
 			if err != nil {
+				if o, ot, ok := b.reading.otherOrder(v); ok {
+					b.otherOrder++
+					return rej(ReasonOtherDateOrder, fmt.Sprintf("%q: the column is read %s; this value reads only %s (as %s)", clip(v, 64), b.reading.order, o, ot.Format("2006-01-02")))
+				}
 				b.badDate++
 				return rej(ReasonUnparseableDate, fmt.Sprintf("%q: %v", clip(v, 64), err))
 			}
@@ -236,8 +240,12 @@ func (b *builder) notes() []string {
 	if b.noDate > 0 {
 		out = append(out, fmt.Sprintf("date column %q: %s no date; kept without one", s.DateName, count(b.noDate, "row has", "rows have")))
 	}
-	if b.dateCol >= 0 && b.badDate+b.implausible > 0 {
-		out = append(out, fmt.Sprintf("date column %q: rows rejected for an unparseable date %d, for an implausible date %d", s.DateName, b.badDate, b.implausible))
+	if b.dateCol >= 0 && b.badDate+b.implausible+b.otherOrder > 0 {
+		msg := fmt.Sprintf("date column %q: rows rejected for an unparseable date %d, for an implausible date %d", s.DateName, b.badDate, b.implausible)
+		if b.otherOrder > 0 {
+			msg += fmt.Sprintf(", for a date in the other day/month order %d (set the date order option if the column's order was guessed wrong)", b.otherOrder)
+		}
+		out = append(out, msg)
 		if nonEmpty := b.rows - b.noDate; nonEmpty > 0 && 2*b.badDate > nonEmpty {
 			out = append(out, fmt.Sprintf("date column %q is mostly not dates (%d of %d values); check the column or name another", s.DateName, b.badDate, nonEmpty))
 		}

@@ -385,6 +385,25 @@ func (r *dateReading) parse(s string) (time.Time, error) {
 	return parseDate(s, r.order, r.serial, r.now)
 }
 
+// otherOrder reports whether s, which does not read in r's day/month order, reads in the
+// other one, and returns that order and the date it gives.
+func (r *dateReading) otherOrder(s string) (DateOrder, time.Time, bool) {
+	if r.layout != "" || r.iso {
+		return OrderAuto, time.Time{}, false
+	}
+	var o DateOrder
+	switch r.order {
+	case MonthFirst:
+		o = DayFirst
+	case DayFirst:
+		o = MonthFirst
+	default:
+		return OrderAuto, time.Time{}, false
+	}
+	t, err := parseDate(strings.TrimSpace(s), o, r.serial, r.now)
+	return o, t, err == nil
+}
+
 // decideReading looks at every value of a date column and fixes its reading. It returns
 // a human-readable note when it made a choice the user may want to check.
 func decideReading(col string, values []string, opt *Options, fromXLSX bool, now time.Time) (*dateReading, string, error) {

@@ -122,7 +122,9 @@
 // strftime-like format such as "%d.%m.%Y %H:%M", or a Go layout such as
 // "02.01.2006 15:04").
 //
-// A value that does not read is rejected ("unparseable date"); a date before
+// A value that does not read is rejected ("unparseable date"), or, when it reads only in
+// the other day/month order (25/12/2023 in a month-first column), as "date in the other
+// day/month order", with the date it would give as detail; a date before
 // 1900-01-01 or after Options.Now plus 14 hours (the widest zone offset) is rejected
 // ("implausible date"); an empty date is kept with HasDate false unless
 // Options.RequireDate ("missing date").
@@ -131,7 +133,7 @@
 //
 // Checks run in this order and the first that fails gives the reason: ragged row, bad
 // quoting, bad json, bad encoding, repeated header (while parsing), blank row, empty narrative, missing
-// date, unparseable date, implausible date. Among the rows left, rows sharing an id keep the
+// date, unparseable date or date in the other day/month order, implausible date. Among the rows left, rows sharing an id keep the
 // first (Options.KeepLast: the last, for exports that carry several versions of a
 // report); the others are rejected as "duplicate id", or "duplicate id, different text"
 // when their narrative differs from the kept row's, with the kept row's file:line as

@@ -47,6 +47,9 @@ const (
 	ReasonBlankRow        = "blank row"
 	ReasonUnparseableDate = "unparseable date"
 	ReasonImplausibleDate = "implausible date"
+	// ReasonOtherDateOrder: a numeric date such as 25/12/2023 that does not read in the
+	// column's day/month order (here month-first) but reads in the other one.
+	ReasonOtherDateOrder  = "date in the other day/month order"
 	ReasonMissingDate     = "missing date"
 	ReasonDuplicateID     = "duplicate id"
 	ReasonDuplicateIDText = "duplicate id, different text"

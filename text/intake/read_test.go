@@ -9,6 +9,7 @@ import (
 	"os"
 	"path/filepath"
 	"reflect"
+	"slices"
 	"strings"
 	"testing"
 	"time"
@@ -387,6 +388,28 @@ func TestDayFirstColumn(t *testing.T) {
 	_, err = readOne(t, "d.csv", in, Options{DateFormat: "dd/mm"})
 	if !errors.Is(err, ErrDateFormat) {
 		t.Errorf("bad format option: %v", err)
+	}
+}
+
+// TestConflictingDateOrder: in a column where two values read only month-first and one
+// only day-first, the column is read month-first and the odd value is rejected with a
+// reason of its own that says what it would have been; the note counts it.
+func TestConflictingDateOrder(t *testing.T) {
+	in := "id,date,narrative\n1,03/25/2020,a\n2,04/13/2020,b\n3,25/12/2020,c\n4,02/03/2020,d\n"
+	s, err := readOne(t, "c.csv", in, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s.DateRead != "month-first" || len(s.Records) != 3 || len(s.Rejects) != 1 {
+		t.Fatalf("read %q, %d records, rejects %+v", s.DateRead, len(s.Records), s.Rejects)
+	}
+	r := s.Rejects[0]
+	wantDetail := `"25/12/2020": the column is read month-first; this value reads only day-first (as 2020-12-25)`
+	if r.Line != 4 || r.Reason != ReasonOtherDateOrder || r.Detail != wantDetail {
+		t.Errorf("reject %+v", r)
+	}
+	if !slices.ContainsFunc(s.Notes, func(n string) bool { return strings.Contains(n, "other day/month order 1") }) {
+		t.Errorf("notes %q", s.Notes)
 	}
 }
 
