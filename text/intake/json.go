@@ -12,13 +12,18 @@ import (
 )
 
 // lineCounter passes bytes through and remembers where lines start, so that a byte
-// offset of the JSON decoder can be turned into a line number. Offsets must be asked in
-// increasing order; older line starts are dropped.
+// offset of the JSON decoder can be turned into a line and column. Offsets must be asked
+// in increasing order; older line starts are dropped. It also keeps the bytes from the
+// last mark on, so that a syntax error inside one array element can be located exactly
+// (encoding/json's Decoder reports offsets that are not positions in the stream).
 type lineCounter struct {
 	r      io.Reader
 	off    int64
 	starts []int64 // offsets of line starts not yet passed
 	base   int     // line number of the line before starts[0]
+	cur    int64   // offset of the start of line base+1
+	kept   []byte  // the bytes from keptAt on
+	keptAt int64
 }
 
 func (c *lineCounter) Read(p []byte) (int, error) {
@@ -28,19 +33,43 @@ func (c *lineCounter) Read(p []byte) (int, error) {
 			c.starts = append(c.starts, c.off+int64(i)+1)
 		}
 	}
+	c.kept = append(c.kept, p[:n]...)
 	c.off += int64(n)
 	return n, err
 }
 
+// mark drops the kept bytes before offset off.
+func (c *lineCounter) mark(off int64) {
+	if d := off - c.keptAt; d > 0 && d <= int64(len(c.kept)) {
+		c.kept = c.kept[:copy(c.kept, c.kept[d:])]
+		c.keptAt = off
+	}
+}
+
+// since returns the kept bytes from offset off on (nil if they were dropped).
+func (c *lineCounter) since(off int64) []byte {
+	if off < c.keptAt || off-c.keptAt > int64(len(c.kept)) {
+		return nil
+	}
+	return c.kept[off-c.keptAt:]
+}
+
 // lineAt returns the 1-based line holding byte offset off.
 func (c *lineCounter) lineAt(off int64) int {
+	l, _ := c.lineCol(off)
+	return l
+}
+
+// lineCol returns the 1-based line and byte column of the byte at offset off.
+func (c *lineCounter) lineCol(off int64) (int, int) {
 	i := 0
 	for i < len(c.starts) && c.starts[i] <= off {
+		c.cur = c.starts[i]
 		i++
 	}
 	c.base += i
 	c.starts = c.starts[i:]
-	return c.base + 1
+	return c.base + 1, int(off-c.cur) + 1
 }
 
 // readJSON reads a JSON array of objects (array true) or JSON Lines (one object a
@@ -95,8 +124,10 @@ func (ps *pass) readJSON(ctx context.Context, name string, br *bufio.Reader, arr
 					}
 				}
 				var raw json.RawMessage
+				from := d.InputOffset()
+				lc.mark(from)
 				if err := d.Decode(&raw); err != nil {
-					return jsonErr(name, lc, d, err)
+					return elementErr(name, lc, d, err, from)
 				}
 				line := lc.lineAt(d.InputOffset() - int64(len(raw)))
 				obj, err := object(raw)
@@ -190,6 +221,32 @@ func (ps *pass) readJSON(ctx context.Context, name string, br *bufio.Reader, arr
 	}
 	t.info.Rows = t.read()
 	return t, nil
+}
+
+// elementErr is jsonErr for an error while decoding the array element that starts after
+// offset from (after white space and a comma): a syntax error is located by scanning
+// the element's bytes again with json.Unmarshal, whose offsets are positions in its input,
+// so the error names the line and column of the offending byte.
+func elementErr(name string, lc *lineCounter, d *json.Decoder, err error, from int64) error {
+	var se *json.SyntaxError
+	if !errors.As(err, &se) {
+		return jsonErr(name, lc, d, err)
+	}
+	b := lc.since(from)
+	skip := 0
+	for skip < len(b) && (b[skip] == ' ' || b[skip] == '\t' || b[skip] == '\r' || b[skip] == '\n') {
+		skip++
+	}
+	if skip < len(b) && b[skip] == ',' {
+		skip++
+	}
+	var raw json.RawMessage
+	var se2 *json.SyntaxError
+	if uerr := json.Unmarshal(b[skip:], &raw); errors.As(uerr, &se2) && se2.Error() == se.Error() && se2.Offset > 0 && se2.Offset <= int64(len(b)-skip) {
+		line, col := lc.lineCol(from + int64(skip) + se2.Offset - 1)
+		return &PosError{File: name, Line: line, Column: col, Err: fmt.Errorf("bad JSON: %v", se2)}
+	}
+	return jsonErr(name, lc, d, err)
 }
 
 func jsonErr(name string, lc *lineCounter, d *json.Decoder, err error) error {

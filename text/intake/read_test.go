@@ -483,6 +483,24 @@ func TestEncodings(t *testing.T) {
 
 // TestJSON: JSON Lines (jsonlines.org: one JSON value per line, UTF-8) and RFC 8259
 // arrays of objects; the scalar-to-text rules are ours (package documentation).
+// TestJSONSyntaxPosition: a syntax error inside an array element names the line and
+// column of the offending byte (positions counted by hand, 1-based, in bytes as
+// encoding/csv counts columns); the messages are encoding/json's.
+func TestJSONSyntaxPosition(t *testing.T) {
+	tests := []struct{ in, want string }{
+		{"[\n{\"narrative\": \"x\"},\n{\"narrative\": \"y\",\n \"c\": 3 x}\n]", "a.json:4:9: bad JSON: invalid character 'x' after object key:value pair"},
+		{`[{"narrative": "a"}, {"b": 2 x}]`, "a.json:1:30: bad JSON: invalid character 'x' after object key:value pair"},
+		{`[{"narrative": "a"},,{"b": 2}]`, "a.json:1:21: bad JSON: invalid character ',' looking for beginning of value"},
+	}
+	for _, tt := range tests {
+		_, err := readOne(t, "a.json", tt.in, Options{})
+		var pe *PosError
+		if !errors.As(err, &pe) || !strings.HasSuffix(err.Error(), tt.want) {
+			t.Errorf("%q: %v, want …%s", tt.in, err, tt.want)
+		}
+	}
+}
+
 func TestJSON(t *testing.T) {
 	arr := `[
   {"id": 1, "narrative": "first", "nested": {"a": [1, 2]}, "flag": true},
