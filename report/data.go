@@ -176,6 +176,9 @@ type HiddenTheme struct {
 	Label string
 	// Line is the labels-file position of the "hide" line, e.g. "labels.txt:12".
 	Line string
+	// Size is the theme's size when it was hidden: its narratives still count in every
+	// total, so the page says how much of them the hidden theme holds.
+	Size Size
 }
 
 // Tree is the hierarchical clustering of the themes.

@@ -519,7 +519,7 @@ func Apply(d *Data, c *Curation, recompute Recompute) error {
 			continue
 		}
 		t := d.Themes[idx[st.Theme]]
-		d.Hidden = append(d.Hidden, HiddenTheme{ID: t.ID, Label: t.Label, Line: fmt.Sprintf("%s:%d", c.File, st.Pos.Line)})
+		d.Hidden = append(d.Hidden, HiddenTheme{ID: t.ID, Label: t.Label, Line: fmt.Sprintf("%s:%d", c.File, st.Pos.Line), Size: t.Size})
 		remove[st.Theme] = true
 		if i, ok := leaf[st.Theme]; ok {
 			d.Tree.Leaves[i].Label = t.Label + " (hidden)"

@@ -3,6 +3,7 @@ package report
 import (
 	"bytes"
 	"errors"
+	"fmt"
 	"math"
 	"strings"
 	"testing"
@@ -149,7 +150,7 @@ func TestApply(t *testing.T) {
 		}
 		return nil
 	}
-	before4, before7 := *byID(4), *byID(7)
+	before4, before7, before9 := *byID(4), *byID(7), *byID(9)
 	n := len(d.Themes)
 	c, err := ParseLabels("review.txt", strings.NewReader(
 		"theme 7: label = Arguments <b>at</b> home\ntheme 7: note = looked at 20\nmerge 4 into 7\nhide 9\n"))
@@ -172,7 +173,7 @@ func TestApply(t *testing.T) {
 	if len(t7.MergedFrom) != 1 || t7.MergedFrom[0] != 4 || t7.Months != nil || t7.SeriesNote == "" {
 		t.Errorf("merge not recorded: MergedFrom %v, %d months, note %q", t7.MergedFrom, len(t7.Months), t7.SeriesNote)
 	}
-	if len(d.Hidden) != 1 || d.Hidden[0].ID != 9 || d.Hidden[0].Line != "review.txt:4" {
+	if len(d.Hidden) != 1 || d.Hidden[0].ID != 9 || d.Hidden[0].Line != "review.txt:4" || d.Hidden[0].Size != before9.Size {
 		t.Errorf("Hidden = %+v", d.Hidden)
 	}
 	if d.Tree.Leaves[4].Label != before4.Label+" (merged into 7)" {
@@ -183,7 +184,8 @@ func TestApply(t *testing.T) {
 		t.Fatal(err)
 	}
 	page := buf.String()
-	for _, s := range []string{"Arguments &lt;b&gt;at&lt;/b&gt; home", "review.txt", "merged in by the reviewer", "Hidden by the reviewer"} {
+	hiddenSize := fmt.Sprintf("strongest theme of %s narratives", before9.Size.Dominant)
+	for _, s := range []string{"Arguments &lt;b&gt;at&lt;/b&gt; home", "review.txt", "merged in by the reviewer", "Hidden by the reviewer", hiddenSize, "still count in every total"} {
 		if !strings.Contains(page, s) {
 			t.Errorf("page lacks %q", s)
 		}
