@@ -3,6 +3,7 @@ package trend
 import (
 	"encoding/csv"
 	"os"
+	"path/filepath"
 	"slices"
 	"strconv"
 	"strings"
@@ -10,18 +11,17 @@ import (
 	"time"
 )
 
-// oshaPath is the public OSHA accident-abstract corpus (see /work/shared/corpora/SOURCES.md).
-const oshaPath = "/work/shared/corpora/osha-abstracts/osha.csv"
 
 // TestOSHACorpus runs the monthly series, the Poisson trend, Mann–Kendall and the group
 // chi-square on a real, open dataset: each abstract's "Event type" stands in for its
 // dominant theme (one-hot θ), "Degree of Injury" is the group. Expected values:
 // testdata/osha.json, made from the same CSV by testdata/gen_osha.py with Debian's
-// python3-statsmodels and python3-scipy. Skipped when the corpus is not on this machine.
+// python3-statsmodels and python3-scipy. Fails when the corpus is not found.
 func TestOSHACorpus(t *testing.T) {
+	oshaPath := filepath.Join(sharedCorpora(t), "osha-abstracts", "osha.csv")
 	f, err := os.Open(oshaPath)
 	if err != nil {
-		t.Skipf("corpus not available: %v", err)
+		t.Fatalf("corpus not available: %v", err)
 	}
 	defer f.Close()
 	recs, err := csv.NewReader(f).ReadAll()

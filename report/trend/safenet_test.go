@@ -11,19 +11,40 @@ import (
 	"time"
 )
 
-// safenetDir holds the public SAFENET reports (see /work/shared/corpora/SOURCES.md).
-const safenetDir = "/work/shared/corpora/safenet"
+// sharedCorpora finds the team's shared/corpora folder (SOURCES.md there names the
+// datasets): $UNDERCURRENT_SHARED/corpora, else the nearest parent folder holding
+// shared/corpora. It fails the test when there is none, so that a check on real data never
+// passes by being skipped.
+func sharedCorpora(tb testing.TB) string {
+	tb.Helper()
+	if d := os.Getenv("UNDERCURRENT_SHARED"); d != "" {
+		return filepath.Join(d, "corpora")
+	}
+	wd, _ := os.Getwd()
+	for d := wd; ; d = filepath.Dir(d) {
+		c := filepath.Join(d, "shared", "corpora")
+		if st, err := os.Stat(c); err == nil && st.IsDir() {
+			return c
+		}
+		if filepath.Dir(d) == d {
+			break
+		}
+	}
+	tb.Fatal("shared/corpora not found: set UNDERCURRENT_SHARED or put shared/ beside the repository")
+	return ""
+}
 
 // TestSAFENETCorpus runs the monthly series and the Farrington limits on 23 years of
 // real, seasonal reports: each report's "Event Incident Type" labels stand in for themes
 // (θ = 1/k over its k labels). Expected values: testdata/safenet.json, made from the same
 // files by testdata/gen_safenet.py (monthly figures by hand; Farrington limits by
-// gen_farrington.py around Debian's python3-statsmodels). Skipped when the corpus is
-// not on this machine.
+// gen_farrington.py around Debian's python3-statsmodels). Fails when the corpus is not
+// found.
 func TestSAFENETCorpus(t *testing.T) {
-	files, _ := filepath.Glob(filepath.Join(safenetDir, "SAFENET_*.csv"))
+	dir := filepath.Join(sharedCorpora(t), "safenet")
+	files, _ := filepath.Glob(filepath.Join(dir, "SAFENET_*.csv"))
 	if len(files) == 0 {
-		t.Skip("corpus not available")
+		t.Fatalf("%s: no SAFENET_*.csv", dir)
 	}
 	var fx struct {
 		Names       []string
