@@ -78,8 +78,12 @@
 // amd64, computing the same bits as the portable code, which -tags purego
 // selects). The matrix methods on vectors keep a full n×n matrix up to
 // n = 16384, so that the NN chain reads rows, and the condensed matrix
-// above; on Linux, large condensed matrices are advised to use transparent
-// huge pages, which speeds up their column reads.
+// above. On the condensed matrix the chain keeps, for every cluster, the
+// exact minimum of its column (the entries d(i, j), i < j, one per row)
+// and re-reads a column only when the merge of its minimum's row made it
+// stale, so a scan mostly reads one contiguous row; the merges are the
+// same as a full scan's. On Linux, large condensed matrices are advised to
+// use transparent huge pages, which speeds up the strided reads left.
 //
 // # Caution
 //
