@@ -91,10 +91,13 @@ type Corpus struct {
 	// Common lists the terms found in at least a quarter of the narratives before pruning
 	// (most frequent first, ties by term), for suggesting stopwords: SuggestStopwords.
 	Common []TermStat
-	Docs   int // narratives
-	Bytes  int // total raw bytes
-	Tokens int // tokens scanned (before policies, stopwords, pruning)
-	Terms  int // content term occurrences (after stopwords, before pruning)
+	// Sentences accounts for the boilerplate sentences set aside (nil when
+	// Settings.Sentences is off).
+	Sentences *SentenceReport `json:",omitempty"`
+	Docs      int             // narratives
+	Bytes     int             // total raw bytes
+	Tokens    int             // tokens scanned (before policies, stopwords, pruning)
+	Terms     int             // content term occurrences (after stopwords, before pruning)
 }
 
 // TermStat is a term with its display form and document frequency.
@@ -453,6 +456,16 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		return j
 	}
 
+	// The sentence step (Settings.Sentences): boilerplate sentences and repeats found on the
+	// text as scanned; pass 2 leaves their tokens out.
+	var bp *boilerplate
+	if s.Sentences.Enabled {
+		if bp, err = findBoilerplate(ctx, docs, &s); err != nil {
+			return nil, nil, err
+		}
+		c.Sentences = bp.report
+	}
+
 	// Pass 2: join, repair, lex → stem stream.
 	stemID := make(map[string]int32, len(surfs)/2+64)
 	var stemStr []string
@@ -572,6 +585,13 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		for d := lo; d < hi; d++ {
 			ss := stream[docOff[d]:docOff[d+1]]
 			start := len(out)
+			// drops are the narrative's set-aside sentences (token ranges, ascending); ti is
+			// the index of token ss[i] among the narrative's tokens.
+			var drops []sentRec
+			if bp != nil {
+				drops = bp.doc(d)
+			}
+			ti, di := -1, 0
 			for i := 0; i < len(ss); i++ {
 				id := ss[i]
 				if id < 0 {
@@ -580,14 +600,30 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 					}
 					continue
 				}
+				ti++
+				dropNext := false
+				if len(drops) > 0 {
+					for di < len(drops) && int(drops[di].hi) <= ti {
+						di++
+					}
+					if di < len(drops) && int(drops[di].lo) <= ti {
+						// Set aside: a break stands in its place.
+						if len(out) > start && out[len(out)-1] != -1 {
+							out = append(out, -1)
+						}
+						continue
+					}
+					dropNext = di < len(drops) && int(drops[di].lo) == ti+1
+				}
 				inf := &info[id]
 				joined := false
-				if inf.jp && i+1 < len(ss) && ss[i+1] >= 0 && info[ss[i+1]].js {
+				if inf.jp && i+1 < len(ss) && ss[i+1] >= 0 && info[ss[i+1]].js && !dropNext {
 					if j := joinable(id, ss[i+1], st.joinCache, &st.buf); j >= 0 {
 						st.joinCount[[2]int32{id, ss[i+1]}]++
 						id, joined = j, true
 						inf = &info[id]
 						i++
+						ti++
 					}
 				}
 				if !joined && inf.repair >= 0 {
@@ -1001,6 +1037,9 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		Phrases:  phrasePairs,
 		Repairs:  make(map[string]string),
 		Joins:    make(map[string]string),
+	}
+	if bp != nil {
+		f.Sentences = bp.keys
 	}
 	for k, n := range joinCount {
 		from := surfs[k[0]].text + " " + surfs[k[1]].text

@@ -267,6 +267,7 @@ func TestPhrasesAndDisplay(t *testing.T) {
 	docs = append(docs, "vehicles vehicles") // display: "vehicles" (41+2) beats "vehicle" (40)
 	s := DefaultSettings()
 	s.Routine = RoutineSettings{}
+	s.Sentences = SentenceSettings{} // the repeated sentences are the point here
 	s.Vocab.MaxDocShare = 1
 	c, f := build(t, docs, s)
 	idx := slices.Index(c.Vocab, "traffic_stop")

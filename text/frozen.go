@@ -1,9 +1,11 @@
 package text
 
 import (
+	"slices"
 	"strings"
 	"sync"
 
+	"undercurrent/text/sentences"
 	"undercurrent/text/sparse"
 	"undercurrent/text/weight"
 )
@@ -22,6 +24,11 @@ type Frozen struct {
 	Phrases  [][2]string       `json:"phrases"`  // stem pairs merged into one term, by score
 	Repairs  map[string]string `json:"repairs"`  // OCR repairs: rare word → frequent word
 	Joins    map[string]string `json:"joins"`    // split words: "a b" → "ab"
+	// Sentences are the boilerplate sentence keys found by Build (ascending; see
+	// SentenceReport.Keys): a sentence of a new narrative with one of these keys is set aside
+	// whatever the batch, as are repeats within a narrative when Settings.Sentences.Repeats.
+	// Absent in models made before the step (their settings have it off).
+	Sentences []string `json:"boilerplate_sentences,omitempty"`
 
 	mu       sync.Mutex
 	prepared bool
@@ -33,6 +40,11 @@ type Frozen struct {
 	joinLeft map[string]bool
 	items    []item
 	routine  map[string]bool
+	bpHash   map[uint64]bool
+	sp       splitter
+	recs     []sentRec
+	why      []uint8
+	drop     []bool
 }
 
 type item struct {
@@ -55,6 +67,8 @@ type Doc struct {
 	Spans   []Span        // one per entry of Terms
 	Content int           // content terms before vocabulary pruning
 	Routine RoutineReason // ShortContent or RoutineWords (near duplicates are found by Build only)
+	// SetAside counts the sentences set aside by the sentence step (boilerplate and repeats).
+	SetAside int `json:",omitempty"`
 }
 
 // Prepare builds the lookup tables. It returns an error when the settings are unusable.
@@ -100,8 +114,41 @@ func (f *Frozen) Prepare() error {
 			f.routine[p[0]+"_"+p[1]] = true // a phrase of routine words is routine
 		}
 	}
+	f.bpHash = make(map[uint64]bool, len(f.Sentences))
+	for _, k := range f.Sentences {
+		f.bpHash[sentences.Hash(k)] = true
+	}
 	f.prepared = true
 	return nil
+}
+
+// setAside marks in f.drop the tokens of the narrative just scanned that the sentence step sets
+// aside (the same judgement as Build's) and returns how many sentences it set aside; it
+// returns 0 and leaves f.drop nil when the step is off.
+func (f *Frozen) setAside() int {
+	ss := f.Settings.Sentences
+	f.drop = f.drop[:0]
+	if !ss.Enabled || (len(f.bpHash) == 0 && !ss.Repeats) {
+		f.drop = nil
+		return 0
+	}
+	f.recs = f.sp.split(f.recs[:0], &f.sc)
+	f.why = f.sp.judge(f.why, f.recs, func(h uint64) bool { return f.bpHash[h] }, ss.Repeats, ss.minTokens())
+	f.drop = slices.Grow(f.drop, len(f.sc.toks))[:len(f.sc.toks)]
+	clear(f.drop)
+	n := 0
+	for i, r := range f.recs {
+		if f.why[i] != sentKept {
+			n++
+			for t := r.lo; t < r.hi; t++ {
+				f.drop[t] = true
+			}
+		}
+	}
+	if n == 0 {
+		f.drop = nil
+	}
+	return n
 }
 
 func (f *Frozen) lex(text string, kind Kind) []lexWord {
@@ -134,17 +181,23 @@ func (f *Frozen) Transform(raw string) Doc {
 		}
 	}
 	joinOn := s.Repair.Enabled && !s.Repair.NoJoin && len(f.Joins) > 0
+	setAside := f.setAside()
+	drop := f.drop
 	toks := sc.toks
 	for i := 0; i < len(toks); i++ {
 		t := toks[i]
 		if t.brk {
 			brk()
 		}
+		if drop != nil && drop[i] {
+			brk() // set aside: a break stands in its place
+			continue
+		}
 		start, end := sc.nb.rawSpan(int(t.s), int(t.e))
 		b := sc.text[t.a:t.b]
 		var le []lexWord
 		replaced := false
-		if joinOn && i+1 < len(toks) && !toks[i+1].brk && f.joinLeft[string(b)] {
+		if joinOn && i+1 < len(toks) && !toks[i+1].brk && (drop == nil || !drop[i+1]) && f.joinLeft[string(b)] {
 			n := toks[i+1]
 			if j, ok := f.Joins[string(b)+" "+string(sc.text[n.a:n.b])]; ok {
 				le, replaced = f.lex(j, Word), true
@@ -172,7 +225,7 @@ func (f *Frozen) Transform(raw string) Doc {
 		}
 	}
 	f.items = items
-	var d Doc
+	d := Doc{SetAside: setAside}
 	allRoutine := len(f.routine) > 0
 	for k := 0; k < len(items); {
 		it := items[k]

@@ -5,6 +5,7 @@ import (
 
 	"undercurrent/text/phrase"
 	"undercurrent/text/routine"
+	"undercurrent/text/sentences"
 	"undercurrent/text/weight"
 )
 
@@ -17,7 +18,9 @@ const (
 	Placeholder Policy = "placeholder" // the token becomes "_number_", "_time_", "_date_" or "_code_", protected
 )
 
-// SettingsVersion is the version written into Settings by DefaultSettings.
+// SettingsVersion is the version written into Settings by DefaultSettings. Version 2 added
+// Sentences; settings of version 1 (saved with older models) have it zero, which is off, so
+// they process text exactly as before.
 const SettingsVersion = 1
 
 // Settings hold every choice the text pipeline makes. One value is saved with every model
@@ -35,6 +38,42 @@ type Settings struct {
 	Vocab   weight.Pruning  `json:"vocabulary"`
 	Weight  weight.Scheme   `json:"weighting"`
 	Routine RoutineSettings `json:"routine"`
+	// Sentences sets aside boilerplate sentences (version 2; absent, and off, in version 1).
+	Sentences SentenceSettings `json:"sentences,omitzero"`
+}
+
+// SentenceSettings choose which repeated sentences are kept out of the counts (package
+// sentences cuts and keys them). A sentence of at least MinTokens tokens whose key is found in
+// at least Threshold() narratives is boilerplate; with Repeats, so is the second and every
+// later occurrence of a sentence within one narrative. Their tokens are left out of the
+// counts (a break stands in their place, so no phrase or split-word join spans them); the
+// text, its offsets and everything shown from it are unchanged. Zero numeric values mean the
+// defaults given.
+type SentenceSettings struct {
+	Enabled bool `json:"enabled"` // zero (false): off
+	// MinNarratives: least number of narratives holding the key; zero means 20.
+	MinNarratives int `json:"min_narratives"`
+	// MinShare: least share of the narratives holding the key (rounded up); zero means 0.005.
+	MinShare float64 `json:"min_share"`
+	// MinTokens: shorter sentences are never set aside ("Yes."); zero means 2.
+	MinTokens int `json:"min_tokens"`
+	// Repeats also sets aside exact repeats of a sentence within one narrative (pasted twice);
+	// zero (false): off. DefaultSettings turns it on.
+	Repeats bool `json:"repeats"`
+}
+
+// Threshold is the number of narratives (of docs) a sentence's key must be found in to be
+// boilerplate: the larger of MinNarratives and MinShare·docs rounded up, and at least 2.
+func (s SentenceSettings) Threshold(docs int) int {
+	return sentences.Threshold(docs, orInt(s.MinNarratives, 20), orFloat(s.MinShare, 0.005))
+}
+
+func (s SentenceSettings) minTokens() int { return orInt(s.MinTokens, 2) }
+
+// Resolved returns s with every zero numeric value replaced by its default.
+func (s SentenceSettings) Resolved() SentenceSettings {
+	s.MinNarratives, s.MinShare, s.MinTokens = orInt(s.MinNarratives, 20), orFloat(s.MinShare, 0.005), s.minTokens()
+	return s
 }
 
 // TokenSettings are the token policies.
@@ -196,6 +235,9 @@ func (s Settings) Validate() error {
 	}
 	if h%b != 0 {
 		return fmt.Errorf("text: routine bands (%d) must divide hashes (%d)", b, h)
+	}
+	if ss := s.Sentences; ss.MinNarratives < 0 || ss.MinTokens < 0 || ss.MinShare < 0 || ss.MinShare > 1 {
+		return fmt.Errorf("text: sentences min_narratives (%d) and min_tokens (%d) must not be negative, min_share (%v) must be in [0,1]", ss.MinNarratives, ss.MinTokens, ss.MinShare)
 	}
 	if s.Vocab.MaxDocShare < 0 || s.Vocab.MaxDocShare > 1 {
 		return fmt.Errorf("text: vocabulary max_doc_share %v outside [0,1]", s.Vocab.MaxDocShare)

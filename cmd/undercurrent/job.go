@@ -508,6 +508,7 @@ func buildData(ctx context.Context, e *env, f *jobFlags, p *prepared, m *topics.
 	d.Methods = methods(f, p, m, k)
 	d.Cautions = cautionItems(redact.Cautions)
 	d.DataQuality = dataQuality(p, series)
+	sentenceQuality(&d.DataQuality, p, pub)
 	counts := map[string]int{}
 	for _, t := range redact.AllTypes() {
 		if c := p.counts.Of(t); c > 0 {
@@ -722,6 +723,7 @@ func methods(f *jobFlags, p *prepared, m *topics.Model, k int) report.Methods {
 	kv("minimum narratives per word", strconv.Itoa(s.Vocab.MinDocs))
 	kv("maximum share of narratives per word", fmtFloat(s.Vocab.MaxDocShare))
 	kv("stopword lists", strings.Join(s.Stop.Lists, ", "))
+	kv("boilerplate sentences set aside", sentenceSetting(s))
 	kv("date column", p.set.DateName+" ("+p.set.DateRead+")")
 	kv("narrative columns", strings.Join(p.set.TextNames, ", "))
 	kv("group columns", strings.Join(p.set.GroupNames, ", "))
@@ -860,6 +862,9 @@ func writeExports(ctx context.Context, f *jobFlags, p *prepared, m *topics.Model
 		return files, err
 	}
 	if err := add("repairs.csv", p.corpus.WriteAudit); err != nil {
+		return files, err
+	}
+	if err := add("boilerplate-sentences.csv", func(w io.Writer) error { return writeSentenceCSV(w, p.corpus.Sentences, pub) }); err != nil {
 		return files, err
 	}
 

@@ -33,6 +33,8 @@ type textFlags struct {
 	noRepair, noPhrases       bool
 	minDocs                   int
 	maxDocShare               float64
+	keepRepeated              bool // keep boilerplate sentences in the counts
+	repeatedIn                int  // narratives a sentence must be found in to be boilerplate
 }
 
 func (f *textFlags) register(fs *flag.FlagSet) {
@@ -42,6 +44,8 @@ func (f *textFlags) register(fs *flag.FlagSet) {
 	fs.StringVar(&f.words, "words", "", "file of correct words (local street and place names) that OCR repair may map to and never changes")
 	fs.BoolVar(&f.noRepair, "no-repair", false, "switch off OCR-noise repair")
 	fs.BoolVar(&f.noPhrases, "no-phrases", false, "switch off phrase (collocation) detection")
+	fs.BoolVar(&f.keepRepeated, "keep-repeated-sentences", false, "keep sentences repeated word for word across many narratives (disclaimers, sign-offs) and within one narrative in the counts; by default they are left out of fitting and listed in boilerplate-sentences.csv")
+	fs.IntVar(&f.repeatedIn, "repeated-in", 0, "a sentence found in at least this many narratives (and at least 0.5% of them) is boilerplate (default: the pipeline's, 20)")
 	fs.IntVar(&f.minDocs, "min-docs", 0, "drop words found in fewer narratives (default: the pipeline's)")
 	fs.Float64Var(&f.maxDocShare, "max-doc-share", 0, "drop words found in more than this share of narratives (default: the pipeline's)")
 }
@@ -117,6 +121,15 @@ func (f *textFlags) settings() (text.Settings, error) {
 	}
 	if f.noPhrases {
 		s.Phrases.Enabled = false
+	}
+	if f.keepRepeated {
+		s.Sentences.Enabled = false
+	}
+	if f.repeatedIn < 0 {
+		return s, usagef("-repeated-in %d: want at least 2", f.repeatedIn)
+	}
+	if f.repeatedIn > 0 {
+		s.Sentences.MinNarratives = f.repeatedIn
 	}
 	if f.minDocs > 0 {
 		s.Vocab.MinDocs = f.minDocs
@@ -264,6 +277,10 @@ func prepare(ctx context.Context, e *env, in *inputFlags, tf *textFlags, rf *red
 		return nil, err
 	}
 	p.corpus, p.frozen = corpus, frozen
+	if r := corpus.Sentences; r != nil {
+		fmt.Fprintf(e.stderr, "boilerplate sentences: %d found in at least %d narratives; %d sentences (%d repeats within a narrative), %d words set aside from the counts\n",
+			len(r.Keys), r.Threshold, r.Sentences, r.Repeats, r.Tokens)
+	}
 	p.abbrevN = map[string]int{}
 	for _, x := range corpus.Expansions {
 		p.abbrevN[x.Abbrev] += x.Count
