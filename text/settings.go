@@ -21,7 +21,7 @@ const (
 // SettingsVersion is the version written into Settings by DefaultSettings. Version 2 added
 // Sentences; settings of version 1 (saved with older models) have it zero, which is off, so
 // they process text exactly as before.
-const SettingsVersion = 1
+const SettingsVersion = 2
 
 // Settings hold every choice the text pipeline makes. One value is saved with every model
 // (it is JSON-serialisable), so that tagging new narratives later repeats exactly the same
@@ -50,7 +50,7 @@ type Settings struct {
 // text, its offsets and everything shown from it are unchanged. Zero numeric values mean the
 // defaults given.
 type SentenceSettings struct {
-	Enabled bool `json:"enabled"` // zero (false): off
+	Enabled bool `json:"enabled"` // zero (false): off; DefaultSettings leaves it off
 	// MinNarratives: least number of narratives holding the key; zero means 20.
 	MinNarratives int `json:"min_narratives"`
 	// MinShare: least share of the narratives holding the key (rounded up); zero means 0.005.
@@ -58,7 +58,7 @@ type SentenceSettings struct {
 	// MinTokens: shorter sentences are never set aside ("Yes."); zero means 2.
 	MinTokens int `json:"min_tokens"`
 	// Repeats also sets aside exact repeats of a sentence within one narrative (pasted twice);
-	// zero (false): off. DefaultSettings turns it on.
+	// zero (false): off. The command turns it on with the step.
 	Repeats bool `json:"repeats"`
 }
 
@@ -204,6 +204,9 @@ func DefaultSettings() Settings {
 			MinShortGroup: 10,
 			Settings:      routine.Settings{Shingle: 3, Hashes: 32, Bands: 8, Threshold: 0.8, Seed: 1},
 		},
+		// Sentences stays off (zero): on the demo corpus, whose themes repeat their own
+		// sentences word for word, setting repeated sentences aside cost theme quality (see
+		// the README); switch it on with Sentences.Enabled (and Repeats).
 	}
 }
 

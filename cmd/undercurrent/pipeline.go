@@ -33,7 +33,7 @@ type textFlags struct {
 	noRepair, noPhrases       bool
 	minDocs                   int
 	maxDocShare               float64
-	keepRepeated              bool // keep boilerplate sentences in the counts
+	setAsideRepeated          bool // leave boilerplate sentences out of the counts
 	repeatedIn                int  // narratives a sentence must be found in to be boilerplate
 }
 
@@ -44,8 +44,8 @@ func (f *textFlags) register(fs *flag.FlagSet) {
 	fs.StringVar(&f.words, "words", "", "file of correct words (local street and place names) that OCR repair may map to and never changes")
 	fs.BoolVar(&f.noRepair, "no-repair", false, "switch off OCR-noise repair")
 	fs.BoolVar(&f.noPhrases, "no-phrases", false, "switch off phrase (collocation) detection")
-	fs.BoolVar(&f.keepRepeated, "keep-repeated-sentences", false, "keep sentences repeated word for word across many narratives (disclaimers, sign-offs) and within one narrative in the counts; by default they are left out of fitting and listed in boilerplate-sentences.csv")
-	fs.IntVar(&f.repeatedIn, "repeated-in", 0, "a sentence found in at least this many narratives (and at least 0.5% of them) is boilerplate (default: the pipeline's, 20)")
+	fs.BoolVar(&f.setAsideRepeated, "set-aside-repeated-sentences", false, "leave sentences repeated word for word across many narratives (disclaimers, sign-offs, procedure) or within one narrative out of the counts, and list them in boilerplate-sentences.csv; off by default, because a sentence many writers legitimately repeat is set aside too")
+	fs.IntVar(&f.repeatedIn, "repeated-in", 0, "with -set-aside-repeated-sentences: a sentence found in at least this many narratives (and at least 0.5% of them) is boilerplate (default 20)")
 	fs.IntVar(&f.minDocs, "min-docs", 0, "drop words found in fewer narratives (default: the pipeline's)")
 	fs.Float64Var(&f.maxDocShare, "max-doc-share", 0, "drop words found in more than this share of narratives (default: the pipeline's)")
 }
@@ -122,8 +122,8 @@ func (f *textFlags) settings() (text.Settings, error) {
 	if f.noPhrases {
 		s.Phrases.Enabled = false
 	}
-	if f.keepRepeated {
-		s.Sentences.Enabled = false
+	if f.setAsideRepeated {
+		s.Sentences.Enabled, s.Sentences.Repeats = true, true
 	}
 	if f.repeatedIn < 0 {
 		return s, usagef("-repeated-in %d: want at least 2", f.repeatedIn)

@@ -26,7 +26,7 @@ const sentenceTop = 15
 func sentenceQuality(dq *report.DataQuality, p *prepared, pub trend.Publish) {
 	r := p.corpus.Sentences
 	if r == nil {
-		dq.Notes = append(dq.Notes, "Repeated (boilerplate) sentences were kept in the counts (the step was switched off).")
+		dq.Notes = append(dq.Notes, "Sentences repeated word for word across many narratives (boilerplate) were kept in the counts; -set-aside-repeated-sentences leaves them out of fitting and lists them.")
 		return
 	}
 	dq.Notes = append(dq.Notes, fmt.Sprintf("Sentences found word for word in at least %d narratives (boilerplate: disclaimers, sign-offs, procedure), and sentences repeated within one narrative, were left out of fitting the themes; they stay in the text and in every example shown. %d distinct sentences were judged boilerplate; %d sentence occurrences (%d of them repeats within a narrative) and %d words were set aside; each boilerplate sentence is listed in boilerplate-sentences.csv. Boilerplate is judged by repetition alone: a sentence many writers legitimately repeat is set aside too, so review the list.",
