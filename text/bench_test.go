@@ -153,6 +153,13 @@ func BenchmarkPipeline1M(b *testing.B) {
 func BenchmarkPipeline(b *testing.B) {
 	b.Run("osha", func(b *testing.B) { benchBuild(b, "osha", loadOSHA(b, 0)) })
 	b.Run("generated-100k", func(b *testing.B) { benchBuild(b, "generated-100k", genCorpus(100000, 1)) })
+	// "-sentences": with the boilerplate-sentence step on (off by default).
+	withSentences := DefaultSettings()
+	withSentences.Sentences = SentenceSettings{Enabled: true, Repeats: true}
+	b.Run("osha-sentences", func(b *testing.B) { benchBuildWith(b, "osha-sentences", loadOSHA(b, 0), withSentences) })
+	b.Run("generated-100k-sentences", func(b *testing.B) {
+		benchBuildWith(b, "generated-100k-sentences", genCorpus(100000, 1), withSentences)
+	})
 	b.Run("osha-core", func(b *testing.B) { benchBuildWith(b, "osha-core", loadOSHA(b, 0), coreSettings()) })
 	b.Run("generated-100k-core", func(b *testing.B) {
 		benchBuildWith(b, "generated-100k-core", genCorpus(100000, 1), coreSettings())
