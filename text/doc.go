@@ -20,6 +20,12 @@
 //
 // Corpus-level (Build), in this order after the above:
 //
+//  0. Boilerplate sentences (Settings.Sentences; off by default): every narrative is cut into
+//     sentences at the punctuation between its tokens and each sentence keyed by its words
+//     (package sentences); a key found in enough narratives, and with Repeats a sentence
+//     repeated within its narrative, is set aside: its tokens never reach the steps below
+//     and a break stands in their place. The keys are saved in the Frozen pipeline, so tagging
+//     sets the same sentences aside; Corpus.Sentences accounts for them.
 //  4. Split words rejoined ("veh icle" → vehicle) when the join is a frequent corpus word and
 //     neither part is; OCR repair of rare words to a frequent word or a user word (package
 //     repair), only when unambiguous. Every correction is counted in Corpus.Audit
