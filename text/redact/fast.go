@@ -1,6 +1,9 @@
 package redact
 
-import "regexp"
+import (
+	"regexp"
+	"unicode/utf8"
+)
 
 // Speed helpers for the pattern detectors. Nothing here changes what is found: mayMatch
 // only skips windows in which a pattern provably cannot match (or whose matches every
@@ -177,3 +180,58 @@ func equalFoldASCII(a, lw string) bool {
 	}
 	return true
 }
+
+// findAll returns re.FindAllStringSubmatchIndex(win, -1), computed faster for crossRe.
+func findAll(re *regexp.Regexp, win string) [][]int {
+	if re == crossRe {
+		return findAllCross(win)
+	}
+	return re.FindAllStringSubmatchIndex(win, -1)
+}
+
+// crossAtRe is crossRe anchored at the start of its input.
+var crossAtRe = regexp.MustCompile(`^(?:` + crossRe.String() + `)`)
+
+// findAllCross returns crossRe.FindAllStringSubmatchIndex(w, -1) by trying crossAtRe only
+// at the positions where a match of crossRe can start, instead of letting the regexp
+// package's NFA (crossRe is too large for its backtracker) carry a thread from every
+// position of the window.
+//
+// Why this gives the same matches: FindAll takes, from the end of the previous match, the
+// leftmost start at which crossRe matches and, there, the match a backtracking engine
+// would choose; crossAtRe on w[s:] finds exactly the match crossRe prefers at s, provided
+// the two see the same context. The pattern is (?:^|[^A-Za-z0-9])(street...), and a
+// street begins with an ASCII digit or capital (see streetPat), so a match starts either
+// at 0 with such a byte (the ^ branch) or at a rune that is not an ASCII letter or digit
+// and is followed by such a byte. At such an s > 0 the ^ branch of crossAtRe cannot
+// match either, since w[s] is no digit or capital; nothing else in the pattern looks
+// before its own start, and its end sees the same text. Positions are visited rune by
+// rune as the regexp package steps through its input (invalid bytes one at a time), and
+// crossRe never matches the empty string.
+func findAllCross(w string) [][]int {
+	var out [][]int
+	for s := 0; s < len(w); {
+		r, n := utf8.DecodeRuneInString(w[s:])
+		try := s == 0 && isStreetStart(w[0])
+		if !try && !(r < utf8.RuneSelf && isAlnumByte(byte(r))) {
+			try = s+n < len(w) && isStreetStart(w[s+n])
+		}
+		if try {
+			if m := crossAtRe.FindStringSubmatchIndex(w[s:]); m != nil {
+				for i := range m {
+					if m[i] >= 0 {
+						m[i] += s
+					}
+				}
+				out = append(out, m)
+				s = m[1]
+				continue
+			}
+		}
+		s += n
+	}
+	return out
+}
+
+// isStreetStart reports whether b can begin streetPat: an ASCII digit or capital.
+func isStreetStart(b byte) bool { return isDigitByte(b) || isUpperByte(b) }

@@ -82,7 +82,7 @@ func (d *doc) scan(re *regexp.Regexp, trig []int, before, after int, f func(m []
 		}
 		ms, ok := d.memo.get(re, win)
 		if !ok {
-			ms = re.FindAllStringSubmatchIndex(win, -1)
+			ms = findAll(re, win)
 			d.memo.put(re, win, ms)
 		}
 		for _, m := range ms {
