@@ -168,7 +168,8 @@ func (r *Redactor) pass(text string, memo *scanMemo) []Span {
 	if strings.ContainsAny(view, "&<") {
 		view = htmlView.Replace(view)
 	}
-	d := &doc{text: ocrCues(view), orig: text, r: r, masks: masks, memo: memo}
+	d := &doc{text: ocrCues(view), orig: text, r: r, masks: masks, memo: memo, bufs: docPool.Get().(*docBufs)}
+	defer d.release()
 	d.tokenize()
 	var cs []cand
 	t := r.opt.Types
