@@ -103,27 +103,6 @@ func (d *doc) shifted(m []int, off int) []int {
 	return d.scratch
 }
 
-// anchored returns re with its matches tied to the start of the input, for scanAt, or re
-// itself when it has no such version. scanAt keeps only a match that starts at 0, and the
-// match an anchored pattern finds at 0 is the one re finds there (the regexp package gives
-// the leftmost match and, at its start, the one a backtracking engine would choose); an
-// anchored search just does not try every later start of a window that has none at 0.
-// Memo entries stay keyed by re.
-func anchored(re *regexp.Regexp) *regexp.Regexp {
-	switch re {
-	case addressRe:
-		return addressAtRe
-	case blockRe:
-		return blockAtRe
-	}
-	return re
-}
-
-var (
-	addressAtRe = regexp.MustCompile(`^(?:` + addressRe.String() + `)`)
-	blockAtRe   = regexp.MustCompile(`^(?:` + blockRe.String() + `)`)
-)
-
 // scanAt runs re, anchored at each trigger, over [t, t+after) widened forward to
 // whitespace, and calls f with the absolute offsets of a match that starts at t. The small
 // windows let the regexp package use its backtracker instead of its slower NFA for
@@ -152,7 +131,7 @@ func (d *doc) scanAt(re *regexp.Regexp, trig []int, after int, f func(m []int)) 
 				m = ms[0]
 			}
 		} else {
-			m = anchored(re).FindStringSubmatchIndex(win)
+			m = pick(re, win, true).FindStringSubmatchIndex(win)
 			if m == nil {
 				d.memo.put(re, win, nil)
 			} else {
