@@ -164,7 +164,7 @@ func (d *doc) addresses(cs []cand) []cand {
 	d.scan(crossRe, cross, 64, 80, sub)
 	// "at Marrowell and Quennel": two bare street names after "at", "near", "to" ...; each must be an
 	// ordinal or a word that is not an ordinary word or a given name.
-	d.scan(atAndRe, d.triggers(func(i int) bool { return d.toks[i].kind == tWord && atAndPreps[d.lower[i]] && d.pairAhead(i+1) }), 0, 64, func(m []int) {
+	d.scan(atAndRe, d.triggers(func(i int) bool { return d.flags[i]&fAtAnd != 0 && d.pairAhead(i+1) }), 0, 64, func(m []int) {
 		listsOnce.Do(loadLists)
 		for _, g := range [][2]int{{m[4], m[5]}, {m[6], m[7]}} {
 			w := d.text[g[0]:g[1]]

@@ -355,9 +355,13 @@ const (
 	fCase                       // a case-number cue word
 	fCorner                     // "corner", "intersection"
 	fSuffix                     // a street suffix
+	fTitle                      // a title before a name (titleWords)
+	fNameCue                    // the first word of a name cue (cuesByFirst)
+	fAtAnd                      // a preposition before a bare street pair (atAndPreps)
 )
 
-// cueFlags maps lower-case words to their flags, so that each word is looked up once.
+// cueFlags maps lower-case words to their flags, so that each word is looked up once (in
+// tokenize) rather than in each set by each detector.
 var cueFlags = func() map[string]lexFlag {
 	m := map[string]lexFlag{}
 	for f, set := range map[lexFlag]map[string]bool{fDOB: dobTrig, fAge1: ageTrig1, fAge2: ageTrig2, fPlate: plateTrig, fCase: caseTrig, fCorner: cornerTrig} {
@@ -367,6 +371,15 @@ var cueFlags = func() map[string]lexFlag {
 	}
 	for w := range streetSuffixes {
 		m[w] |= fSuffix
+	}
+	for w := range titleWords {
+		m[w] |= fTitle
+	}
+	for w := range cuesByFirst {
+		m[w] |= fNameCue
+	}
+	for w := range atAndPreps {
+		m[w] |= fAtAnd
 	}
 	return m
 }()
