@@ -341,7 +341,7 @@ func (d *doc) names(cs []cand) []cand {
 		}
 		lw := d.lower[i]
 		// titles: "Mr. Quosby", "Dr Ann Lee"; but "Pellinger Dr. Parking ..." is a street.
-		if titleWords[lw] && !(lw == "dr" && i > 0 && d.toks[i-1].kind != tPunct && (d.toks[i-1].kind == tNum || capitalised(d.word(i-1)) || allUpper(d.word(i-1)) || ordinalRe.MatchString(d.word(i-1)))) {
+		if d.flags[i]&fTitle != 0 && !(lw == "dr" && i > 0 && d.toks[i-1].kind != tPunct && (d.toks[i-1].kind == tNum || capitalised(d.word(i-1)) || allUpper(d.word(i-1)) || ordinalRe.MatchString(d.word(i-1)))) {
 			j := i + 1
 			if d.isPunct(j, ".") {
 				if fullTitle[lw] {
@@ -364,7 +364,10 @@ func (d *doc) names(cs []cand) []cand {
 			}
 			continue
 		}
-		cues := cuesByFirst[lw]
+		var cues [][]string
+		if d.flags[i]&fNameCue != 0 {
+			cues = cuesByFirst[lw]
+		}
 		if len(lw) >= 8 && cues == nil && !lexicon.Has(lw) {
 			cues = cuesByFirst[longCues[lw[:8]]] // "identifiecl as": OCR noise in a long cue
 		}

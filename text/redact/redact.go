@@ -168,7 +168,8 @@ func (r *Redactor) pass(text string, memo *scanMemo) []Span {
 	if strings.ContainsAny(view, "&<") {
 		view = htmlView.Replace(view)
 	}
-	d := &doc{text: ocrCues(view), orig: text, r: r, masks: masks, memo: memo}
+	d := &doc{text: ocrCues(view), orig: text, r: r, masks: masks, memo: memo, bufs: docPool.Get().(*docBufs)}
+	defer d.release()
 	d.tokenize()
 	var cs []cand
 	t := r.opt.Types
@@ -217,6 +218,14 @@ var htmlView = strings.NewReplacer(
 var cueWords = []string{"case", "plate", "registration", "report", "incident", "birth", "phone",
 	"victim", "suspect", "witness", "caller", "identified", "complainant", "driver", "named"}
 
+// cuesByLen lists cueWords by length, each list in cueWords' order.
+var cuesByLen = func() (t [16][]string) {
+	for _, c := range cueWords {
+		t[len(c)] = append(t[len(c)], c)
+	}
+	return t
+}()
+
 // ocrCues returns text with each word that is not a dictionary word (or is one, before "#")
 // but differs from a cue
 // word in exactly one letter of the same length ("casc", "platc", "registrati0n") spelled
@@ -252,7 +261,7 @@ func ocrCues(text string) string {
 			// both parts are ASCII letters and digits: lower-case them byte by byte into
 			// a small buffer; no cue is longer than it.
 			var jb [16]byte
-			if n := (j - i) + (m - k); m > k && n <= len(jb) && splitCues[string(lowerASCIIInto(jb[:0], text[i:j], text[k:m]))] {
+			if n := (j - i) + (m - k); m > k && n <= len(jb) && splitLens[lowerByte(text[i])]&(1<<n) != 0 && splitCues[string(lowerASCIIInto(jb[:0], text[i:j], text[k:m]))] {
 				joined := lowerASCIIInto(jb[:0], text[i:j], text[k:m])
 				if b == nil {
 					b = []byte(text)
@@ -290,6 +299,34 @@ func lowerASCIIInto(dst []byte, parts ...string) []byte {
 // splitCues are the cue words ocrCues rejoins when split.
 var splitCues = set("case plate registration report incident birth phone victim suspect witness caller identified complainant driver named number stated")
 
+// splitLens has bit n of entry c set when a word of splitCues starts with the byte c and
+// has n bytes: a pair of words that cannot join into a cue is rejected without building
+// and looking up the joined word.
+var splitLens = byFirstAndLen(splitCues)
+
+// byFirstAndLen returns, for the words of set (each shorter than 64 bytes), a table whose
+// entry c has bit n set when some word starts with byte c and has n bytes.
+func byFirstAndLen[V any](set map[string]V) *[256]uint64 {
+	var t [256]uint64
+	for w := range set {
+		if len(w) >= 64 {
+			panic("redact: word too long for byFirstAndLen: " + w)
+		}
+		if w != "" {
+			t[w[0]] |= 1 << len(w)
+		}
+	}
+	return &t
+}
+
+// lowerByte lower-cases an ASCII capital.
+func lowerByte(c byte) byte {
+	if c >= 'A' && c <= 'Z' {
+		c += 'a' - 'A'
+	}
+	return c
+}
+
 // splitGap returns the start of the next word and the gap's length when text[j:] is a
 // single space, or "-" followed by a space or a line break, before a letter or digit.
 func splitGap(text string, j int) (int, int) {
@@ -313,13 +350,10 @@ func hashAfter(text string, j int) bool {
 // ocrCue returns the cue word that w (one letter off) stands for, or "". A dictionary word
 // ("ease") counts only when "#" follows it, as in "ease #24-085853".
 func ocrCue(w string, hash bool) string {
-	if len(w) != 4 && len(w) != 5 && len(w) != 6 && len(w) != 7 && len(w) != 8 && len(w) != 10 && len(w) != 11 && len(w) != 12 {
+	if len(w) >= len(cuesByLen) {
 		return ""
 	}
-	for _, c := range cueWords {
-		if len(c) != len(w) {
-			continue
-		}
+	for _, c := range cuesByLen[len(w)] {
 		diff, digits := 0, 0
 		for k := 0; k < len(c) && diff < 2; k++ {
 			b := w[k]

@@ -82,7 +82,7 @@ func (d *doc) scan(re *regexp.Regexp, trig []int, before, after int, f func(m []
 		}
 		ms, ok := d.memo.get(re, win)
 		if !ok {
-			ms = re.FindAllStringSubmatchIndex(win, -1)
+			ms = findAll(re, win)
 			d.memo.put(re, win, ms)
 		}
 		for _, m := range ms {
@@ -131,7 +131,7 @@ func (d *doc) scanAt(re *regexp.Regexp, trig []int, after int, f func(m []int)) 
 				m = ms[0]
 			}
 		} else {
-			m = re.FindStringSubmatchIndex(win)
+			m = pick(re, win, true).FindStringSubmatchIndex(win)
 			if m == nil {
 				d.memo.put(re, win, nil)
 			} else {

@@ -42,13 +42,17 @@ var streetSuffixes = map[string]string{
 }
 
 // suffixPat is a regexp alternation of the suffixes, longest first.
-func suffixPat() string {
+func suffixPat() string { return suffixAlternation(true) }
+
+// suffixAlternation is the suffixes as a case-insensitive regexp alternation, longest first
+// or, for the ASCII variants of the patterns (see fastRe), in alphabetical order.
+func suffixAlternation(longestFirst bool) string {
 	ks := make([]string, 0, len(streetSuffixes))
 	for k := range streetSuffixes {
 		ks = append(ks, k)
 	}
 	sort.Slice(ks, func(i, j int) bool {
-		if len(ks[i]) != len(ks[j]) {
+		if longestFirst && len(ks[i]) != len(ks[j]) {
 			return len(ks[i]) > len(ks[j])
 		}
 		return ks[i] < ks[j]
@@ -61,15 +65,32 @@ var (
 	streetWord  = `(?:[0-9]{1,3}(?i:st|nd|rd|th)|[A-Z][A-Za-z'-]*)`
 	directional = `(?:(?:[NSEW]|NE|NW|SE|SW|North|South|East|West|NORTH|SOUTH|EAST|WEST)\.?\s)`
 	unitPat     = `(?:,?\s(?i:apt|apartment|unit|suite|ste|rm|room|lot|bldg|#)\.?\s?#?\s?[A-Za-z0-9-]{1,6}\b)`
-	streetPat   = directional + `?(?:` + streetWord + `\s){1,3}` + suffixPat() + `\b\.?`
+
+	addressRe, blockRe, crossRe, cornerRe = compileStreetPatterns(suffixPat())
+)
+
+// streetPatWith is a street name: an optional directional, one to three name words and a
+// suffix from the alternation sp.
+func streetPatWith(sp string) string {
+	return directional + `?(?:` + streetWord + `\s){1,3}` + sp + `\b\.?`
+}
+
+// compileStreetPatterns compiles the patterns that hold a suffix alternation, built on sp.
+// Every use of sp is followed by \b.
+func compileStreetPatterns(sp string) (address, block, cross, corner *regexp.Regexp) {
+	street := streetPatWith(sp)
 	// house number + street + suffix, optional trailing directional and unit.
-	addressRe = regexp.MustCompile(`\b[0-9]{1,6}[A-Za-z]?(?:-[0-9]{1,5})?\s` + streetPat + `(?:\s(?:[NSEW]|NE|NW|SE|SW)\b)?` + unitPat + `?`)
+	address = regexp.MustCompile(`\b[0-9]{1,6}[A-Za-z]?(?:-[0-9]{1,5})?\s` + street + `(?:\s(?:[NSEW]|NE|NW|SE|SW)\b)?` + unitPat + `?`)
 	// "the 100 block of Main St": the block number and street.
-	blockRe = regexp.MustCompile(`\b[0-9]{1,6}\s(?i:block)\s(?i:of)\s` + directional + `?(?:` + streetWord + `\s?){1,3}(?:` + suffixPat() + `\b)?\.?`)
+	block = regexp.MustCompile(`\b[0-9]{1,6}\s(?i:block)\s(?i:of)\s` + directional + `?(?:` + streetWord + `\s?){1,3}(?:` + sp + `\b)?\.?`)
 	// "Elm St and 4th Ave".
-	crossRe = regexp.MustCompile(`(?:^|[^A-Za-z0-9])(` + streetPat + `\s?(?:(?i:and|at)|&|/|@)\s?` + streetPat + `)`)
+	cross = regexp.MustCompile(`(?:^|[^A-Za-z0-9])(` + street + `\s?(?:(?i:and|at)|&|/|@)\s?` + street + `)`)
 	// "the corner of Elm and Oak", "intersection of Main St & 4th Ave".
-	cornerRe   = regexp.MustCompile(`(?i:corner|intersection)\s(?i:of)\s(` + streetWord + `(?:\s` + streetWord + `){0,2}(?:\s` + suffixPat() + `\b\.?)?\s?(?:(?i:and)|&|/)\s?` + streetWord + `(?:\s` + streetWord + `){0,2}(?:\s` + suffixPat() + `\b\.?)?)`)
+	corner = regexp.MustCompile(`(?i:corner|intersection)\s(?i:of)\s(` + streetWord + `(?:\s` + streetWord + `){0,2}(?:\s` + sp + `\b\.?)?\s?(?:(?i:and)|&|/)\s?` + streetWord + `(?:\s` + streetWord + `){0,2}(?:\s` + sp + `\b\.?)?)`)
+	return address, block, cross, corner
+}
+
+var (
 	atAndPreps = set("at near to on from")
 	atAndRe    = regexp.MustCompile(`\b(?i:at|near|to|on|from)\s((` + streetWord + `)\s?(?:(?i:and)|&)\s?(` + streetWord + `))\b(?:\s[A-Z])?`)
 	ordinalRe  = regexp.MustCompile(`^[0-9]{1,3}(?i:st|nd|rd|th)$`)
@@ -143,7 +164,7 @@ func (d *doc) addresses(cs []cand) []cand {
 	d.scan(crossRe, cross, 64, 80, sub)
 	// "at Marrowell and Quennel": two bare street names after "at", "near", "to" ...; each must be an
 	// ordinal or a word that is not an ordinary word or a given name.
-	d.scan(atAndRe, d.triggers(func(i int) bool { return d.toks[i].kind == tWord && atAndPreps[d.lower[i]] && d.pairAhead(i+1) }), 0, 64, func(m []int) {
+	d.scan(atAndRe, d.triggers(func(i int) bool { return d.flags[i]&fAtAnd != 0 && d.pairAhead(i+1) }), 0, 64, func(m []int) {
 		listsOnce.Do(loadLists)
 		for _, g := range [][2]int{{m[4], m[5]}, {m[6], m[7]}} {
 			w := d.text[g[0]:g[1]]

@@ -2,6 +2,7 @@ package redact
 
 import (
 	"strings"
+	"sync"
 	"unicode"
 	"unicode/utf8"
 )
@@ -35,7 +36,34 @@ type doc struct {
 	allowIv   intervals
 	memo      *scanMemo // pattern matches of earlier passes; may be nil
 	scratch   []int     // see shifted
+	bufs      *docBufs  // arrays to reuse for toks, lower and flags; may be nil
 	valid     uint8     // 1: text is valid UTF-8, 2: it is not, 0: not yet known
+}
+
+// docBufs holds the token arrays of a finished pass for the next one (of any narrative):
+// a pass allocates them in proportion to the text, and that was most of the bytes Redact
+// allocated. Nothing a pass returns refers to them.
+type docBufs struct {
+	toks  []tok
+	lower []string
+	flags []lexFlag
+}
+
+var docPool = sync.Pool{New: func() any { return new(docBufs) }}
+
+// release gives d's token arrays back to docPool; d must not be used after it.
+func (d *doc) release() {
+	b := d.bufs
+	if b == nil {
+		return
+	}
+	d.bufs = nil
+	// keep arrays of ordinary size only, so one huge narrative does not pin its arrays.
+	if cap(d.toks) <= 1<<14 && cap(d.lower) <= 1<<14 {
+		clear(d.lower) // drop references to the text
+		b.toks, b.lower, b.flags = d.toks[:0], d.lower[:0], d.flags[:0]
+		docPool.Put(b)
+	}
 }
 
 func (d *doc) tokenize() {
@@ -43,7 +71,11 @@ func (d *doc) tokenize() {
 	upper, letters := 0, 0
 	nl := 0
 	if d.toks == nil {
-		d.toks = make([]tok, 0, len(text)/4+1)
+		if d.bufs != nil && cap(d.bufs.toks) > 0 {
+			d.toks = d.bufs.toks[:0]
+		} else {
+			d.toks = make([]tok, 0, len(text)/4+1)
+		}
 	}
 	for i := 0; i < len(text); {
 		// ASCII fast path; the same classes as the unicode tests below.
@@ -155,8 +187,14 @@ func (d *doc) tokenize() {
 		}
 		i = j
 	}
-	d.lower = make([]string, len(d.toks))
-	d.flags = make([]lexFlag, len(d.toks))
+	if b := d.bufs; b != nil && cap(b.lower) >= len(d.toks) && cap(b.flags) >= len(d.toks) {
+		d.lower, d.flags = b.lower[:len(d.toks)], b.flags[:len(d.toks)]
+		clear(d.lower)
+		clear(d.flags)
+	} else {
+		d.lower = make([]string, len(d.toks))
+		d.flags = make([]lexFlag, len(d.toks))
+	}
 	// lower-case words: ASCII words with capitals are lowered into one buffer (one
 	// allocation), words already in lower case are slices of the text, others go through
 	// strings.ToLower; all equal strings.ToLower of the word.
@@ -206,8 +244,9 @@ func (d *doc) tokenize() {
 		}
 	}
 	for i, t := range d.toks {
-		if t.kind == tWord && len(d.lower[i]) <= maxCueLen {
-			d.flags[i] = cueFlags[d.lower[i]]
+		// most words cannot be in cueFlags by their first byte and length: skip the map.
+		if lw := d.lower[i]; t.kind == tWord && len(lw) <= maxCueLen && cueLens[lw[0]]&(1<<len(lw)) != 0 {
+			d.flags[i] = cueFlags[lw]
 		}
 	}
 	d.caps = letters >= 12 && upper*10 >= letters*7
@@ -316,9 +355,13 @@ const (
 	fCase                       // a case-number cue word
 	fCorner                     // "corner", "intersection"
 	fSuffix                     // a street suffix
+	fTitle                      // a title before a name (titleWords)
+	fNameCue                    // the first word of a name cue (cuesByFirst)
+	fAtAnd                      // a preposition before a bare street pair (atAndPreps)
 )
 
-// cueFlags maps lower-case words to their flags, so that each word is looked up once.
+// cueFlags maps lower-case words to their flags, so that each word is looked up once (in
+// tokenize) rather than in each set by each detector.
 var cueFlags = func() map[string]lexFlag {
 	m := map[string]lexFlag{}
 	for f, set := range map[lexFlag]map[string]bool{fDOB: dobTrig, fAge1: ageTrig1, fAge2: ageTrig2, fPlate: plateTrig, fCase: caseTrig, fCorner: cornerTrig} {
@@ -329,8 +372,21 @@ var cueFlags = func() map[string]lexFlag {
 	for w := range streetSuffixes {
 		m[w] |= fSuffix
 	}
+	for w := range titleWords {
+		m[w] |= fTitle
+	}
+	for w := range cuesByFirst {
+		m[w] |= fNameCue
+	}
+	for w := range atAndPreps {
+		m[w] |= fAtAnd
+	}
 	return m
 }()
+
+// cueLens has bit n of entry c set when a word of cueFlags starts with the byte c and has n
+// bytes (see byFirstAndLen).
+var cueLens = byFirstAndLen(cueFlags)
 
 // maxCueLen is the length of the longest word in cueFlags.
 var maxCueLen = func() int {
