@@ -37,6 +37,52 @@ func TightGroups(x [][]float64, eps float64, minSize int, s *Settings) ([]Group,
 	if eps < 0 || minSize < 1 {
 		panic("cluster: TightGroups needs eps ≥ 0 and minSize ≥ 1")
 	}
+	sets, err := LinkedSets(x, eps, minSize, s)
+	if err != nil {
+		return nil, err
+	}
+	var out []Group
+	for _, rows := range sets {
+		if len(rows) > MaxComponent {
+			return nil, fmt.Errorf("cluster: %d rows are chained within distance %v (more than %d); use a smaller eps", len(rows), eps, MaxComponent)
+		}
+		sub := make([][]float64, len(rows))
+		for k, i := range rows {
+			sub[k] = x[i]
+		}
+		dist := EuclideanCondensed(nil, sub, s)
+		t, err := Link(dist, Complete, s)
+		if err != nil {
+			return nil, err
+		}
+		for _, g := range groupsAt(t, eps, minSize) {
+			gr := Group{Rows: make([]int, len(g.Themes)), Diameter: g.Height}
+			for k, v := range g.Themes {
+				gr.Rows[k] = rows[v]
+			}
+			out = append(out, gr)
+		}
+	}
+	slices.SortStableFunc(out, func(a, b Group) int {
+		if len(a.Rows) != len(b.Rows) {
+			return len(b.Rows) - len(a.Rows)
+		}
+		return a.Rows[0] - b.Rows[0]
+	})
+	return out, nil
+}
+
+// LinkedSets returns the sets of at least minSize rows of x linked by
+// chains of Euclidean distances ≤ eps: the connected components of the
+// graph joining every pair at distance ≤ eps, which are exactly the
+// clusters of single linkage cut at height eps. Rows within a set are
+// ascending and sets come in order of their smallest row. Memory is
+// O(n·d) plus the pairs found; the pair search is TightGroups'. It panics
+// if eps < 0 or minSize < 1.
+func LinkedSets(x [][]float64, eps float64, minSize int, s *Settings) ([][]int, error) {
+	if eps < 0 || minSize < 1 {
+		panic("cluster: LinkedSets needs eps ≥ 0 and minSize ≥ 1")
+	}
 	flat, _, d, err := flatten(x, nil)
 	if err != nil {
 		return nil, err
@@ -97,9 +143,9 @@ func TightGroups(x [][]float64, eps float64, minSize int, s *Settings) ([]Group,
 	e2 := eps * eps * (1 + 1e-12)
 	epsS := eps * (1 + 1e-12)
 	w := s.workers()
-	edges := make([][][2]int, max(1, w))
-	parallelRanges(n, w, 1024, func(k, lo, hi int) {
-		var out [][2]int
+	forests := make([]forest, max(1, w))
+	used := parallelRanges(n, w, 1024, func(k, lo, hi int) {
+		f := newForest(n)
 		for a := lo; a < hi; a++ {
 			xa := sorted[a*d : a*d+d]
 			for b := a + 1; b < n; b++ {
@@ -115,75 +161,20 @@ func TightGroups(x [][]float64, eps float64, minSize int, s *Settings) ([]Group,
 					}
 				}
 				if !far && sqdist(xa, xb) <= e2 {
-					out = append(out, [2]int{idx[a], idx[b]})
+					f.union(idx[a], idx[b])
 				}
 			}
 		}
-		edges[k] = out
+		forests[k] = f
 	})
-	// Components do not depend on the order of the unions; the root of
-	// each is its smallest row.
-	parent := make([]int, n)
-	for i := range parent {
-		parent[i] = i
+	// Each range kept its own union–find (O(n) memory, not one entry per
+	// pair found); the sets do not depend on the order of the unions, and
+	// the root of each is its smallest row.
+	all := forests[0]
+	for _, f := range forests[1:used] {
+		all.merge(f)
 	}
-	find := func(x int) int {
-		for parent[x] != x {
-			parent[x] = parent[parent[x]]
-			x = parent[x]
-		}
-		return x
-	}
-	for _, es := range edges {
-		for _, e := range es {
-			ri, rj := find(e[0]), find(e[1])
-			if ri != rj {
-				parent[max(ri, rj)] = min(ri, rj)
-			}
-		}
-	}
-	comps := make(map[int][]int)
-	var roots []int
-	for i := 0; i < n; i++ {
-		r := find(i)
-		if _, ok := comps[r]; !ok {
-			roots = append(roots, r)
-		}
-		comps[r] = append(comps[r], i)
-	}
-	var out []Group
-	for _, r := range roots {
-		rows := comps[r]
-		if len(rows) < minSize {
-			continue
-		}
-		if len(rows) > MaxComponent {
-			return nil, fmt.Errorf("cluster: %d rows are chained within distance %v (more than %d); use a smaller eps", len(rows), eps, MaxComponent)
-		}
-		sub := make([][]float64, len(rows))
-		for k, i := range rows {
-			sub[k] = x[i]
-		}
-		dist := EuclideanCondensed(nil, sub, s)
-		t, err := Link(dist, Complete, s)
-		if err != nil {
-			return nil, err
-		}
-		for _, g := range groupsAt(t, eps, minSize) {
-			gr := Group{Rows: make([]int, len(g.Themes)), Diameter: g.Height}
-			for k, v := range g.Themes {
-				gr.Rows[k] = rows[v]
-			}
-			out = append(out, gr)
-		}
-	}
-	slices.SortStableFunc(out, func(a, b Group) int {
-		if len(a.Rows) != len(b.Rows) {
-			return len(b.Rows) - len(a.Rows)
-		}
-		return a.Rows[0] - b.Rows[0]
-	})
-	return out, nil
+	return all.sets(minSize), nil
 }
 
 // HeatmapOrder returns an order of the rows of x for drawing a heatmap in
