@@ -56,6 +56,13 @@ func TestRenderSample(t *testing.T) {
 			people++
 		}
 	}
+	for _, g := range d.Copies.Listed {
+		for _, s := range g.Example.Segments {
+			if s.Hit {
+				hits++
+			}
+		}
+	}
 	if n := strings.Count(page, "<mark>"); n != hits {
 		t.Errorf("%d <mark> elements, want %d hit segments", n, hits)
 	}
