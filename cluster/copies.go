@@ -4,8 +4,6 @@ import (
 	"fmt"
 	"math"
 	"slices"
-	"sync"
-	"sync/atomic"
 
 	"undercurrent/text/sparse"
 )
@@ -16,6 +14,10 @@ type CopySettings struct {
 	// chain of Euclidean steps of at most Eps (LinkedSets) are compared by
 	// their words. Zero means DefaultCopyEps.
 	Eps float64
+	// MaxBlock bounds the work: a set of rows linked within Eps that has more
+	// than MaxBlock rows is split into the sets linked within Eps/2 among its
+	// rows, and so on, at most 6 times. Zero means DefaultCopyMaxBlock.
+	MaxBlock int
 	// Similarity is the least cosine similarity of the words of any two rows
 	// of a group (the cut of complete linkage at 1 − Similarity). Zero means
 	// DefaultCopySimilarity; it must be in (0, 1].
@@ -31,11 +33,18 @@ type CopySettings struct {
 // held copies of one planted template only, while 0.8 split most templates
 // into several groups (see the measurements in cmd/undercurrent's tests).
 // The blocking distance is far above the distances between the theme
-// vectors of copies of one template there (mostly below 0.02).
+// vectors of copies of one template there (mostly below 0.02); on that
+// corpus (6,000 narratives) the blocked search finds exactly the groups of
+// the search that compares every pair. The largest block costs
+// MaxBlock²/2 comparisons (8 million, about half a CPU-second).
 const (
-	DefaultCopyEps        = 0.05
+	DefaultCopyEps        = 0.2
+	DefaultCopyMaxBlock   = 4000
 	DefaultCopySimilarity = 0.7
 )
+
+// copySplits is the most times a block is split by halving the distance.
+const copySplits = 6
 
 // CopyGroup is a group of rows whose words are all close: every two of its
 // rows have a cosine similarity of at least LeastSimilarity, which is at
@@ -53,7 +62,10 @@ type CopyStats struct {
 	Blocks       int // sets of rows linked on the theme vectors (of at least MinSize rows)
 	InBlocks     int // rows in those sets
 	LargestBlock int
-	Pairs        int64 // word comparisons made
+	// LeastEps is the smallest blocking distance used (below Eps when a set
+	// was split because it had more than MaxBlock rows).
+	LeastEps float64
+	Pairs    int64 // word comparisons made
 }
 
 // CopyGroups finds groups of near-identical rows, such as templated
@@ -73,21 +85,24 @@ type CopyStats struct {
 // What is exact and what is approximate. Comparing every pair of words
 // costs n² work, so the theme vectors block the search: the rows are split
 // into the sets linked by chains of steps of at most Eps between theme
-// vectors (LinkedSets; single linkage at Eps, exact), and words are
-// compared only within a set. Within each set everything is exact: every
+// vectors (LinkedSets; single linkage at Eps, exact), a set of more than
+// MaxBlock rows is split again into the sets linked within Eps/2 among its
+// rows (and so on, at most 6 times), and words are compared only within
+// the final sets, the blocks. Within each block everything is exact: every
 // pair is compared, the pairs at distance ≤ 1 − Similarity form a graph,
 // and complete linkage (Link, on the condensed matrix of cosine distances
 // of each connected component of that graph alone) is cut at that height;
 // complete linkage never merges across those components below the cut, so
 // this is exactly complete linkage on the whole set. The approximation is
 // the blocking: a pair of rows similar in words but whose theme vectors
-// are not chained within Eps is never compared, so such copies can be
-// missed or a group found split. The result equals complete linkage on all
-// rows whenever no pair closer than the cut in words lies in two different
-// sets.
+// are not chained within the block's distance is never compared, so such
+// copies can be missed or a group found split. The result equals complete
+// linkage on all rows whenever no pair closer than the cut in words lies in
+// two different blocks (CopyStats.LeastEps says how far the splitting
+// went).
 //
-// Cost: O(n·d) memory for the blocking, O(Σ b²) word comparisons for sets
-// of b rows (split over Settings.Workers goroutines, each row's
+// Cost: O(n·d) memory for the blocking, O(Σ b²) word comparisons for
+// blocks of b rows (split over Settings.Workers goroutines, each row's
 // comparisons on one of them; each worker keeps its own union–find, merged
 // at the end, so results do not depend on the number), and the condensed
 // matrix of the largest component of similar pairs. It returns an error if
@@ -116,7 +131,18 @@ func CopyGroups(theta [][]float64, words *sparse.Matrix, set *CopySettings) ([]C
 	}
 	n := len(theta)
 	s := &Settings{Workers: cs.Workers}
-	blocks, err := LinkedSets(theta, cs.Eps, cs.MinSize, s)
+	if cs.MaxBlock == 0 {
+		cs.MaxBlock = DefaultCopyMaxBlock
+	}
+	if cs.MaxBlock < 1 {
+		panic("cluster: CopyGroups needs MaxBlock ≥ 1")
+	}
+	all := make([]int, n)
+	for i := range all {
+		all[i] = i
+	}
+	st.LeastEps = cs.Eps
+	blocks, err := copyBlocks(theta, all, cs.Eps, cs.MinSize, cs.MaxBlock, copySplits, s, &st)
 	if err != nil {
 		return nil, st, err
 	}
@@ -149,43 +175,27 @@ func CopyGroups(theta [][]float64, words *sparse.Matrix, set *CopySettings) ([]C
 			st.Pairs += int64(len(rows) - 1 - k)
 		}
 	}
-	w := max(1, min(s.workers(), len(tasks)))
-	forests := make([]forest, w)
-	var next atomic.Int64
-	var wg sync.WaitGroup
-	for k := 0; k < w; k++ {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			f := newForest(n)
-			buf := make([]float64, words.Cols)
-			for {
-				t := int(next.Add(1)) - 1
-				if t >= len(tasks) {
-					break
-				}
-				rows := blocks[tasks[t].b]
-				a := rows[tasks[t].k]
-				scatter(buf, words, a, inv[a])
-				for _, b := range rows[tasks[t].k+1:] {
-					if cosDist(buf, words, b, inv[b]) <= h {
-						f.union(a, b)
-					}
-				}
-				unscatter(buf, words, a)
+	found := newForest(n)
+	bufs := make([][]float64, s.workers())
+	forEachTask(len(tasks), s.workers(), n, func(k, t int, f forest) {
+		if bufs[k] == nil {
+			bufs[k] = make([]float64, words.Cols)
+		}
+		buf := bufs[k]
+		rows := blocks[tasks[t].b]
+		a := rows[tasks[t].k]
+		scatter(buf, words, a, inv[a])
+		for _, b := range rows[tasks[t].k+1:] {
+			if cosDist(buf, words, b, inv[b]) <= h {
+				f.union(a, b)
 			}
-			forests[k] = f
-		}()
-	}
-	wg.Wait()
-	all := forests[0]
-	for _, f := range forests[1:] {
-		all.merge(f)
-	}
+		}
+		unscatter(buf, words, a)
+	}, found)
 
 	var out []CopyGroup
 	buf := make([]float64, words.Cols)
-	for _, comp := range all.sets(cs.MinSize) {
+	for _, comp := range found.sets(cs.MinSize) {
 		if len(comp) > MaxComponent {
 			return nil, st, fmt.Errorf("cluster: %d rows are chained by word similarities of at least %v (more than %d); use a higher similarity", len(comp), cs.Similarity, MaxComponent)
 		}
@@ -228,6 +238,37 @@ func CopyGroups(theta [][]float64, words *sparse.Matrix, set *CopySettings) ([]C
 		return a.Rows[0] - b.Rows[0]
 	})
 	return out, st, nil
+}
+
+// copyBlocks returns the sets of rows (indices into theta) linked within eps
+// among rows, each set of more than maxBlock rows replaced by its own sets
+// linked within eps/2, and so on, at most splits times.
+func copyBlocks(theta [][]float64, rows []int, eps float64, minSize, maxBlock, splits int, s *Settings, st *CopyStats) ([][]int, error) {
+	sub := make([][]float64, len(rows))
+	for k, i := range rows {
+		sub[k] = theta[i]
+	}
+	sets, err := LinkedSets(sub, eps, minSize, s)
+	if err != nil {
+		return nil, err
+	}
+	var out [][]int
+	for _, set := range sets {
+		for k, v := range set {
+			set[k] = rows[v]
+		}
+		if len(set) > maxBlock && splits > 0 && eps > 0 {
+			st.LeastEps = min(st.LeastEps, eps/2)
+			parts, err := copyBlocks(theta, set, eps/2, minSize, maxBlock, splits-1, s, st)
+			if err != nil {
+				return nil, err
+			}
+			out = append(out, parts...)
+			continue
+		}
+		out = append(out, set)
+	}
+	return out, nil
 }
 
 // scatter writes row i of m, times scale, into the dense buf.

@@ -191,20 +191,47 @@ func TestCopyGroupsExact(t *testing.T) {
 	r := rand.New(rand.NewPCG(8, 9))
 	words, theta := templatedWords(r, 300, 120, 6)
 	m := sparseRows(words)
+	// splitBlocks is the blocking rule written out: the sets linked within eps, those of
+	// more than maxBlock rows replaced by their own sets within eps/2, and so on.
+	var splitBlocks func(rows []int, eps float64, maxBlock, splits int) [][]int
+	splitBlocks = func(rows []int, eps float64, maxBlock, splits int) [][]int {
+		sub := make([][]float64, len(rows))
+		for k, i := range rows {
+			sub[k] = theta[i]
+		}
+		sets, err := LinkedSets(sub, eps, 3, nil)
+		if err != nil {
+			t.Fatal(err)
+		}
+		var out [][]int
+		for _, set := range sets {
+			for k := range set {
+				set[k] = rows[set[k]]
+			}
+			if len(set) > maxBlock && splits > 0 {
+				out = append(out, splitBlocks(set, eps/2, maxBlock, splits-1)...)
+			} else {
+				out = append(out, set)
+			}
+		}
+		return out
+	}
+	all := make([]int, len(theta))
+	for i := range all {
+		all[i] = i
+	}
 	for _, tc := range []struct {
 		eps, sim float64
-	}{{math.Inf(1), 0.7}, {math.Inf(1), 0.9}, {0.05, 0.7}, {0.02, 0.8}} {
+		maxBlock int
+	}{{math.Inf(1), 0.7, 1000}, {math.Inf(1), 0.9, 1000}, {0.05, 0.7, 1000}, {0.02, 0.8, 1000}, {0.5, 0.7, 20}, {0.5, 0.7, 60}} {
 		var blocks [][]int
 		if !math.IsInf(tc.eps, 1) {
-			var err error
-			if blocks, err = LinkedSets(theta, tc.eps, 3, nil); err != nil {
-				t.Fatal(err)
-			}
+			blocks = splitBlocks(all, tc.eps, tc.maxBlock, copySplits)
 		}
 		want := refCopyGroups(words, blocks, tc.sim, 3)
 		var first []CopyGroup
 		for _, w := range []int{1, 2, 4} {
-			got, _, err := CopyGroups(theta, m, &CopySettings{Eps: tc.eps, Similarity: tc.sim, Workers: w})
+			got, st, err := CopyGroups(theta, m, &CopySettings{Eps: tc.eps, Similarity: tc.sim, MaxBlock: tc.maxBlock, Workers: w})
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -218,13 +245,16 @@ func TestCopyGroupsExact(t *testing.T) {
 			if !reflect.DeepEqual(rows, want) {
 				t.Errorf("eps %v sim %v workers %d: groups %v, complete linkage %v", tc.eps, tc.sim, w, rows, want)
 			}
+			if tc.maxBlock < 100 && st.LeastEps >= tc.eps {
+				t.Errorf("eps %v max block %d: no block was split (%+v)", tc.eps, tc.maxBlock, st)
+			}
 			if first == nil {
 				first = got
 			} else if !reflect.DeepEqual(got, first) {
 				t.Errorf("eps %v sim %v: workers %d changed the result", tc.eps, tc.sim, w)
 			}
 		}
-		if tc.sim == 0.7 && len(want) < 5 {
+		if tc.sim == 0.7 && tc.maxBlock > 100 && len(want) < 5 {
 			t.Errorf("eps %v: %d groups, want the 5 planted families at least", tc.eps, len(want))
 		}
 	}
@@ -281,5 +311,88 @@ func TestCopyGroupsPanics(t *testing.T) {
 		if !panics(tc.f) {
 			t.Errorf("%s: no panic", tc.name)
 		}
+	}
+}
+
+// cornerRows returns theme-share-like rows: most near a corner of the simplex (one
+// coordinate about 0.9), some near the middle of an edge (two coordinates about 0.45, the
+// larger one either), so that LinkedSets compares rows across its buckets of largest
+// coordinate.
+func cornerRows(r *rand.Rand, n, d int) [][]float64 {
+	x := make([][]float64, n)
+	for i := range x {
+		row := make([]float64, d)
+		k := r.IntN(d)
+		if i%8 == 0 {
+			j := (k + 1 + r.IntN(d-1)) % d
+			row[k], row[j] = 0.45+0.02*r.Float64(), 0.45+0.02*r.Float64()
+		} else {
+			row[k] = 0.88 + 0.1*r.Float64()
+		}
+		var s float64
+		for c := range row {
+			row[c] += 0.01 * r.Float64()
+			s += row[c]
+		}
+		for c := range row {
+			row[c] /= s
+		}
+		x[i] = row
+	}
+	return x
+}
+
+// TestLinkedSetsCorners: on rows near the corners and edges of the simplex (where the
+// buckets by largest coordinate are used; the test checks that they were) and on rows
+// where most are ambiguous (the single sweep), the sets equal single linkage cut at eps.
+func TestLinkedSetsCorners(t *testing.T) {
+	r := rand.New(rand.NewPCG(12, 13))
+	for _, tc := range []struct {
+		name string
+		x    [][]float64
+	}{
+		{"corners", cornerRows(r, 700, 5)},
+		{"uniform", dirichletRows(400, 3, 21)},
+	} {
+		full, err := Link(EuclideanCondensed(nil, tc.x, nil), Single, nil)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, eps := range []float64{0.005, 0.02, 0.05, 0.1} {
+			labels := full.CutHeight(nil, eps)
+			by := map[int][]int{}
+			for i, l := range labels {
+				by[l] = append(by[l], i)
+			}
+			var want [][]int
+			for l := 0; l < len(by); l++ {
+				if len(by[l]) >= 2 {
+					want = append(want, by[l])
+				}
+			}
+			for _, w := range []int{1, 2} {
+				got, err := LinkedSets(tc.x, eps, 2, &Settings{Workers: w})
+				if err != nil {
+					t.Fatal(err)
+				}
+				if !reflect.DeepEqual(got, want) {
+					t.Errorf("%s eps %v workers %d: %d sets, single linkage %d", tc.name, eps, w, len(got), len(want))
+				}
+			}
+		}
+	}
+	// The corner rows do take the bucketed route: fewer than half are within 2 eps of a
+	// second coordinate (the edge rows, 1 in 8), at eps 0.05.
+	x := cornerRows(rand.New(rand.NewPCG(12, 13)), 700, 5)
+	amb := 0
+	for _, row := range x {
+		s := slices.Clone(row)
+		slices.Sort(s)
+		if s[len(s)-1]-s[len(s)-2] <= 0.1 {
+			amb++
+		}
+	}
+	if amb == 0 || 2*amb > len(x) {
+		t.Errorf("%d of %d corner rows ambiguous: the test does not exercise both routes", amb, len(x))
 	}
 }

@@ -4,6 +4,8 @@ import (
 	"fmt"
 	"math"
 	"slices"
+	"sync"
+	"sync/atomic"
 )
 
 // Group is a set of rows (ascending indices) found together.
@@ -77,8 +79,27 @@ func TightGroups(x [][]float64, eps float64, minSize int, s *Settings) ([]Group,
 // graph joining every pair at distance ≤ eps, which are exactly the
 // clusters of single linkage cut at height eps. Rows within a set are
 // ascending and sets come in order of their smallest row. Memory is
-// O(n·d) plus the pairs found; the pair search is TightGroups'. It panics
-// if eps < 0 or minSize < 1.
+// O(n·d), with no list of the pairs found. It panics if eps < 0 or
+// minSize < 1.
+//
+// Every pair within eps is found (exactly; slack far above rounding keeps
+// the tests safe) by sweeps: rows sorted on the coordinate of largest
+// variance, a window of width eps along it (a pair farther apart on one
+// coordinate is farther apart in all), three more coordinates rejecting
+// most pairs before the full distance, the sweep split over
+// Settings.Workers goroutines, each keeping its own union–find. Rows that
+// lie near the corners of the space, such as document-theme shares, are
+// first split by their largest coordinate: if ‖a − b‖ ≤ eps, a's largest
+// coordinate is i and b's is j ≠ i, then
+//
+//	a_i − a_j ≤ (b_i + eps) − (b_j − eps) ≤ 2 eps   (as b_i ≤ b_j)
+//
+// and likewise b_j − b_i ≤ 2 eps, so rows whose largest coordinate beats
+// every other by more than 2 eps are only compared with rows of the same
+// largest coordinate (one sweep each), and the few others across: a with
+// b when j is within 2 eps of a's largest coordinate and i of b's. When
+// more than half of the rows are of the second kind, one sweep over all
+// rows is used instead.
 func LinkedSets(x [][]float64, eps float64, minSize int, s *Settings) ([][]int, error) {
 	if eps < 0 || minSize < 1 {
 		panic("cluster: LinkedSets needs eps ≥ 0 and minSize ≥ 1")
@@ -91,18 +112,135 @@ func LinkedSets(x [][]float64, eps float64, minSize int, s *Settings) ([][]int, 
 	if n == 0 {
 		return nil, nil
 	}
+	w := s.workers()
+	all := newForest(n)
+	// near[a] lists the coordinates within 2 eps of a's largest (its largest,
+	// the lowest on ties, first).
+	margin := 2 * eps * (1 + 1e-9)
+	top := make([]int, n)
+	var near [][]int32
+	ambiguous := 0
+	if d >= 2 && !math.IsInf(eps, 0) {
+		near = make([][]int32, n)
+		for a := 0; a < n; a++ {
+			row := flat[a*d : a*d+d]
+			best := 0
+			for k, v := range row {
+				if v > row[best] {
+					best = k
+				}
+			}
+			top[a] = best
+			for k, v := range row {
+				if k != best && row[best]-v <= margin {
+					if near[a] == nil {
+						near[a] = []int32{int32(best)}
+					}
+					near[a] = append(near[a], int32(k))
+				}
+			}
+			if near[a] != nil {
+				ambiguous++
+			}
+		}
+	}
+	if near == nil || 2*ambiguous > n {
+		rows := make([]int, n)
+		for i := range rows {
+			rows[i] = i
+		}
+		sweepPairs(flat, d, rows, eps, w, all)
+		return all.sets(minSize), nil
+	}
+	buckets := make([][]int, d)
+	for a := 0; a < n; a++ {
+		buckets[top[a]] = append(buckets[top[a]], a)
+	}
+	for _, rows := range buckets {
+		if len(rows) > 1 {
+			sweepPairs(flat, d, rows, eps, w, all)
+		}
+	}
+	// Across buckets: lists[i*d+j] holds the rows of largest coordinate i
+	// with j near it; pairs of lists[i*d+j] and lists[j*d+i], i < j.
+	lists := make([][]int, d*d)
+	for a := 0; a < n; a++ {
+		for _, j := range near[a][min(1, len(near[a])):] {
+			lists[top[a]*d+int(j)] = append(lists[top[a]*d+int(j)], a)
+		}
+	}
+	type task struct{ i, j int }
+	var tasks []task
+	for i := 0; i < d; i++ {
+		for j := i + 1; j < d; j++ {
+			if len(lists[i*d+j]) > 0 && len(lists[j*d+i]) > 0 {
+				tasks = append(tasks, task{i, j})
+			}
+		}
+	}
+	e2 := eps * eps * (1 + 1e-12)
+	forEachTask(len(tasks), w, n, func(_, t int, f forest) {
+		for _, a := range lists[tasks[t].i*d+tasks[t].j] {
+			xa := flat[a*d : a*d+d]
+			for _, b := range lists[tasks[t].j*d+tasks[t].i] {
+				if sqdist(xa, flat[b*d:b*d+d]) <= e2 {
+					f.union(a, b)
+				}
+			}
+		}
+	}, all)
+	return all.sets(minSize), nil
+}
+
+// forEachTask runs do(k, t, f) for t in [0, tasks) on up to w goroutines
+// (k is the goroutine's number, below w), each with its own union–find f
+// over n items, taking tasks in turn, and merges every union–find into
+// dst. The sets in dst do not depend on the order of the unions.
+func forEachTask(tasks, w, n int, do func(k, t int, f forest), dst forest) {
+	w = max(1, min(w, tasks))
+	if tasks == 0 {
+		return
+	}
+	forests := make([]forest, w)
+	var next atomic.Int64
+	var wg sync.WaitGroup
+	for k := 0; k < w; k++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			f := newForest(n)
+			for {
+				t := int(next.Add(1)) - 1
+				if t >= tasks {
+					break
+				}
+				do(k, t, f)
+			}
+			forests[k] = f
+		}()
+	}
+	wg.Wait()
+	for _, f := range forests {
+		dst.merge(f)
+	}
+}
+
+// sweepPairs unions into dst every pair of rows (indices into the flat
+// n×d rows) within eps, by the sweep LinkedSets describes.
+func sweepPairs(flat []float64, d int, rows []int, eps float64, w int, dst forest) {
+	m := len(rows)
 	// Coordinates by decreasing variance: the first orders the sweep, the
 	// next three reject pairs cheaply before the full distance.
 	vars := make([]float64, d)
 	for k := 0; k < d; k++ {
-		var m, m2 float64
-		for i := 0; i < n; i++ {
+		var mu, m2 float64
+		for _, i := range rows {
 			v := flat[i*d+k]
-			m += v
+			mu += v
 			m2 += v * v
 		}
-		m /= float64(n)
-		vars[k] = m2/float64(n) - m*m
+		mu /= float64(m)
+		vars[k] = m2/float64(m) - mu*mu
 	}
 	byVar := make([]int, d)
 	for k := range byVar {
@@ -120,10 +258,7 @@ func LinkedSets(x [][]float64, eps float64, minSize int, s *Settings) ([][]int, 
 	axis := byVar[0]
 	checks := byVar[1:min(d, 4)]
 	// Sorted copy of the rows, so that the sweep reads memory in order.
-	idx := make([]int, n)
-	for i := range idx {
-		idx[i] = i
-	}
+	idx := slices.Clone(rows)
 	slices.SortStableFunc(idx, func(a, b int) int {
 		va, vb := flat[a*d+axis], flat[b*d+axis]
 		switch {
@@ -134,21 +269,19 @@ func LinkedSets(x [][]float64, eps float64, minSize int, s *Settings) ([][]int, 
 		}
 		return 0
 	})
-	sorted := make([]float64, n*d)
+	sorted := make([]float64, m*d)
 	for a, i := range idx {
 		copy(sorted[a*d:], flat[i*d:i*d+d])
 	}
-	// Every pair within eps, found in parallel over ranges of sweep
-	// starts; slack far above rounding keeps the tests safe.
+	// Slack far above rounding keeps the tests safe.
 	e2 := eps * eps * (1 + 1e-12)
 	epsS := eps * (1 + 1e-12)
-	w := s.workers()
 	forests := make([]forest, max(1, w))
-	used := parallelRanges(n, w, 1024, func(k, lo, hi int) {
-		f := newForest(n)
+	used := parallelRanges(m, w, 1024, func(k, lo, hi int) {
+		f := newForest(m) // over positions in idx
 		for a := lo; a < hi; a++ {
 			xa := sorted[a*d : a*d+d]
-			for b := a + 1; b < n; b++ {
+			for b := a + 1; b < m; b++ {
 				xb := sorted[b*d : b*d+d]
 				if xb[axis]-xa[axis] > epsS {
 					break
@@ -161,20 +294,19 @@ func LinkedSets(x [][]float64, eps float64, minSize int, s *Settings) ([][]int, 
 					}
 				}
 				if !far && sqdist(xa, xb) <= e2 {
-					f.union(idx[a], idx[b])
+					f.union(a, b)
 				}
 			}
 		}
 		forests[k] = f
 	})
-	// Each range kept its own union–find (O(n) memory, not one entry per
-	// pair found); the sets do not depend on the order of the unions, and
-	// the root of each is its smallest row.
-	all := forests[0]
-	for _, f := range forests[1:used] {
-		all.merge(f)
+	for _, f := range forests[:used] {
+		for p := range f {
+			if r := f.find(p); r != p {
+				dst.union(idx[p], idx[r])
+			}
+		}
 	}
-	return all.sets(minSize), nil
 }
 
 // HeatmapOrder returns an order of the rows of x for drawing a heatmap in
