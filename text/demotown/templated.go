@@ -65,7 +65,7 @@ var families = []family{
 		name: "trespass-warning-form", theme: ThemeTrespass,
 		sentences: []string{
 			"Store security at the {business} on {st} asked for a trespass warning for a {male} who came back after being told to leave earlier in the day.",
-			"I met {him} outside the front entrance and identified {him} as {NAME}.",
+			"I met {him} outside the front entrance, where {he} was identified as {NAME}.",
 			"I read the written trespass warning aloud and explained that coming back onto the property would mean arrest for criminal trespass.",
 			"{he} said {he} understood, signed the form, and walked away {dir} on foot.",
 			"?Security kept a copy of the signed warning for their records.",
