@@ -374,7 +374,9 @@ func mixtureChart(d *Data) (chartSpec, []string, []mixRow) {
 		for ri, i := range rows {
 			v := pct(c.Shares[i])
 			top = math.Max(top, v)
-			data = append(data, opts.HeatMapData{Value: []any{ci, ri, v}})
+			// The item's name is what the tooltip shows beside the value: the theme and the
+			// column (the axis would only give the column).
+			data = append(data, opts.HeatMapData{Name: short[ri] + " · " + c.Label, Value: []any{ci, ri, v}})
 			r.Cells = append(r.Cells, fmtPct(c.Shares[i]))
 		}
 		table = append(table, r)

@@ -502,16 +502,28 @@ func sampleCopies(rng *rand.Rand, themes []Theme) Copies {
 			Example: ex,
 		})
 	}
+	// The smallest theme is mostly copies of one text (a group of 40 beyond the listed
+	// ones), so that its section warns about it.
+	c.Listed = append(c.Listed, CopyGroup{Number: 4, Size: "40", LeastSimilarity: 0.81,
+		Themes: []CopyTheme{{Theme: themes[len(themes)-1].ID, Label: themes[len(themes)-1].Label, Count: "40"}}, First: "2023-06", Last: "2023-09",
+		Example: Example{ID: "export.csv:77", Date: "2023-06-02", Share: 1, Segments: []Segment{{Text: "Checked the "}, {Text: "north", Hit: true}, {Text: " gate and found it open again."}}}})
+	c.InGroups = "104"
 	for i := range themes {
 		n := 0
 		if i < len(sizes) {
 			n = sizes[i]
+		}
+		if i == len(themes)-1 {
+			n = 40
 		}
 		themes[i].Copies = countText(n)
 		if n < 10 {
 			themes[i].CopiesWithheld = true
 		} else {
 			themes[i].CopiesShare = float64(n) / 1000
+		}
+		if i == len(themes)-1 {
+			themes[i].CopiesShare = 0.37
 		}
 	}
 	return c
