@@ -25,11 +25,9 @@ const MaxComponent = 20000
 // at height eps, computed without an n² matrix. Useful to find templated,
 // near-identical narratives. Groups come largest first, ties by first row.
 //
-// Method: every pair at distance ≤ eps is found by sorting the rows on the
-// coordinate with the largest variance and sweeping a window of width eps
-// (a pair farther apart on one coordinate is farther apart in all; three
-// more coordinates reject most pairs before the full distance; the sweep
-// is split over Settings.Workers goroutines); the
+// Method: every pair at distance ≤ eps is found as LinkedSets finds them
+// (sweeps along the coordinate of largest variance, after a split by each
+// row's largest coordinate where that pays); the
 // eps-graph's connected components are the single-linkage clusters at eps,
 // and complete linkage never merges across them below eps, so complete
 // linkage is run on each component alone (condensed matrix of the

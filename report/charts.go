@@ -365,7 +365,9 @@ func mixtureChart(d *Data) (chartSpec, []string, []mixRow) {
 		}
 	}
 	cols := make([]string, len(d.Mixture.Columns))
-	var data []opts.HeatMapData
+	// One series per theme row, named by the theme, so that the tooltip names the theme
+	// (series), the column (axis) and the share, with no name stored per cell.
+	data := make([][]opts.HeatMapData, len(rows))
 	var table []mixRow
 	var top float64
 	for ci, c := range d.Mixture.Columns {
@@ -374,9 +376,7 @@ func mixtureChart(d *Data) (chartSpec, []string, []mixRow) {
 		for ri, i := range rows {
 			v := pct(c.Shares[i])
 			top = math.Max(top, v)
-			// The item's name is what the tooltip shows beside the value: the theme and the
-			// column (the axis would only give the column).
-			data = append(data, opts.HeatMapData{Name: short[ri] + " · " + c.Label, Value: []any{ci, ri, v}})
+			data[ri] = append(data[ri], opts.HeatMapData{Value: []any{ci, ri, v}})
 			r.Cells = append(r.Cells, fmtPct(c.Shares[i]))
 		}
 		table = append(table, r)
@@ -396,7 +396,9 @@ func mixtureChart(d *Data) (chartSpec, []string, []mixRow) {
 			InRange: &opts.VisualMapInRange{Color: []string{"#f4f1e8", Palette[2], Palette[5], "#0b2f4f"}},
 		}),
 	)
-	hm.AddSeries("% of the narratives' text", data)
+	for ri := range rows {
+		hm.AddSeries(short[ri]+" (% of the text)", data[ri])
+	}
 	hm.Validate()
 	return chartSpec{ID: id, Height: 120 + 22*len(rows), Label: "How narratives mix the themes", Option: hm.JSON()}, names, table
 }

@@ -73,8 +73,9 @@ func findCopies(p *prepared, m *topics.Model, sim, eps float64) copyResult {
 	if len(rows) < copyMinSize {
 		return res
 	}
-	tfidf, _ := weight.TFIDF(p.fitCounts, p.settings.Weight)
-	words := subRows(tfidf, rows)
+	// TF-IDF of the compared rows only, with the idf of all the fitted narratives.
+	idf := weight.IDFWeights(nil, p.fitCounts.DocumentFrequency(), p.fitCounts.Rows, p.settings.Weight.IDF)
+	words := weight.TFIDFWith(subRows(p.fitCounts, rows), p.settings.Weight, idf)
 	theta := make([][]float64, len(rows))
 	for q, j := range rows {
 		theta[q] = m.DocTopics(j)
