@@ -7,6 +7,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"regexp"
 	"runtime"
 	"strconv"
 	"strings"
@@ -295,4 +296,33 @@ func atoi(t *testing.T, s string) int {
 		t.Fatalf("%q: %v", s, err)
 	}
 	return n
+}
+
+// TestMixtureSmall: with at most 150 fitted narratives the mixture heatmap has one column
+// per narrative (cluster.HeatmapOrder), each named as the exports name it, with its shares
+// in the table; beyond, groups (the other tests' corpora).
+func TestMixtureSmall(t *testing.T) {
+	dir := t.TempDir()
+	if err := demotown.Generate(demotown.Config{Seed: 5, N: 140}).WriteDir(dir); err != nil {
+		t.Fatal(err)
+	}
+	out := t.TempDir()
+	args := append([]string{"report", "-out", out, "-themes", "4", "-iterations", "40", "-chains", "1"}, inputArgs...)
+	code, _, stderr := runArgs(t, append(args, filepath.Join(dir, demotown.IncidentsFile))...)
+	if code != exitOK {
+		t.Fatalf("report: exit %d\n%s", code, stderr)
+	}
+	b, err := os.ReadFile(filepath.Join(out, "report.html"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	page := string(b)
+	m := regexp.MustCompile(`Columns: the ([0-9]+) narratives fitted, ordered by Ward&#39;s method`).FindStringSubmatch(page)
+	if m == nil {
+		t.Fatal("the mixture heatmap does not say it shows every narrative")
+	}
+	n := atoi(t, m[1])
+	if got := strings.Count(page, `<tr><th scope="row">incidents.csv:`); got != n || n == 0 || n > mixtureColumns {
+		t.Errorf("%d narrative columns in the mixture table, want %d (at most %d)", got, n, mixtureColumns)
+	}
 }
