@@ -24,8 +24,9 @@ column, and writes into -out:
 	trends.csv/.json       long-run trend tests per theme
 	groups-<col>.csv/.json theme shares per group, and the chi-square test (-test)
 	words-<col>.csv/.json  words that set each group apart from the rest (weighted log-odds)
-	repeated-text.csv/.json narratives that repeat one text (templated narratives): one row
-	                       per narrative of each group of at least -min-count
+	repeated-text.csv/.json
+	                       narratives that repeat one text (templated narratives): one
+	                       row per narrative of each group of at least -min-count
 	repairs.csv            every OCR repair the text pipeline made
 	rejects.csv            every input row not kept, with its line and reason
 	themes.ucmodel         the model file, for 'undercurrent tag' and 'describe'
