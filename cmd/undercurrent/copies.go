@@ -120,6 +120,9 @@ func copiesData(d *report.Data, p *prepared, res copyResult, folded [][]float64,
 		"(%s comparisons in %d sets of at most %s narratives). "+
 		"Routine narratives and near-exact duplicates were already set aside before fitting and are not counted here.",
 		copyMinWords, fmtFloat(res.sim), fmtFloat(res.eps), split, fmtInt64(res.stats.Pairs), res.stats.Blocks, fmtInt64(int64(res.stats.LargestBlock)))
+	if p.corpus.Sentences != nil {
+		c.Method += " Boilerplate sentences were set aside from the counts (-set-aside-repeated-sentences), so the narratives were compared by the words left; a copy whose shared sentences were all set aside is compared by its details alone and is not found."
+	}
 	in := 0
 	byTheme := map[int]int{}
 	small := 0
