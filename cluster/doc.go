@@ -63,7 +63,11 @@
 // JensenShannon and Hellinger compare word distributions; NewThemeTree
 // clusters themes with them (average linkage) and suggests merges.
 // TightGroups finds groups of near-identical rows (templated narratives)
-// exactly as complete linkage cut at a small height, without an n² matrix.
+// exactly as complete linkage cut at a small height, without an n² matrix;
+// LinkedSets gives the sets of rows chained within a distance (single
+// linkage cut there). CopyGroups finds templated narratives by their words
+// (complete linkage on cosine distances of sparse rows), blocked by their
+// theme vectors; its documentation says what is exact and what is not.
 // HeatmapOrder orders rows for a heatmap. Summarize handles 100k+ rows:
 // seeded k-means++ micro-clusters, then exact weighted Ward on their
 // centroids (see Summary for what is exact and what is approximate).

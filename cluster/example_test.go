@@ -4,6 +4,7 @@ import (
 	"fmt"
 
 	"undercurrent/cluster"
+	"undercurrent/text/sparse"
 )
 
 // Average linkage (UPGMA) on the five-element example of Wikipedia's
@@ -89,4 +90,30 @@ func ExampleTightGroups() {
 	}
 	// Output:
 	// rows [0 2 4], diameter 0.0141
+}
+
+// Narratives that repeat one text: their word rows (here four terms) are compared only
+// when their theme shares are close, and a group needs every two of its rows to share a
+// cosine similarity of at least 0.7. Row 3 has the same words as row 0 but other theme
+// shares (1.13 away), so it is never compared: the blocking's approximation. By hand:
+// cos(row 0, row 2) = 3 / (√3 · √3.25) = 0.961, cos(row 1, row 2) = 2.9 / (√2.81 · √3.25)
+// = 0.960, cos(row 0, row 1) = 2.9 / (√3 · √2.81) = 0.999; row 0 is closest to the others.
+func ExampleCopyGroups() {
+	b := sparse.NewBuilder(4)
+	b.AddRow([]int32{0, 1, 2}, []float64{1, 1, 1})         // the template
+	b.AddRow([]int32{0, 1, 2}, []float64{1, 1, 0.9})       // a copy, one detail changed
+	b.AddRow([]int32{0, 1, 2, 3}, []float64{1, 1, 1, 0.5}) // a copy with a detail added
+	b.AddRow([]int32{0, 1, 2}, []float64{1, 1, 1})         // the same words, another theme
+	b.AddRow([]int32{3}, []float64{1})                     // something else
+	theta := [][]float64{{0.9, 0.1}, {0.9, 0.1}, {0.88, 0.12}, {0.1, 0.9}, {0.9, 0.1}}
+	groups, _, err := cluster.CopyGroups(theta, b.Matrix(), &cluster.CopySettings{Similarity: 0.7})
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	for _, g := range groups {
+		fmt.Printf("rows %v, every two at least %.3f alike, representative row %d\n", g.Rows, g.LeastSimilarity, g.Medoid)
+	}
+	// Output:
+	// rows [0 1 2], every two at least 0.960 alike, representative row 0
 }

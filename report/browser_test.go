@@ -185,7 +185,7 @@ func TestBrowser(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	wantCharts := 1 + len(d.Themes) + 3 // sizes, a trend per theme, tree, heatmap, K
+	wantCharts := 1 + len(d.Themes) + 4 // sizes, a trend per theme, tree, mixture, heatmap, K
 	if len(checks) != wantCharts {
 		t.Errorf("%d chart containers, want %d", len(checks), wantCharts)
 	}
@@ -256,8 +256,8 @@ func TestBrowser(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if tips < 3 {
-		t.Errorf("showed %d tooltips with the payload label, want at least 3 (sizes, tree, heatmap)", tips)
+	if tips < 4 {
+		t.Errorf("showed %d tooltips with the payload label, want at least 4 (sizes, tree, mixture, heatmap)", tips)
 	}
 	x2, err := chromedp.Run(ctx, chromedp.Evaluate[xss](`({pwned: typeof window.__pwned, imgs: document.images.length, scripts: document.scripts.length, text: ''})`))
 	if err != nil {
@@ -280,7 +280,16 @@ func TestBrowser(t *testing.T) {
 		t.Fatal(err)
 	}
 	writeArtifact(t, dir, "report-theme-section.png", shot)
-	for _, sec := range []string{"how-related"} {
+	// The repeated-text section lists every group and shows one narrative of each.
+	nCopies, err := chromedp.Run(ctx, chromedp.Evaluate[[]int](`[document.querySelectorAll('#uc-copies tbody tr').length,
+	  document.querySelectorAll('#repeated-text .uc-copy').length]`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(nCopies) != 2 || nCopies[0] != len(d.Copies.Listed) || nCopies[1] != len(d.Copies.Listed) {
+		t.Errorf("repeated text: %v table rows and examples, want %d of each", nCopies, len(d.Copies.Listed))
+	}
+	for _, sec := range []string{"how-related", "repeated-text"} {
 		shot, err = chromedp.Run(ctx, chromedp.Screenshot(chromedp.CSS("#"+sec)))
 		if err != nil {
 			t.Fatal(err)

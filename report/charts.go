@@ -338,3 +338,67 @@ func kChart(kc *KChoice) chartSpec {
 	line.Validate()
 	return chartSpec{ID: id, Height: 300, Label: "Choosing the number of themes", Option: line.JSON()}
 }
+
+// mixRow is one column of the mixture heatmap as its table shows it: label, narratives,
+// and the share of each theme row.
+type mixRow struct {
+	Label, Count string
+	Cells        []string
+}
+
+// mixtureChart draws Data.Mixture: a column per narrative or group of narratives, a row
+// per shown theme, the colour the theme's mean share. Rows of themes not shown (hidden by
+// the labels file) are left out. It returns the chart, the row labels and the table rows.
+func mixtureChart(d *Data) (chartSpec, []string, []mixRow) {
+	id := "uc-chart-mixture"
+	label := make(map[int]string, len(d.Themes))
+	for _, t := range d.Themes {
+		label[t.ID] = t.Label
+	}
+	var rows []int // indices into Mixture.Themes
+	var names, short []string
+	for i, t := range d.Mixture.Themes {
+		if l, ok := label[t]; ok {
+			rows = append(rows, i)
+			names = append(names, l)
+			short = append(short, shortLabel(l))
+		}
+	}
+	cols := make([]string, len(d.Mixture.Columns))
+	// One series per theme row, named by the theme, so that the tooltip names the theme
+	// (series), the column (axis) and the share, with no name stored per cell.
+	data := make([][]opts.HeatMapData, len(rows))
+	var table []mixRow
+	var top float64
+	for ci, c := range d.Mixture.Columns {
+		cols[ci] = c.Label
+		r := mixRow{Label: c.Label, Count: c.Count}
+		for ri, i := range rows {
+			v := pct(c.Shares[i])
+			top = math.Max(top, v)
+			data[ri] = append(data[ri], opts.HeatMapData{Value: []any{ci, ri, v}})
+			r.Cells = append(r.Cells, fmtPct(c.Shares[i]))
+		}
+		table = append(table, r)
+	}
+	hm := charts.NewHeatMap()
+	hm.SetGlobalOptions(commonOpts(id)...)
+	hm.SetGlobalOptions(
+		charts.WithTooltipOpts(opts.Tooltip{Show: opts.Bool(true), Trigger: "item"}),
+		charts.WithGridOpts(opts.Grid{Left: "8", Right: "16", Top: "10", Bottom: "80", ContainLabel: opts.Bool(true)}),
+		charts.WithXAxisOpts(opts.XAxis{Type: "category", Data: cols, Name: "narratives, similar mixtures side by side", NameLocation: "middle", NameGap: 12,
+			AxisLabel: &opts.AxisLabel{Show: opts.Bool(false)}, AxisTick: &opts.AxisTick{Show: opts.Bool(false)}}),
+		charts.WithYAxisOpts(opts.YAxis{Type: "category", Data: short, Inverse: opts.Bool(true)}),
+		charts.WithVisualMapOpts(opts.VisualMap{
+			Calculable: opts.Bool(true), Min: 0, Max: float32(math.Ceil(math.Max(top, 1))),
+			Orient: "horizontal", Left: "center", Bottom: "0",
+			Text:    []string{"larger share", "smaller"},
+			InRange: &opts.VisualMapInRange{Color: []string{"#f4f1e8", Palette[2], Palette[5], "#0b2f4f"}},
+		}),
+	)
+	for ri := range rows {
+		hm.AddSeries(short[ri]+" (% of the text)", data[ri])
+	}
+	hm.Validate()
+	return chartSpec{ID: id, Height: 120 + 22*len(rows), Label: "How narratives mix the themes", Option: hm.JSON()}, names, table
+}

@@ -25,8 +25,13 @@ type Data struct {
 	// Themes in the order they are shown (usually by size, largest first).
 	Themes []Theme
 	// Hidden lists themes a reviewer hid with the labels file; filled by Apply.
-	Hidden  []HiddenTheme
-	Tree    Tree
+	Hidden []HiddenTheme
+	Tree   Tree
+	// Mixture is the narrative-by-theme heatmap; Copies the groups of narratives that
+	// repeat one text. Both are filled after Apply (they use the curated theme numbers);
+	// rows of themes not in Themes are left out when the page is drawn.
+	Mixture Mixture
+	Copies  Copies
 	KChoice KChoice
 	Methods Methods
 	// Cautions are added after the built-in cautions (see BuiltinCautions), which are
@@ -92,6 +97,13 @@ type Theme struct {
 	Groups      []GroupShare
 	// Examples are 3–5 redacted narratives where the theme is strong.
 	Examples []Example
+	// Copies is the number of the theme's narratives (those with it as the strongest
+	// theme) that sit in a group of narratives repeating one text (see Data.Copies), as
+	// published; empty when no search was made. CopiesShare is that number over
+	// Size.Dominant's, not shown when CopiesWithheld.
+	Copies         string
+	CopiesShare    float64
+	CopiesWithheld bool
 	// MergedFrom lists the IDs of themes merged into this one by the labels file.
 	MergedFrom []int
 	// SeriesNote explains, when set, why Months or Groups are missing (e.g. after a merge
@@ -215,6 +227,76 @@ type MergeSuggestion struct {
 	Height float64
 	// Why is a plain-words reason, e.g. "share 6 of their 10 top words".
 	Why string
+}
+
+// Mixture is a heatmap of how narratives mix the themes: one column per narrative, or per
+// group of narratives with similar theme shares when there are many, in an order that puts
+// similar columns side by side; one row per theme.
+type Mixture struct {
+	// Method says in plain words how the columns were made and ordered.
+	Method string
+	// Themes are the theme IDs of the rows, in the order shown.
+	Themes []int
+	// Columns in the order shown.
+	Columns []MixColumn
+}
+
+// MixColumn is one column of the mixture heatmap.
+type MixColumn struct {
+	// Label names the column, e.g. "group 12" or a narrative reference.
+	Label string
+	// Count is the number of narratives in the column, as published (may be "<10").
+	Count string
+	// Shares are the mean share of each theme of Mixture.Themes (same order) over the
+	// column's narratives, in [0, 1].
+	Shares []float64
+}
+
+// Copies describes the groups of narratives whose words are nearly the same: one text
+// pasted into report after report, with a few details changed.
+type Copies struct {
+	// Ran is set when the search was made; otherwise Note says why not.
+	Ran bool
+	// Method says in plain words how the groups were found and what may be missed.
+	Method string
+	// Checked is the number of narratives compared, Short the number left out as too
+	// short to tell a copy from a coincidence.
+	Checked, Short int
+	// Groups is the number of groups found; InGroups the number of narratives in them,
+	// as published.
+	Groups   int
+	InGroups string
+	// Listed are the groups shown, largest first (groups smaller than the publication
+	// threshold are counted but not listed).
+	Listed []CopyGroup
+	// Note says what was left out, in plain words.
+	Note string
+}
+
+// CopyGroup is one group of narratives that repeat one text.
+type CopyGroup struct {
+	// Number is the group's number, 1 for the largest, as in the export.
+	Number int
+	// Size is the number of narratives in the group, as published.
+	Size string
+	// LeastSimilarity is the smallest cosine similarity of the words of two of its
+	// narratives, in [0, 1].
+	LeastSimilarity float64
+	// Themes are the strongest themes of its narratives, most frequent first.
+	Themes []CopyTheme
+	// First and Last are the months (YYYY-MM) of its first and last dated narrative.
+	First, Last string
+	// Example is one of its narratives, redacted; Hit segments are the words that not
+	// every narrative of the group has: the details that change from copy to copy.
+	Example Example
+}
+
+// CopyTheme is one theme of a group of copies and how many of the group's narratives have
+// it as their strongest theme, as published.
+type CopyTheme struct {
+	Theme int
+	Label string
+	Count string
 }
 
 // KChoice records how the number of themes was chosen.

@@ -139,6 +139,9 @@ type page struct {
 	TreeRows   []treeRow
 	TreeLabels map[int]string
 	K          chartSpec
+	Mixture    chartSpec
+	MixNames   []string
+	MixRows    []mixRow
 	Themes     []themeView
 	Rejected   int
 	Balanced   bool
@@ -261,6 +264,21 @@ func Validate(d *Data) error {
 			}
 		}
 	}
+	for i, c := range d.Mixture.Columns {
+		if len(c.Shares) != len(d.Mixture.Themes) {
+			return invalid(fmt.Sprintf("Mixture.Columns[%d].Shares", i), "%d shares for %d themes", len(c.Shares), len(d.Mixture.Themes))
+		}
+		for _, v := range c.Shares {
+			if !finite(v) || v < 0 || v > 1+1e-9 {
+				return invalid(fmt.Sprintf("Mixture.Columns[%d].Shares", i), "share %v not in [0, 1]", v)
+			}
+		}
+	}
+	for i, g := range d.Copies.Listed {
+		if !finite(g.LeastSimilarity, g.Example.Share) || g.LeastSimilarity < 0 || g.LeastSimilarity > 1 {
+			return invalid(fmt.Sprintf("Copies.Listed[%d]", i), "similarity %v not in [0, 1]", g.LeastSimilarity)
+		}
+	}
 	for i, r := range d.KChoice.Rows {
 		if !finite(r.HeldOutLL, r.NPMI, r.UMass, r.Stability) {
 			return invalid(fmt.Sprintf("KChoice.Rows[%d]", i), "measure not finite")
@@ -364,6 +382,14 @@ func render(w *bytes.Buffer, d *Data) error {
 			size[n+j] = size[m.Left] + size[m.Right]
 			names[n+j] = fmt.Sprintf("group from step %d", j+1)
 			p.TreeRows = append(p.TreeRows, treeRow{Step: j + 1, Left: names[m.Left], Right: names[m.Right], Height: m.Height, LeftN: size[m.Left], RightN: size[m.Right]})
+		}
+	}
+	if len(d.Mixture.Columns) > 0 {
+		p.Mixture, p.MixNames, p.MixRows = mixtureChart(d)
+		if len(p.MixNames) > 0 {
+			p.Charts = append(p.Charts, p.Mixture)
+		} else {
+			p.Mixture = chartSpec{}
 		}
 	}
 	if len(d.Themes) > 0 && len(p.Months) > 0 {

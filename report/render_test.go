@@ -56,11 +56,29 @@ func TestRenderSample(t *testing.T) {
 			people++
 		}
 	}
+	for _, g := range d.Copies.Listed {
+		for _, s := range g.Example.Segments {
+			if s.Hit {
+				hits++
+			}
+		}
+	}
 	if n := strings.Count(page, "<mark>"); n != hits {
 		t.Errorf("%d <mark> elements, want %d hit segments", n, hits)
 	}
 	if n := strings.Count(page, `<span class="uc-badge uc-person">named by a person</span>`); n != people {
 		t.Errorf("%d person badges on theme sections, want %d", n, people)
+	}
+	// A theme of which a quarter or more repeats one text says so (the sample's smallest,
+	// 37%), and no other does.
+	warned := 0
+	for _, th := range d.Themes {
+		if th.Copies != "" && !th.CopiesWithheld && th.CopiesShare >= 0.25 {
+			warned++
+		}
+	}
+	if n := strings.Count(page, "of the narratives with this as their strongest theme repeat one text"); n != warned || warned != 1 {
+		t.Errorf("%d repeated-text warnings, want %d (and the sample to have one)", n, warned)
 	}
 	path := filepath.Join(artifactDir(t), "sample-report.html")
 	if err := WriteFile(path, d); err != nil {
@@ -85,6 +103,9 @@ func TestValidate(t *testing.T) {
 		{"NaN K measure", func(d *Data) { d.KChoice.Rows[1].NPMI = math.NaN() }, "KChoice.Rows[1]"},
 		{"no label", func(d *Data) { d.Themes[2].Label = " " }, "has no label"},
 		{"NaN share", func(d *Data) { d.Themes[0].Months[3].Share = math.NaN() }, "not finite"},
+		{"mixture share count", func(d *Data) { d.Mixture.Columns[4].Shares = d.Mixture.Columns[4].Shares[1:] }, "Mixture.Columns[4].Shares"},
+		{"mixture share above 1", func(d *Data) { d.Mixture.Columns[0].Shares[0] = 1.5 }, "not in [0, 1]"},
+		{"copy similarity", func(d *Data) { d.Copies.Listed[1].LeastSimilarity = math.NaN() }, "Copies.Listed[1]"},
 	} {
 		d := Sample(SampleSettings{Themes: 5, Seed: 2})
 		tc.edit(d)

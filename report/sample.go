@@ -248,6 +248,8 @@ func Sample(s SampleSettings) *Data {
 	})
 
 	d.Tree = sampleTree(rng, d.Themes)
+	d.Mixture = sampleMixture(rng, s.Themes, s.Hostile)
+	d.Copies = sampleCopies(rng, d.Themes)
 	d.KChoice = sampleKChoice(s.Themes)
 	d.Methods = Methods{
 		Steps: []string{
@@ -438,4 +440,91 @@ func sampleKChoice(best int) KChoice {
 		slices.SortFunc(kc.Rows, func(a, b KRow) int { return a.K - b.K })
 	}
 	return kc
+}
+
+// sampleMixture makes 40 invented columns of theme shares: each column leans on one theme
+// (a few on two), in order of that theme.
+func sampleMixture(rng *rand.Rand, k int, hostile bool) Mixture {
+	m := Mixture{Method: "Sample: invented groups of narratives, ordered by their main theme."}
+	for t := 0; t < k; t++ {
+		m.Themes = append(m.Themes, t)
+	}
+	const cols = 40
+	for c := 0; c < cols; c++ {
+		main := c * k / cols
+		sh := make([]float64, k)
+		var sum float64
+		for t := range sh {
+			sh[t] = 0.05 * rng.Float64()
+			if t == main {
+				sh[t] += 1 + rng.Float64()
+			}
+			if c%7 == 3 && t == (main+1)%k {
+				sh[t] += 0.8
+			}
+			sum += sh[t]
+		}
+		for t := range sh {
+			sh[t] = math.Round(sh[t]/sum*1e4) / 1e4
+		}
+		col := MixColumn{Label: fmt.Sprintf("group %d", c+1), Count: countText(20 + rng.IntN(400)), Shares: sh}
+		if hostile && c == 5 {
+			col.Label = "group " + HostileImg
+		}
+		m.Columns = append(m.Columns, col)
+	}
+	return m
+}
+
+// sampleCopies makes three invented groups of narratives that repeat one text, in the
+// largest themes, and each theme's share of narratives in them.
+func sampleCopies(rng *rand.Rand, themes []Theme) Copies {
+	c := Copies{
+		Ran:    true,
+		Method: "Sample: invented groups.",
+		Groups: 5, Checked: 6200, Short: 11800, InGroups: "64",
+		Note: "2 smaller groups, of fewer than 10 narratives each, are counted but not listed.",
+	}
+	sizes := []int{24, 15, 11}
+	for g, n := range sizes {
+		th := themes[g%len(themes)]
+		ex := Example{ID: fmt.Sprintf("export.csv:%d", 100+rng.IntN(9000)), Date: fmt.Sprintf("2023-%02d-%02d", 1+g, 1+rng.IntN(28)), Share: 1,
+			Segments: []Segment{
+				{Text: "Responded to "}, {Text: sampleStreets[g%len(sampleStreets)], Hit: true},
+				{Text: " for a report of " + strings.ToLower(th.TopWords[0]) + ". On arrival I walked the area and spoke with the "},
+				{Text: "owner", Hit: true},
+				{Text: ", who said the same thing had happened before. No further action."},
+			}}
+		c.Listed = append(c.Listed, CopyGroup{
+			Number: g + 1, Size: fmt.Sprint(n), LeastSimilarity: math.Round((0.72+0.2*rng.Float64())*1e4) / 1e4,
+			Themes: []CopyTheme{{Theme: th.ID, Label: th.Label, Count: countText(n - 1)}, {Theme: themes[(g+1)%len(themes)].ID, Label: themes[(g+1)%len(themes)].Label, Count: "<10"}},
+			First:  fmt.Sprintf("2023-%02d", 1+g), Last: fmt.Sprintf("2024-%02d", 3+g),
+			Example: ex,
+		})
+	}
+	// The smallest theme is mostly copies of one text (a group of 40 beyond the listed
+	// ones), so that its section warns about it.
+	c.Listed = append(c.Listed, CopyGroup{Number: 4, Size: "40", LeastSimilarity: 0.81,
+		Themes: []CopyTheme{{Theme: themes[len(themes)-1].ID, Label: themes[len(themes)-1].Label, Count: "40"}}, First: "2023-06", Last: "2023-09",
+		Example: Example{ID: "export.csv:77", Date: "2023-06-02", Share: 1, Segments: []Segment{{Text: "Checked the "}, {Text: "north", Hit: true}, {Text: " gate and found it open again."}}}})
+	c.InGroups = "104"
+	for i := range themes {
+		n := 0
+		if i < len(sizes) {
+			n = sizes[i]
+		}
+		if i == len(themes)-1 {
+			n = 40
+		}
+		themes[i].Copies = countText(n)
+		if n < 10 {
+			themes[i].CopiesWithheld = true
+		} else {
+			themes[i].CopiesShare = float64(n) / 1000
+		}
+		if i == len(themes)-1 {
+			themes[i].CopiesShare = 0.37
+		}
+	}
+	return c
 }

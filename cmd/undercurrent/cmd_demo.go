@@ -23,8 +23,8 @@ func init() {
 		usage: "demo [options]",
 		short: "generate the invented demo town's narratives and run the whole job on them",
 		long: `Demo writes an invented town's incident narratives (about 6,000 over 36 months, with
-planted themes, trends, abbreviations, OCR noise, HTML residue and invented personal
-information) into <out>/private-input/incidents.csv, with the ground truth beside it in
+planted themes, trends, abbreviations, OCR noise, HTML residue, invented personal
+information, and copies of six saved texts with changed details, as writers paste them) into <out>/private-input/incidents.csv, with the ground truth beside it in
 <out>/private-input/truth.jsonl (both hold the raw, unredacted invented text, hence the
 folder's name), and then runs the whole job ('undercurrent report') on it, with the
 district and call_type columns as groups, and with two guided themes named by seed words
@@ -64,7 +64,7 @@ Example:
 					}
 					f.model.seedsFile = path
 				}
-				cfg := demotown.Config{Seed: f.model.seed, N: *nDocs, Months: *months}
+				cfg := demotown.Config{Seed: f.model.seed, N: *nDocs, Months: *months, TemplateRate: demotown.DemoTemplateRate}
 				fmt.Fprintf(e.stderr, "generating the invented demo corpus into %s\n", inDir)
 				if err := demotown.StreamDir(inDir, cfg); err != nil {
 					return err

@@ -24,9 +24,18 @@ column, and writes into -out:
 	trends.csv/.json       long-run trend tests per theme
 	groups-<col>.csv/.json theme shares per group, and the chi-square test (-test)
 	words-<col>.csv/.json  words that set each group apart from the rest (weighted log-odds)
+	repeated-text.csv/.json
+	                       narratives that repeat one text (templated narratives): one
+	                       row per narrative of each group of at least -min-count
 	repairs.csv            every OCR repair the text pipeline made
 	rejects.csv            every input row not kept, with its line and reason
 	themes.ucmodel         the model file, for 'undercurrent tag' and 'describe'
+
+The report also lists groups of narratives that repeat one text, pasted by a writer
+into report after report with a few details changed (every two narratives of a group have
+a cosine similarity of their TF-IDF words of at least -repeat-similarity, 0.7 by default;
+0 switches the search off): such a group is counted many times in its theme, and says
+what its writer wrote, not what happened.
 
 Everything written is redacted, and counts below -min-count are withheld together with
 whatever would let them be recovered. Raw text and unsuppressed tables go only to files

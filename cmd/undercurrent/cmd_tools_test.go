@@ -79,6 +79,9 @@ func TestMain(m *testing.M) {
 	if toolsFixture.dir != "" {
 		os.RemoveAll(toolsFixture.dir)
 	}
+	if plantedFixture.dir != "" {
+		os.RemoveAll(plantedFixture.dir)
+	}
 	os.Exit(code)
 }
 

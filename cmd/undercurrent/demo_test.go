@@ -6,6 +6,7 @@ import (
 	"html"
 	"os"
 	"path/filepath"
+	"regexp"
 	"runtime"
 	"sort"
 	"strings"
@@ -38,7 +39,8 @@ func TestDemoEndToEnd(t *testing.T) {
 	out := t.TempDir()
 	runDemo(t, out, 2)
 	for _, name := range []string{"report.html", "rejects.csv", "themes.ucmodel", "narratives-wide.csv", "narratives-long.csv",
-		"themes.csv", "monthly.csv", "monthly.json", "flags.csv", "trends.csv", "groups-district.csv", "groups-call-type.csv", "repairs.csv"} {
+		"themes.csv", "monthly.csv", "monthly.json", "flags.csv", "trends.csv", "groups-district.csv", "groups-call-type.csv", "repairs.csv",
+		"repeated-text.csv", "repeated-text.json"} {
 		if st, err := os.Stat(filepath.Join(out, name)); err != nil || st.Size() == 0 {
 			t.Errorf("%s missing or empty (%v)", name, err)
 		}
@@ -52,7 +54,7 @@ func TestDemoEndToEnd(t *testing.T) {
 	// No planted e-mail, SSN, VIN or phone appears in any published file (they are the
 	// structured types; names are checked by the redaction benchmark, since the heuristic
 	// misses some).
-	c := demotown.Generate(demotown.Config{Seed: 1, N: 1500})
+	c := demotown.Generate(demotown.Config{Seed: 1, N: 1500, TemplateRate: demotown.DemoTemplateRate})
 	var secrets []string
 	for _, tr := range c.Truth {
 		for _, p := range tr.PII {
@@ -94,7 +96,13 @@ func TestDemoEndToEnd(t *testing.T) {
 			t.Errorf("flag explanation of %s theme %s is not the published one: %q", row[0], row[1], expl)
 		}
 	}
-	for _, want := range []string{"[NAME-", "Wilson", "counsel"} {
+	// Repeated text: published rows name narratives by file:line, never by record id.
+	for _, row := range readCSVFile(t, filepath.Join(out, "repeated-text.csv"))[1:] {
+		if !regexp.MustCompile(`^incidents\.csv:[0-9]+$`).MatchString(row[3]) {
+			t.Errorf("repeated-text.csv names a narrative %q, want file:line", row[3])
+		}
+	}
+	for _, want := range []string{"[NAME-", "Wilson", "counsel", `id="repeated-text"`, "uc-chart-mixture"} {
 		if !bytes.Contains(rep, []byte(want)) {
 			t.Errorf("report lacks %q", want)
 		}

@@ -39,6 +39,7 @@ type jobFlags struct {
 	everything bool
 	publishIDs bool
 	examples   int
+	repeatSim  float64
 }
 
 func (f *jobFlags) register(fs *flag.FlagSet, withInput bool) {
@@ -55,6 +56,7 @@ func (f *jobFlags) register(fs *flag.FlagSet, withInput bool) {
 	fs.BoolVar(&f.everything, "publish-small-counts", false, "also write unsuppressed tables, only to files named *.private.*")
 	fs.BoolVar(&f.publishIDs, "publish-ids", false, "publish record ids in the report's examples and in the exports (default: file:line references into the input, since ids with a date and a district can be linked to other records)")
 	fs.IntVar(&f.examples, "examples", 4, "redacted example narratives per theme (1 to 5)")
+	fs.Float64Var(&f.repeatSim, "repeat-similarity", cluster.DefaultCopySimilarity, "least cosine similarity of the words of every two narratives of a group that repeats one text (0 < s ≤ 1; 0 switches the search off)")
 }
 
 // jobResult is what a finished job wrote.
@@ -79,6 +81,9 @@ func runJob(ctx context.Context, e *env, f *jobFlags, args []string) (*jobResult
 	}
 	if f.threshold < 1 {
 		return nil, usagef("-min-count %d: want at least 1 (use -publish-small-counts for private unsuppressed tables)", f.threshold)
+	}
+	if !(f.repeatSim >= 0 && f.repeatSim <= 1) {
+		return nil, usagef("-repeat-similarity %v: want a number from 0 (off) to 1", f.repeatSim)
 	}
 	var cur *report.Curation
 	if f.labels != "" {
@@ -145,6 +150,19 @@ func runJob(ctx context.Context, e *env, f *jobFlags, args []string) (*jobResult
 	}
 	labels[k] = routineLabel
 
+	copies := findCopies(p, m, f.repeatSim, cluster.DefaultCopyEps)
+	switch {
+	case copies.ran:
+		in := 0
+		for _, g := range copies.groups {
+			in += len(g.Rows)
+		}
+		fmt.Fprintf(e.stderr, "repeated text: %d groups of %d or more narratives (%d narratives) among the %d long enough to compare\n",
+			len(copies.groups), copyMinSize, in, copies.checked)
+	case copies.err != nil && f.repeatSim != 0:
+		fmt.Fprintf(e.stderr, "note: the search for repeated text was not made: %v\n", copies.err)
+	}
+
 	d, err := buildData(ctx, e, f, p, m, sweep, theta, labels)
 	if err != nil {
 		return res, err
@@ -199,6 +217,17 @@ func runJob(ctx context.Context, e *env, f *jobFlags, args []string) (*jobResult
 		}
 	}
 
+	// The repeated-text section and the mixture heatmap use the curated themes.
+	folded := make([][]float64, n)
+	for i := range theta {
+		folded[i] = themeMap.Fold(nil, theta[i])
+	}
+	ids := publishedIDs(p, f.publishIDs)
+	copiesData(d, p, copies, folded, labels, pub, f.publishIDs)
+	if err := mixtureData(d, p, m, folded, f.model.seed, ids, pub); err != nil {
+		return res, err
+	}
+
 	reportPath := filepath.Join(f.out, "report.html")
 	if err := report.WriteFile(reportPath, d); err != nil {
 		return res, err
@@ -206,7 +235,7 @@ func runJob(ctx context.Context, e *env, f *jobFlags, args []string) (*jobResult
 	res.report = reportPath
 	res.files = append(res.files, reportPath)
 
-	written, err := writeExports(ctx, f, p, m, d, theta, labels, themeMap, pub)
+	written, err := writeExports(ctx, f, p, m, d, theta, labels, themeMap, pub, copies)
 	res.files = append(res.files, written...)
 	if err != nil {
 		return res, err
@@ -232,6 +261,21 @@ func jobDone(e *env, f *jobFlags, res *jobResult, err error) error {
 	fmt.Fprintf(e.stdout, "%s\n", res.report)
 	fmt.Fprintf(e.stderr, "wrote %d files into %s; open %s in a browser\n", len(res.files), f.out, res.report)
 	return nil
+}
+
+// publishedIDs names every kept record as the published files do. Exports published beside
+// the report name each narrative by its place in the input (file:line), not by its
+// incident id, unless -publish-ids: ids with a date and a district can be linked to other
+// records.
+func publishedIDs(p *prepared, publishIDs bool) []string {
+	ids := make([]string, len(p.set.Records))
+	for i, r := range p.set.Records {
+		ids[i] = recordRef(r)
+		if publishIDs {
+			ids[i] = r.ID
+		}
+	}
+	return ids
 }
 
 // recordRef names a record by its place in the input: file base name and line.
@@ -625,22 +669,31 @@ func examples(p *prepared, m *topics.Model, t, n int, publishIDs bool) []report.
 		if r.HasDate {
 			ex.Date = r.Date.Format("2006-01-02")
 		}
-		doc := p.frozen.Transform(redact.Blank(txt))
-		prev := 0
-		for q, sp := range doc.Spans {
-			if !top[doc.Terms[q]] || sp.Start < prev {
-				continue
-			}
-			if sp.Start > prev {
-				ex.Segments = append(ex.Segments, report.Segment{Text: displayText(txt[prev:sp.Start])})
-			}
-			ex.Segments = append(ex.Segments, report.Segment{Text: displayText(txt[sp.Start:sp.End]), Hit: true})
-			prev = sp.End
-		}
-		if prev < len(txt) {
-			ex.Segments = append(ex.Segments, report.Segment{Text: displayText(txt[prev:])})
-		}
+		ex.Segments = segments(p, txt, func(term int32) bool { return top[term] })
 		out = append(out, ex)
+	}
+	return out
+}
+
+// segments cuts txt, a published (redacted) narrative, into the pieces an example shows:
+// the spans of the terms for which hit is true are Hit segments. Every piece goes
+// through displayText.
+func segments(p *prepared, txt string, hit func(term int32) bool) []report.Segment {
+	var out []report.Segment
+	doc := p.frozen.Transform(redact.Blank(txt))
+	prev := 0
+	for q, sp := range doc.Spans {
+		if !hit(doc.Terms[q]) || sp.Start < prev {
+			continue
+		}
+		if sp.Start > prev {
+			out = append(out, report.Segment{Text: displayText(txt[prev:sp.Start])})
+		}
+		out = append(out, report.Segment{Text: displayText(txt[sp.Start:sp.End]), Hit: true})
+		prev = sp.End
+	}
+	if prev < len(txt) {
+		out = append(out, report.Segment{Text: displayText(txt[prev:])})
 	}
 	return out
 }
@@ -705,7 +758,8 @@ func methods(f *jobFlags, p *prepared, m *topics.Model, k int) report.Methods {
 			"Set routine and near-duplicate narratives aside from fitting (they stay in the monthly totals).",
 			"Fit LDA by collapsed Gibbs sampling, with the number of themes chosen by held-out likelihood, coherence and stability unless given.",
 			"Describe each theme by its most probable and most relevant words (Sievert & Shirley 2014) and its most representative narratives.",
-			"Cluster the themes by the Hellinger distance between their word distributions.",
+			"Cluster the themes by the Hellinger distance between their word distributions; order the narratives (or, when there are many, groups of narratives with similar theme shares) by Ward's method on their theme shares for the mixture heatmap.",
+			"Look for narratives that repeat one text: complete linkage on the cosine similarities of their TF-IDF weights, comparing only narratives with nearly the same theme shares.",
 			"Count each theme month by month (dominant theme) with 95% Wilson score intervals; flag unusual months (EARS C1–C3, Farrington); test the long-run trend (Mann–Kendall; Poisson regression with the month's total as exposure).",
 			fmt.Sprintf("Withhold counts below %d and whatever would let them be recovered by subtraction.", f.threshold),
 		},
@@ -728,6 +782,14 @@ func methods(f *jobFlags, p *prepared, m *topics.Model, k int) report.Methods {
 	kv("narrative columns", strings.Join(p.set.TextNames, ", "))
 	kv("group columns", strings.Join(p.set.GroupNames, ", "))
 	kv("minimum published count", strconv.Itoa(f.threshold))
+	if f.repeatSim > 0 {
+		kv("repeated text: least similarity", fmtFloat(f.repeatSim))
+		kv("repeated text: least counted words", strconv.Itoa(copyMinWords))
+		kv("repeated text: least group size", strconv.Itoa(copyMinSize))
+		kv("repeated text: theme-share blocking distance", fmtFloat(cluster.DefaultCopyEps)+" (halved within sets of more than "+strconv.Itoa(cluster.DefaultCopyMaxBlock)+" narratives)")
+	} else {
+		kv("repeated text", "not searched (-repeat-similarity 0)")
+	}
 	mt.Versions = append(mt.Versions, report.KV{Key: "undercurrent", Value: version}, report.KV{Key: "model file format", Value: strconv.Itoa(topics.FormatVersion)})
 	if bi, ok := debug.ReadBuildInfo(); ok {
 		mt.Versions = append(mt.Versions, report.KV{Key: "Go", Value: bi.GoVersion})
@@ -814,7 +876,7 @@ func dataQuality(p *prepared, s *trend.Series) report.DataQuality {
 
 // writeExports writes the tidy exports beside the report. Everything published is redacted
 // and suppressed; unsuppressed tables go only to *.private.* files when asked for.
-func writeExports(ctx context.Context, f *jobFlags, p *prepared, m *topics.Model, d *report.Data, theta [][]float64, labels []string, tm report.ThemeMap, pub trend.Publish) ([]string, error) {
+func writeExports(ctx context.Context, f *jobFlags, p *prepared, m *topics.Model, d *report.Data, theta [][]float64, labels []string, tm report.ThemeMap, pub trend.Publish, copies copyResult) ([]string, error) {
 	var files []string
 	out := f.out
 	k := m.K()
@@ -822,16 +884,7 @@ func writeExports(ctx context.Context, f *jobFlags, p *prepared, m *topics.Model
 	for i := range theta {
 		folded[i] = tm.Fold(nil, theta[i])
 	}
-	// Exports published beside the report name each narrative by its place in the input
-	// (file:line), not by its incident id, unless -publish-ids: ids with a date and a district
-	// can be linked to other records.
-	ids := make([]string, len(theta))
-	for i, r := range p.set.Records {
-		ids[i] = recordRef(r)
-		if f.publishIDs {
-			ids[i] = r.ID
-		}
-	}
+	ids := publishedIDs(p, f.publishIDs)
 	add := func(name string, fn func(w io.Writer) error) error {
 		path := filepath.Join(out, name)
 		files = append(files, path)
@@ -916,6 +969,18 @@ func writeExports(ctx context.Context, f *jobFlags, p *prepared, m *topics.Model
 				return t
 			}
 			return wtab
+		}})
+	}
+	if copies.ran {
+		tables = append(tables, struct {
+			name string
+			make func(trend.Publish) *trend.Table
+		}{"repeated-text.csv", func(pb trend.Publish) *trend.Table {
+			min := thresholdOf(pb)
+			if pb.Everything {
+				min = 0
+			}
+			return export.CopyTable(copyRows(p, copies, folded, labels, ids, min), pb)
 		}})
 	}
 	for _, t := range tables {

@@ -1,6 +1,7 @@
 // Package export writes the tidy CSV files that go beside the report: tagged narratives
 // in wide form (one row per narrative: its strongest theme and the next two) and in long
-// form (one row per narrative and theme), and the theme table.
+// form (one row per narrative and theme), the theme table, and the groups of narratives
+// that repeat one text (one row per narrative in a group, as a report/trend table).
 //
 // The files hold identifiers, dates, group values, theme numbers, labels and shares:
 // never narrative text. Identifiers and group values are written as given, so pass
@@ -21,6 +22,7 @@ import (
 	"strings"
 
 	"undercurrent/report"
+	"undercurrent/report/trend"
 )
 
 // Column documents one CSV column.
@@ -304,4 +306,43 @@ func WriteThemes(w io.Writer, rows []ThemeRow) error {
 	}
 	cw.Flush()
 	return cw.Error()
+}
+
+// CopyColumns are the columns of CopyTable.
+var CopyColumns = []Column{
+	{"group", "group number, 1 for the largest (as in the report)"},
+	{"size", "narratives in the group"},
+	{"least_similarity", "smallest cosine similarity between the words (TF-IDF) of two narratives of the group, 0 to 1"},
+	{"id", "narrative reference: file:line in the input by default, the record id with -publish-ids; no narrative text"},
+	{"theme", "the narrative's strongest theme (0-based, after the labels file's merges)"},
+	{"label", "label of that theme"},
+}
+
+// CopyRow is one narrative of a group of narratives that repeat one text.
+type CopyRow struct {
+	Group, Size     int
+	LeastSimilarity float64
+	ID              string
+	Theme           int
+	Label           string
+}
+
+// CopyTable returns the rows as the "repeated_text" table (CopyColumns), in the order
+// given: one row per narrative in a group. Only groups of at least p's threshold belong
+// in a published table (the caller drops the others; the table says which threshold was
+// used); made with p.Everything the table is private. It panics on a similarity outside
+// [0, 1] or a negative theme (caller bugs).
+func CopyTable(rows []CopyRow, p trend.Publish) *trend.Table {
+	t := trend.NewTable("repeated_text", p,
+		trend.Column{Name: "group", Kind: trend.Number}, trend.Column{Name: "size", Kind: trend.Number},
+		trend.Column{Name: "least_similarity", Kind: trend.Number}, trend.Column{Name: "id", Kind: trend.Text},
+		trend.Column{Name: "theme", Kind: trend.Number}, trend.Column{Name: "label", Kind: trend.Text})
+	for _, r := range rows {
+		if !(r.LeastSimilarity >= 0 && r.LeastSimilarity <= 1) || r.Theme < 0 {
+			panic(fmt.Sprintf("export: CopyTable: row %+v out of range", r))
+		}
+		t.Rows = append(t.Rows, []string{strconv.Itoa(r.Group), strconv.Itoa(r.Size),
+			strconv.FormatFloat(r.LeastSimilarity, 'f', 6, 64), r.ID, strconv.Itoa(r.Theme), r.Label})
+	}
+	return t
 }

@@ -5,10 +5,12 @@ import (
 	"encoding/csv"
 	"errors"
 	"math"
+	"path/filepath"
 	"strings"
 	"testing"
 
 	"undercurrent/report"
+	"undercurrent/report/trend"
 )
 
 // Expected files are written by hand from the column documentation. Quoting follows
@@ -120,5 +122,60 @@ func TestColumnsMarkdown(t *testing.T) {
 	want := "| column | meaning |\n|---|---|\n| `id` | narrative reference: file:line in the input by default, the record id with -publish-ids (tag writes record ids); exports hold no narrative text |\n| `theme` | theme number (0-based) |\n| `share` | the theme's share of the narrative, 0 to 1 |\n"
 	if got != want {
 		t.Errorf("got\n%s", got)
+	}
+}
+
+// TestCopyTable: CSV and JSON written by hand from CopyColumns and trend.Table's formats
+// (integers in decimal, other numbers with 6 decimals; a text cell starting with = gets an
+// apostrophe in the CSV only); a private table goes only to a *private* file.
+func TestCopyTable(t *testing.T) {
+	rows := []CopyRow{
+		{Group: 1, Size: 2, LeastSimilarity: 0.75, ID: "incidents.csv:12", Theme: 3, Label: "alarm · keyholder"},
+		{Group: 1, Size: 2, LeastSimilarity: 0.75, ID: "incidents.csv:40", Theme: 0, Label: "=parking"},
+	}
+	for _, tc := range []struct {
+		name, csv, json string
+		p               trend.Publish
+	}{
+		{"published", "group,size,least_similarity,id,theme,label\n" +
+			"1,2,0.750000,incidents.csv:12,3,alarm · keyholder\n" +
+			"1,2,0.750000,incidents.csv:40,0,'=parking\n",
+			`{"table": "repeated_text", "withheld_below": 10, "rows": [` + "\n" +
+				` {"group": 1, "size": 2, "least_similarity": 0.750000, "id": "incidents.csv:12", "theme": 3, "label": "alarm · keyholder"},` + "\n" +
+				` {"group": 1, "size": 2, "least_similarity": 0.750000, "id": "incidents.csv:40", "theme": 0, "label": "=parking"}` + "\n]}\n",
+			trend.Publish{}},
+		{"threshold 5", "group,size,least_similarity,id,theme,label\n" +
+			"1,2,0.750000,incidents.csv:12,3,alarm · keyholder\n" +
+			"1,2,0.750000,incidents.csv:40,0,'=parking\n",
+			`{"table": "repeated_text", "withheld_below": 5, "rows": [` + "\n" +
+				` {"group": 1, "size": 2, "least_similarity": 0.750000, "id": "incidents.csv:12", "theme": 3, "label": "alarm · keyholder"},` + "\n" +
+				` {"group": 1, "size": 2, "least_similarity": 0.750000, "id": "incidents.csv:40", "theme": 0, "label": "=parking"}` + "\n]}\n",
+			trend.Publish{Threshold: 5}},
+	} {
+		tab := CopyTable(rows, tc.p)
+		var c, j bytes.Buffer
+		if err := tab.WriteCSV(&c); err != nil {
+			t.Fatal(err)
+		}
+		if err := tab.WriteJSON(&j); err != nil {
+			t.Fatal(err)
+		}
+		if c.String() != tc.csv {
+			t.Errorf("%s CSV:\n%s\nwant\n%s", tc.name, c.String(), tc.csv)
+		}
+		if j.String() != tc.json {
+			t.Errorf("%s JSON:\n%s\nwant\n%s", tc.name, j.String(), tc.json)
+		}
+	}
+	priv := CopyTable(rows, trend.Publish{Everything: true})
+	dir := t.TempDir()
+	if err := trend.WriteFiles(filepath.Join(dir, "repeated-text.csv"), priv); !errors.Is(err, trend.ErrPrivate) {
+		t.Errorf("private table to a public name: %v, want ErrPrivate", err)
+	}
+	if err := trend.WriteFiles(filepath.Join(dir, "repeated-text.private.csv"), priv); err != nil {
+		t.Errorf("private table to a private name: %v", err)
+	}
+	if len(CopyColumns) != len(CopyTable(nil, trend.Publish{}).Columns) {
+		t.Error("CopyColumns does not document every column")
 	}
 }

@@ -196,6 +196,12 @@ func fmtP(x float64) string {
 
 func fmtBool(b bool) string { return strconv.FormatBool(b) }
 
+// NewTable returns an empty table for rows built elsewhere (report/export builds some):
+// made with p.Everything it is private, otherwise it records p's threshold. The caller
+// formats every value as the tables here do (integers in decimal, other numbers with 6
+// decimals) and withholds what p says to.
+func NewTable(name string, p Publish, cols ...Column) *Table { return newTable(name, p, cols...) }
+
 func newTable(name string, p Publish, cols ...Column) *Table {
 	t := &Table{Name: name, Columns: cols, private: p.Everything}
 	if !p.Everything {

@@ -29,6 +29,12 @@ type Config struct {
 	// MixRate is the share of non-routine narratives with sentences from a second theme;
 	// 0 means 0.12 and a negative value means none.
 	MixRate float64
+	// TemplateRate is the share of the narratives of each theme that has a template family
+	// (TemplateFamilies) written as a copy of that family: the text one writer pastes into
+	// report after report, with a few details changed. Unlike the other rates, 0 means none,
+	// so that the corpora made before templates were added stay byte-identical; the demo
+	// command uses DemoTemplateRate.
+	TemplateRate float64
 }
 
 // Default values of Config's zero fields.
@@ -40,6 +46,8 @@ const (
 	DefaultPIIRate   = 0.6
 	DefaultMixRate   = 0.12
 	DefaultTypoRate  = 0.05
+	// DemoTemplateRate is the TemplateRate of the demo command's corpus.
+	DemoTemplateRate = 0.08
 )
 
 // DefaultStart is the first month of a corpus whose Config.Start is zero.
@@ -79,6 +87,7 @@ func (c Config) resolved() Config {
 	c.PIIRate = rate(c.PIIRate, DefaultPIIRate, "PIIRate")
 	c.MixRate = rate(c.MixRate, DefaultMixRate, "MixRate")
 	c.TypoRate = rate(c.TypoRate, DefaultTypoRate, "TypoRate")
+	c.TemplateRate = rate(c.TemplateRate, 0, "TemplateRate")
 	return c
 }
 

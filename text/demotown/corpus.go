@@ -80,10 +80,13 @@ type Abbrev struct {
 
 // Truth is the ground truth of one narrative. Its slices are never nil.
 type Truth struct {
-	ID              string       `json:"id"`
-	Month           int          `json:"month"` // 0-based month index
-	Theme           string       `json:"theme"` // the primary theme
-	Themes          []ThemeShare `json:"themes"`
+	ID     string       `json:"id"`
+	Month  int          `json:"month"` // 0-based month index
+	Theme  string       `json:"theme"` // the primary theme
+	Themes []ThemeShare `json:"themes"`
+	// Template names the planted template family the narrative is a copy of (see
+	// Config.TemplateRate); empty for the others.
+	Template        string       `json:"template,omitempty"`
 	CallTypeMatches bool         `json:"call_type_matches"` // call_type is one of the theme's
 	NoPII           bool         `json:"no_pii"`
 	PII             []Span       `json:"pii"`
@@ -306,22 +309,24 @@ func writeDir(dir string, write func(w, t io.Writer) error) (err error) {
 // TruthHeader is the first line of truth.jsonl: the settings the corpus was made with and
 // the planted themes.
 type TruthHeader struct {
-	Record      string      `json:"record"` // "corpus"
-	Town        string      `json:"town"`
-	Seed        uint64      `json:"seed"`
-	N           int         `json:"n"`
-	Months      int         `json:"months"`
-	Start       string      `json:"start"` // YYYY-MM
-	AppearMonth int         `json:"appear_month"`
-	MonthCounts []int       `json:"month_counts"`
-	NoiseRate   float64     `json:"noise_rate"`
-	HTMLRate    float64     `json:"html_rate"`
-	PIIRate     float64     `json:"pii_rate"`
-	MixRate     float64     `json:"mix_rate"`
-	TypoRate    float64     `json:"typo_rate"`
-	Offsets     string      `json:"offsets"`
-	Districts   []string    `json:"districts"`
-	Themes      []ThemeInfo `json:"themes"`
+	Record      string  `json:"record"` // "corpus"
+	Town        string  `json:"town"`
+	Seed        uint64  `json:"seed"`
+	N           int     `json:"n"`
+	Months      int     `json:"months"`
+	Start       string  `json:"start"` // YYYY-MM
+	AppearMonth int     `json:"appear_month"`
+	MonthCounts []int   `json:"month_counts"`
+	NoiseRate   float64 `json:"noise_rate"`
+	HTMLRate    float64 `json:"html_rate"`
+	PIIRate     float64 `json:"pii_rate"`
+	MixRate     float64 `json:"mix_rate"`
+	TypoRate    float64 `json:"typo_rate"`
+	// TemplateRate is Config.TemplateRate; absent (0) when no templates were planted.
+	TemplateRate float64     `json:"template_rate,omitempty"`
+	Offsets      string      `json:"offsets"`
+	Districts    []string    `json:"districts"`
+	Themes       []ThemeInfo `json:"themes"`
 }
 
 func writeTruthHeader(w io.Writer, cfg Config, th []ThemeInfo) error {
@@ -329,8 +334,9 @@ func writeTruthHeader(w io.Writer, cfg Config, th []ThemeInfo) error {
 		Record: "corpus", Town: TownName, Seed: cfg.Seed, N: cfg.N, Months: cfg.Months,
 		Start: cfg.Start.Format("2006-01"), AppearMonth: AppearMonth(cfg.Months), MonthCounts: monthCounts(cfg),
 		NoiseRate: cfg.NoiseRate, HTMLRate: cfg.HTMLRate, PIIRate: cfg.PIIRate, MixRate: cfg.MixRate, TypoRate: cfg.TypoRate,
-		Offsets:   "byte offsets [start,end) into the narrative field as decoded from the CSV (UTF-8)",
-		Districts: Districts, Themes: th,
+		TemplateRate: cfg.TemplateRate,
+		Offsets:      "byte offsets [start,end) into the narrative field as decoded from the CSV (UTF-8)",
+		Districts:    Districts, Themes: th,
 	})
 	if err != nil {
 		return err
@@ -434,7 +440,12 @@ func appendTruth(dst []byte, t *Truth) []byte {
 		dst = strconv.AppendInt(dst, int64(s.Sentences), 10)
 		dst = append(dst, '}')
 	}
-	dst = append(dst, `],"call_type_matches":`...)
+	dst = append(dst, ']')
+	if t.Template != "" {
+		dst = append(dst, `,"template":`...)
+		dst = appendJSONString(dst, t.Template)
+	}
+	dst = append(dst, `,"call_type_matches":`...)
 	dst = strconv.AppendBool(dst, t.CallTypeMatches)
 	dst = append(dst, `,"no_pii":`...)
 	dst = strconv.AppendBool(dst, t.NoPII)

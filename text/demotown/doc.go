@@ -41,6 +41,12 @@
 //   - writers' misspellings ("vehical", "seperated"; Noise events of kind Misspelling) in
 //     TypoRate of the narratives: half of the words that have a listed misspelling, at
 //     least one. Measure OCR repair on the other kinds;
+//   - template copies (Truth.Template), only when Config.TemplateRate is set (the demo
+//     command sets DemoTemplateRate): that share of the narratives of six themes is
+//     replaced by copies of one text per theme (TemplateFamilies), with a few details
+//     (street, vehicle, items, times, an optional sentence) drawn afresh for each copy, as
+//     when one writer pastes a saved text into report after report. The narrative keeps
+//     its theme, date, district and call type, and the other narratives their clean text;
 //   - HTML residue (Truth.HTML) in HTMLRate of the narratives: <p>...</p>, <br />, &nbsp;,
 //     &amp; (for "and") and, for an apostrophe, &#39;, &rsquo; or a raw U+2019 (the only
 //     non-ASCII text the corpus writes).

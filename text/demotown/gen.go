@@ -179,6 +179,7 @@ type generator struct {
 	r       *rand.Rand // content
 	nr      *rand.Rand // OCR noise
 	hr      *rand.Rand // HTML residue
+	tp      *rand.Rand // template copies
 	monthly [][]float64
 	cum     [][]float64
 	counts  []int // narratives per month
@@ -214,6 +215,7 @@ func newGenerator(cfg Config) *generator {
 		r:        rand.New(rand.NewPCG(cfg.Seed, 0x64656d6f746f776e)),
 		nr:       rand.New(rand.NewPCG(cfg.Seed, 0x6e6f697365)),
 		hr:       rand.New(rand.NewPCG(cfg.Seed, 0x68746d6c)),
+		tp:       rand.New(rand.NewPCG(cfg.Seed, 0x74656d706c)),
 		monthly:  monthlyProbs(cfg),
 		counts:   monthCounts(cfg),
 		capCache: map[string]string{},
@@ -365,6 +367,9 @@ func (g *generator) next() (Incident, Truth) {
 	th := &themes[ti]
 	tr.Theme = th.def.name
 	g.narrative(ti, t, &tr)
+	if f := familyOf[ti]; f != nil && g.cfg.TemplateRate > 0 && g.tp.Float64() < g.cfg.TemplateRate {
+		g.templated(f, &tr)
+	}
 	inc.Narrative = g.render(&tr)
 	tr.NoPII = len(tr.PII) == 0
 
