@@ -139,7 +139,8 @@ func (t *Tagger) getScratch() *scratch {
 		return sc
 	}
 	K := t.m.k
-	return &scratch{ndk: make([]int32, K), c: make([]float64, K), p: make([]float64, K)}
+	// Padded: goroutines tagging side by side write these on every token (see worker).
+	return &scratch{ndk: padded[int32](K), c: padded[float64](K), p: padded[float64](K)}
 }
 
 // infer is InferTo after the checks, with sc's memory.

@@ -4,6 +4,8 @@ import (
 	"bytes"
 	"context"
 	"encoding/json"
+	"fmt"
+	"math"
 	"os"
 	"path/filepath"
 	"runtime"
@@ -146,8 +148,15 @@ func BenchmarkTagCommand(b *testing.B) {
 		b.Fatalf("tag: exit %d: %s", code, stderr.String())
 	}
 	b.StopTimer()
-	b.ReportMetric(float64(b.N)/b.Elapsed().Seconds(), "narratives/s")
-	b.ReportMetric(float64((cpuTime()-cpu0).Microseconds())/float64(b.N), "cpu-µs/narrative")
+	rate, cpu := float64(b.N)/b.Elapsed().Seconds(), float64((cpuTime()-cpu0).Microseconds())/float64(b.N)
+	b.ReportMetric(rate, "narratives/s")
+	b.ReportMetric(cpu, "cpu-µs/narrative")
+	if os.Getenv("UNDERCURRENT_BENCH_JSON") != "" && b.N >= 10000 {
+		line, _ := json.Marshal(map[string]any{"bench": "tag", "system": "undercurrent", "corpus": "demotown",
+			"narratives": b.N, "seconds": b.Elapsed().Seconds(), "narratives_per_s": math.Round(rate),
+			"cpu_us_per_narrative": math.Round(cpu*10) / 10, "peak_mb": peakMB(), "gomaxprocs": runtime.GOMAXPROCS(0)})
+		fmt.Println("\n" + string(line)) // after the benchmark name go test has printed
+	}
 }
 
 // cpuTime returns the user and system CPU time of the process so far.

@@ -67,7 +67,8 @@ fi
 
 if want tag; then
   note "tagging throughput (issue 9)"
-  UNDERCURRENT_BENCH_JSON=1 go test -run '^$' -bench '^BenchmarkTag' -benchtime 1x ./cmd/undercurrent | emit
+  # 200,000 demo-town rows through the whole tag command (read twice, redact, pipeline, fold-in, write).
+  UNDERCURRENT_BENCH_JSON=1 go test -run '^$' -bench '^BenchmarkTagCommand$' -benchtime 200000x -timeout 30m ./cmd/undercurrent | emit
 fi
 
 # Ratios: undercurrent against each reference system on the same bench and corpus.
