@@ -197,7 +197,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 	}
 	const chunkDocs = 2048
 	nChunks := (len(docs) + chunkDocs - 1) / chunkDocs
-	scanners := make([]scanner, workers())
+	scanners := make([]onOwnLines[scanner], workers())
 	wave := 4 * workers()
 	chunks := make([]chunk, wave)
 	for w0 := 0; w0 < nChunks; w0 += wave {
@@ -207,7 +207,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		nw := min(wave, nChunks-w0)
 		parallelFor(nw, func(worker, k int) {
 			ch := &chunks[k]
-			sc := &scanners[worker]
+			sc := &scanners[worker].v
 			lo := (w0 + k) * chunkDocs
 			hi := min(lo+chunkDocs, len(docs))
 			// Sized once from the chunk's bytes (about one token per 5 bytes, one new
@@ -562,9 +562,9 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		joinCache        map[[2]int32]int32
 		buf              []byte
 	}
-	p2 := make([]p2worker, workers())
+	p2 := make([]onOwnLines[p2worker], workers())
 	for w := range p2 {
-		p2[w] = p2worker{make([]int, len(surfs)), make([]int, nScanned), make(map[[2]int32]int), make(map[[2]int32]int32), nil}
+		p2[w].v = p2worker{make([]int, len(surfs)), make([]int, nScanned), make(map[[2]int32]int), make(map[[2]int32]int32), nil}
 	}
 	const p2per = 2048
 	type p2block struct {
@@ -578,7 +578,7 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 			cancelled.Store(true)
 			return
 		}
-		st := &p2[w]
+		st := &p2[w].v
 		lo, hi := blk*p2per, min((blk+1)*p2per, len(docs))
 		out := make([]int32, 0, docOff[hi]-docOff[lo])
 		off := make([]int, 0, hi-lo)
@@ -669,9 +669,10 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		}
 		p2blocks[blk] = p2block{}
 	}
-	occ, repairCount := p2[0].occ, p2[0].repairCount
-	joinCount, joinCache := p2[0].joinCount, p2[0].joinCache
-	for _, st := range p2[1:] {
+	occ, repairCount := p2[0].v.occ, p2[0].v.repairCount
+	joinCount, joinCache := p2[0].v.joinCount, p2[0].v.joinCache
+	for i := range p2[1:] {
+		st := &p2[1+i].v
 		for i, v := range st.occ {
 			occ[i] += v
 		}
@@ -736,13 +737,13 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 			left, right []int
 			n           int
 		}
-		ps := make([]pairStats, workers())
+		ps := make([]onOwnLines[pairStats], workers())
 		for w := range ps {
-			ps[w] = pairStats{newCountTable(len(stemStr)), make([]int, len(stemStr)), make([]int, len(stemStr)), 0}
+			ps[w].v = pairStats{newCountTable(len(stemStr)), make([]int, len(stemStr)), make([]int, len(stemStr)), 0}
 		}
 		const per = 2048
 		parallelFor((len(docs)+per-1)/per, func(w, blk int) {
-			st := &ps[w]
+			st := &ps[w].v
 			for d := blk * per; d < min((blk+1)*per, len(docs)); d++ {
 				for k := docOff2[d]; k+1 < docOff2[d+1]; k++ {
 					a, b := out[k], out[k+1]
@@ -758,9 +759,10 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 				}
 			}
 		})
-		left, right, n := ps[0].left, ps[0].right, ps[0].n
-		pairCount := ps[0].count
-		for _, st := range ps[1:] {
+		left, right, n := ps[0].v.left, ps[0].v.right, ps[0].v.n
+		pairCount := ps[0].v.count
+		for i := range ps[1:] {
+			st := &ps[1+i].v
 			for i := range left {
 				left[i] += st.left[i]
 				right[i] += st.right[i]
@@ -855,11 +857,11 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		last  []int
 		terms int
 	}
-	tsw := make([]termStats, workers())
+	tsw := make([]onOwnLines[termStats], workers())
 	{
 		const per = 2048
 		parallelFor((len(docs)+per-1)/per, func(w, blk int) {
-			st := &tsw[w]
+			st := &tsw[w].v
 			if st.df == nil {
 				st.df, st.total, st.last = make([]int, nTerms), make([]float64, nTerms), make([]int, nTerms)
 				for i := range st.last {
@@ -895,7 +897,8 @@ func Build(ctx context.Context, docs []string, s Settings) (*Corpus, *Frozen, er
 		})
 	}
 	df, total := make([]int, nTerms), make([]float64, nTerms)
-	for _, st := range tsw {
+	for i := range tsw {
+		st := &tsw[i].v
 		if st.df == nil {
 			continue
 		}
