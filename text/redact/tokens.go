@@ -348,16 +348,16 @@ func (d *doc) index() {
 type lexFlag uint16
 
 const (
-	fDOB    lexFlag = 1 << iota // a date-of-birth cue word
-	fAge1                       // "age", "aged"
-	fAge2                       // "y/o", "yoa", "year-old" ...
-	fPlate                      // a plate cue word
-	fCase                       // a case-number cue word
-	fCorner                     // "corner", "intersection"
-	fSuffix                     // a street suffix
-	fTitle                      // a title before a name (titleWords)
-	fNameCue                    // the first word of a name cue (cuesByFirst)
-	fAtAnd                      // a preposition before a bare street pair (atAndPreps)
+	fDOB     lexFlag = 1 << iota // a date-of-birth cue word
+	fAge1                        // "age", "aged"
+	fAge2                        // "y/o", "yoa", "year-old" ...
+	fPlate                       // a plate cue word
+	fCase                        // a case-number cue word
+	fCorner                      // "corner", "intersection"
+	fSuffix                      // a street suffix
+	fTitle                       // a title before a name (titleWords)
+	fNameCue                     // the first word of a name cue (cuesByFirst)
+	fAtAnd                       // a preposition before a bare street pair (atAndPreps)
 )
 
 // cueFlags maps lower-case words to their flags, so that each word is looked up once (in
