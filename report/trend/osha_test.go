@@ -11,7 +11,6 @@ import (
 	"time"
 )
 
-
 // TestOSHACorpus runs the monthly series, the Poisson trend, Mann–Kendall and the group
 // chi-square on a real, open dataset: each abstract's "Event type" stands in for its
 // dominant theme (one-hot θ), "Degree of Injury" is the group. Expected values:
