@@ -17,6 +17,7 @@ demo: build
 
 ## test: every test (unit, reference fixtures, fuzz seed corpora, corpus accounting, browser).
 test: assets-check
+	@unformatted="$$(gofmt -l .)"; if [ -n "$$unformatted" ]; then echo "gofmt needed: $$unformatted"; exit 1; fi
 	$(GO) vet ./...
 	$(GO) test -count=1 ./...
 
