@@ -2,6 +2,9 @@ package report
 
 import (
 	"bytes"
+	"encoding/json"
+	"fmt"
+	"math"
 	"os"
 	"path/filepath"
 	"strconv"
@@ -78,7 +81,11 @@ func BenchmarkDraw100k(b *testing.B) {
 			b.Errorf("chart %s not drawn: %+v", c.ID, c)
 		}
 	}
-	if want := 1 + len(d.Themes) + 3; len(checks) != want {
+	want := 1 + len(d.Themes) + 3 // overview, one per theme, tree, heatmap, K chart
+	if len(d.Mixture.Columns) > 0 {
+		want++ // the mixture heatmap
+	}
+	if len(checks) != want {
 		b.Errorf("%d charts, want %d", len(checks), want)
 	}
 	for i := 1; i < len(draws); i++ { // insertion sort, three values
@@ -92,6 +99,16 @@ func BenchmarkDraw100k(b *testing.B) {
 	b.ReportMetric(fcp, "ms/first-paint")
 	b.ReportMetric(float64(cpu.Milliseconds()), "ms-cpu/load")
 	b.Logf("draw times %v (median %v), chart calls %.0f ms, %d charts; CPU time of all chromium processes per load %v", draws, med, js, len(checks), cpu)
+	if os.Getenv("UNDERCURRENT_BENCH_JSON") != "" {
+		var page bytes.Buffer
+		if err := Render(&page, d); err != nil {
+			b.Fatal(err)
+		}
+		line, _ := json.Marshal(map[string]any{"bench": "report-draw", "system": "undercurrent", "corpus": "sample-100k",
+			"report_bytes": page.Len(), "draw_ms_median": med.Milliseconds(), "charts_js_ms": math.Round(js),
+			"first_paint_ms": math.Round(fcp), "chromium_cpu_ms_per_load": cpu.Milliseconds(), "charts": len(checks)})
+		fmt.Println("\n" + string(line)) // after the benchmark name go test has printed
+	}
 	if med > largeMaxDraw {
 		b.Errorf("drawn in %v, goal at most %v", med, largeMaxDraw)
 	}
