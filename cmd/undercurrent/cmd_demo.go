@@ -22,14 +22,16 @@ func init() {
 		name:  "demo",
 		usage: "demo [options]",
 		short: "generate the invented demo town's narratives and run the whole job on them",
-		long: `Demo writes an invented town's incident narratives (about 6,000 over 36 months, with
-planted themes, trends, abbreviations, OCR noise, HTML residue, invented personal
-information, and copies of six saved texts with changed details, as writers paste them) into <out>/private-input/incidents.csv, with the ground truth beside it in
+		long: `Demo writes an invented town's incident narratives (about 6,000 over 36 months,
+with planted themes, trends, abbreviations, OCR noise, HTML residue, invented personal
+information, and copies of six saved texts with changed details, as writers paste them)
+into <out>/private-input/incidents.csv, with the ground truth beside it in
 <out>/private-input/truth.jsonl (both hold the raw, unredacted invented text, hence the
 folder's name), and then runs the whole job ('undercurrent report') on it, with the
 district and call_type columns as groups, and with two guided themes named by seed words
-(<out>/guided-themes.txt: a mental-health crisis and use of force; -seed-words replaces it). Everything in it is invented: the town, its
-streets, its people; phone numbers are in the 555-0100..555-0199 range reserved for fiction.
+(<out>/guided-themes.txt: a mental-health crisis and use of force; -seed-words replaces
+it). Everything in it is invented: the town, its streets, its people; phone numbers are
+in the 555-0100..555-0199 range reserved for fiction.
 
 It prints the path of the report on standard output.
 
