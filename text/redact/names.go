@@ -276,7 +276,9 @@ func (d *doc) nameSeq(i int) (end int, parts []string) {
 
 // cue phrases after which a name is expected.
 var nameCues = [][]string{
-	{"named"}, {"identified", "as"}, {"known", "as"}, {"aka"}, {"a", ".", "k", ".", "a", "."},
+	{"named"}, {"identified", "as"}, {"identified", "him", "as"}, {"identified", "her", "as"},
+	{"identified", "them", "as"}, {"identified", "himself", "as"}, {"identified", "herself", "as"},
+	{"known", "as"}, {"aka"}, {"a", ".", "k", ".", "a", "."},
 	{"spoke", "with"}, {"spoke", "to"}, {"contacted"}, {"interviewed"}, {"arrested"},
 	{"met", "with"}, {"talked", "to"}, {"talked", "with"}, {"reporting", "party"},
 	{"victim"}, {"victims"}, {"suspect"}, {"suspects"}, {"driver"}, {"caller"}, {"witness"},

@@ -209,6 +209,9 @@ func TestNames(t *testing.T) {
 		{"quillane and QUILLANE and Quilane", "[NAME-1] and [NAME-1] and [NAME-1]"},
 		{"Victim Ann Orvby met Suspect Dell Krelton at Varnell Hardware.", "Victim [NAME-1] met Suspect [NAME-2] at Varnell Hardware."},
 		{"The suspect was identified as Ysa K. Tullwick.", "The suspect was identified as [NAME-1]."},
+		// Cue with a pronoun between (invented names; a miss found in the demo's templates).
+		{"Officer identified her as Vanessa Quintover.", "Officer identified her as [NAME-1]."},
+		{"I identified him as Gallardino, David.", "I identified him as [NAME-1]."},
 		{"the driver, identifiecl as Amanda Quarrison by license.", "the driver, identifiecl as [NAME-1] by license."},
 		{"Animal complaint, German shepherd at large.", "Animal complaint, German shepherd at large."},
 		{"Ofc. Quosby #4412 arrived; Sgt. Marlow Trennick took the report.", "Ofc. [NAME-1] arrived; Sgt. [NAME-2] took the report."},
