@@ -247,7 +247,9 @@ func heatmapChart(d *Data, months []string) chartSpec {
 	hm := charts.NewHeatMap()
 	hm.SetGlobalOptions(commonOpts(id)...)
 	labels := make([]string, len(d.Themes))
-	var data []opts.HeatMapData
+	// One series per theme row, named by the theme, so that the tooltip names the theme,
+	// the month and the share.
+	data := make([][]opts.HeatMapData, len(d.Themes))
 	var top float64
 	for ti, t := range d.Themes {
 		labels[ti] = shortLabel(t.Label)
@@ -258,12 +260,12 @@ func heatmapChart(d *Data, months []string) chartSpec {
 		for mi, m := range months {
 			p, ok := at[m]
 			if !ok || p.Gap || p.Withheld {
-				data = append(data, opts.HeatMapData{Value: []any{mi, ti, "-"}})
+				data[ti] = append(data[ti], opts.HeatMapData{Value: []any{mi, ti, "-"}})
 				continue
 			}
 			v := pct(p.Share)
 			top = math.Max(top, v)
-			data = append(data, opts.HeatMapData{Value: []any{mi, ti, v}})
+			data[ti] = append(data[ti], opts.HeatMapData{Value: []any{mi, ti, v}})
 		}
 	}
 	hm.SetGlobalOptions(
@@ -278,7 +280,9 @@ func heatmapChart(d *Data, months []string) chartSpec {
 			InRange: &opts.VisualMapInRange{Color: []string{"#f4f1e8", Palette[2], Palette[5], "#0b2f4f"}},
 		}),
 	)
-	hm.AddSeries("% of month", data)
+	for ti := range d.Themes {
+		hm.AddSeries(labels[ti]+" (% of month)", data[ti])
+	}
 	hm.Validate()
 	return chartSpec{ID: id, Height: 110 + 22*len(d.Themes), Label: "Themes month by month", Option: hm.JSON()}
 }
