@@ -491,6 +491,7 @@ func Apply(d *Data, c *Curation, recompute Recompute) error {
 			dst.DistinctiveWords = appendNew(dst.DistinctiveWords, src.DistinctiveWords)
 			dst.Size.Expected += src.Size.Expected
 			dst.Size.Share += src.Size.Share
+			mergeCopies(dst, src)
 			for _, e := range src.Examples {
 				if len(dst.Examples) < 5 {
 					dst.Examples = append(dst.Examples, e)
@@ -508,6 +509,13 @@ func Apply(d *Data, c *Curation, recompute Recompute) error {
 				return fmt.Errorf("report: recomputing merged theme %d: %w", into, err)
 			}
 			dst.Months, dst.Groups, dst.Size.Dominant = months, groups, dom
+			if c, err1 := strconv.Atoi(dst.Copies); err1 == nil {
+				if n, err2 := strconv.Atoi(dom); err2 == nil && n > 0 {
+					dst.CopiesShare, dst.CopiesWithheld = float64(c)/float64(n), false
+				} else {
+					dst.CopiesWithheld = true
+				}
+			}
 		} else {
 			dst.Months, dst.Groups = nil, nil
 			dst.Size.Dominant = "not recomputed"
@@ -528,6 +536,24 @@ func Apply(d *Data, c *Curation, recompute Recompute) error {
 	d.Themes = slices.DeleteFunc(d.Themes, func(t Theme) bool { return remove[t.ID] })
 	d.Curation = CurationNote{File: c.File, Statements: len(c.Statements)}
 	return nil
+}
+
+// mergeCopies adds src's count of narratives in repeated-text groups to dst's. Both are
+// published counts; when either is withheld (e.g. "<10") the sum would reveal or guess at
+// it, so the merged count is withheld too. The share is set again once the merged theme's
+// narrative count is known (recompute), and withheld otherwise.
+func mergeCopies(dst, src *Theme) {
+	if dst.Copies == "" && src.Copies == "" {
+		return
+	}
+	a, errA := strconv.Atoi(dst.Copies)
+	b, errB := strconv.Atoi(src.Copies)
+	if errA != nil || errB != nil {
+		dst.Copies, dst.CopiesWithheld = "withheld", true
+		return
+	}
+	dst.Copies = strconv.Itoa(a + b)
+	dst.CopiesWithheld = true // until the merged theme's count is recomputed
 }
 
 func appendNew(dst, src []string) []string {

@@ -252,3 +252,26 @@ func FuzzParseLabels(f *testing.F) {
 		}
 	})
 }
+
+// TestMergeCopies: merged themes add their published repeated-text counts; a withheld
+// count ("<10") withholds the sum, since adding it would reveal or guess at it. Expected
+// values worked by hand.
+func TestMergeCopies(t *testing.T) {
+	tests := []struct {
+		dst, src, want string
+		withheld       bool
+	}{
+		{"24", "15", "39", true}, // share withheld until the count is recomputed
+		{"<10", "15", "withheld", true},
+		{"24", "<10", "withheld", true},
+		{"", "", "", false},
+		{"12", "", "withheld", true}, // one side searched, the other not: no honest sum
+	}
+	for _, tt := range tests {
+		d, s := &Theme{Copies: tt.dst}, &Theme{Copies: tt.src}
+		mergeCopies(d, s)
+		if d.Copies != tt.want || d.CopiesWithheld != tt.withheld {
+			t.Errorf("merge %q + %q = %q (withheld %v), want %q (%v)", tt.dst, tt.src, d.Copies, d.CopiesWithheld, tt.want, tt.withheld)
+		}
+	}
+}

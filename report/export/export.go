@@ -61,6 +61,7 @@ var ThemeColumns = []Column{
 	{"expected", "sum of the theme's shares over all narratives"},
 	{"share", "expected divided by the number of narratives, 0 to 1"},
 	{"status", "\"shown\", \"hidden\" (by the labels file) or \"merged into N\""},
+	{"repeated_text", "of its narratives, how many sit in a group repeating one text (repeated-text.csv), as published; empty when no search was made"},
 }
 
 // ColumnsMarkdown returns cols as a Markdown table, for the README.
@@ -101,6 +102,8 @@ type ThemeRow struct {
 	Share         float64
 	// Status is "shown", "hidden" or "merged into N"; empty means "shown".
 	Status string
+	// Copies is the published number of its narratives in repeated-text groups (Theme.Copies).
+	Copies string
 }
 
 // RowError reports a row that cannot be written.
@@ -246,7 +249,7 @@ func ThemeRows(d *report.Data) []ThemeRow {
 	var out []ThemeRow
 	for _, t := range d.Themes {
 		out = append(out, ThemeRow{ID: t.ID, Label: t.Label, LabelByPerson: t.LabelByPerson, TopWords: t.TopWords,
-			Dominant: t.Size.Dominant, Expected: t.Size.Expected, Share: t.Size.Share, Status: "shown"})
+			Dominant: t.Size.Dominant, Expected: t.Size.Expected, Share: t.Size.Share, Status: "shown", Copies: t.Copies})
 	}
 	for _, h := range d.Hidden {
 		out = append(out, ThemeRow{ID: h.ID, Label: h.Label, Status: "hidden"})
@@ -293,7 +296,7 @@ func WriteThemes(w io.Writer, rows []ThemeRow) error {
 		words := make([]string, len(t.TopWords))
 		copy(words, t.TopWords)
 		rec := []string{strconv.Itoa(t.ID), safe(t.Label), by, safe(strings.Join(words, " ")), safe(t.Dominant),
-			strconv.FormatFloat(t.Expected, 'f', 1, 64), share(t.Share), status}
+			strconv.FormatFloat(t.Expected, 'f', 1, 64), share(t.Share), status, safe(t.Copies)}
 		if t.Status != "shown" && t.Status != "" {
 			rec[4], rec[5], rec[6] = safe(t.Dominant), "", ""
 			if t.Expected != 0 || t.Share != 0 {

@@ -102,7 +102,7 @@ func TestWriteThemes(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if len(recs) != 5 || strings.Join(recs[0], ",") != "theme,label,label_by,top_words,narratives,expected,share,status" {
+	if len(recs) != 5 || strings.Join(recs[0], ",") != "theme,label,label_by,top_words,narratives,expected,share,status,repeated_text" {
 		t.Fatalf("got %q", recs)
 	}
 	status := map[string]string{}
