@@ -82,7 +82,6 @@ func nnChainCondensed(dist []float64, n int, m Linkage, workers int, own bool) (
 	d := dist
 	if !own {
 		d = make([]float64, len(dist))
-		adviseHuge(d)
 		copy(d, dist)
 	}
 	z := make([]Merge, n-1)
@@ -309,7 +308,6 @@ func genericCondensed(dist []float64, n int, m Linkage, own bool) (*Dendrogram, 
 	d := dist
 	if !own {
 		d = make([]float64, len(dist))
-		adviseHuge(d)
 		copy(d, dist)
 	}
 	z := make([]Merge, n-1)

@@ -157,7 +157,7 @@ const squareLimit = 16384
 // rows of flat (d columns), rows split over workers; entry (i, j) and
 // (j, i) are computed alike, so the matrix is exactly symmetric.
 func euclideanSquare(flat []float64, n, d, workers int) []float64 {
-	D := make([]float64, n*n) // no huge-page hint: rows are read contiguously
+	D := make([]float64, n*n)
 	parallelRanges(n, workers, 1, func(_, lo, hi int) {
 		for i := lo; i < hi; i++ {
 			rowDist(flat[i*d:i*d+d], flat, D[i*n:i*n+n])
@@ -201,7 +201,6 @@ func pairwise(dst []float64, n int, s *Settings, row func(i int, out []float64))
 	m := CondensedLen(n)
 	if dst == nil {
 		dst = make([]float64, m)
-		adviseHuge(dst)
 	} else if len(dst) != m {
 		panic("cluster: len(dst) != n(n-1)/2")
 	}

@@ -1,5 +1,0 @@
-//go:build !linux
-
-package cluster
-
-func adviseHuge(s []float64) {}
