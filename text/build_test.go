@@ -425,20 +425,7 @@ func TestTransformMatchesBuildVariants(t *testing.T) {
 		s := DefaultSettings()
 		mod(&s)
 		c, f := build(t, docs, s)
-		for i, d := range docs {
-			got := map[int32]float64{}
-			for _, id := range f.Transform(d).Terms {
-				got[id]++
-			}
-			cols, vals := c.Counts.Row(i)
-			want := map[int32]float64{}
-			for k, col := range cols {
-				want[col] = vals[k]
-			}
-			if !reflect.DeepEqual(got, want) {
-				t.Fatalf("%s, doc %d: Transform %v, Build %v", name, i, got, want)
-			}
-		}
+		transformMatchesBuild(t, name, docs, c, f)
 		if name == "tight vocabulary" && len(c.Vocab) > 40 {
 			t.Errorf("MaxTerms: %d terms", len(c.Vocab))
 		}
@@ -454,5 +441,25 @@ func TestHugeToken(t *testing.T) {
 	c, _ := build(t, docs, DefaultSettings())
 	if c.Counts.Rows != len(docs) {
 		t.Fatal("rows")
+	}
+}
+
+// transformMatchesBuild fails t unless the frozen pipeline f gives every narrative of docs
+// the same term counts as row i of c, the Build that made f.
+func transformMatchesBuild(t *testing.T, name string, docs []string, c *Corpus, f *Frozen) {
+	t.Helper()
+	for i, d := range docs {
+		got := map[int32]float64{}
+		for _, id := range f.Transform(d).Terms {
+			got[id]++
+		}
+		cols, vals := c.Counts.Row(i)
+		want := map[int32]float64{}
+		for k, col := range cols {
+			want[col] = vals[k]
+		}
+		if !reflect.DeepEqual(got, want) {
+			t.Fatalf("%s, doc %d: Transform %v, Build %v\n%q", name, i, got, want, d)
+		}
 	}
 }

@@ -203,20 +203,7 @@ func TestSentencesTransformMatchesBuild(t *testing.T) {
 		if c.Sentences == nil || len(c.Sentences.Keys) == 0 {
 			t.Fatalf("%s: no boilerplate found", name)
 		}
-		for i, d := range docs {
-			got := map[int32]float64{}
-			for _, id := range f.Transform(d).Terms {
-				got[id]++
-			}
-			cols, vals := c.Counts.Row(i)
-			want := map[int32]float64{}
-			for k, col := range cols {
-				want[col] = vals[k]
-			}
-			if !reflect.DeepEqual(got, want) {
-				t.Fatalf("%s, doc %d: Transform %v, Build %v\n%q", name, i, got, want, d)
-			}
-		}
+		transformMatchesBuild(t, name, docs, c, f)
 	}
 }
 
