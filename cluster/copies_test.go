@@ -270,17 +270,7 @@ func TestLinkedSets(t *testing.T) {
 		t.Fatal(err)
 	}
 	for _, eps := range []float64{0, 1e-3, 0.05, 0.1, 0.3} {
-		labels := full.CutHeight(nil, eps)
-		by := map[int][]int{}
-		for i, l := range labels {
-			by[l] = append(by[l], i)
-		}
-		var want [][]int
-		for l := 0; l < len(by); l++ {
-			if len(by[l]) >= 2 {
-				want = append(want, by[l])
-			}
-		}
+		want := singleSets(full, eps)
 		for _, w := range []int{1, 3} {
 			got, err := LinkedSets(x, eps, 2, &Settings{Workers: w})
 			if err != nil {
@@ -359,17 +349,7 @@ func TestLinkedSetsCorners(t *testing.T) {
 			t.Fatal(err)
 		}
 		for _, eps := range []float64{0.005, 0.02, 0.05, 0.1} {
-			labels := full.CutHeight(nil, eps)
-			by := map[int][]int{}
-			for i, l := range labels {
-				by[l] = append(by[l], i)
-			}
-			var want [][]int
-			for l := 0; l < len(by); l++ {
-				if len(by[l]) >= 2 {
-					want = append(want, by[l])
-				}
-			}
+			want := singleSets(full, eps)
 			for _, w := range []int{1, 2} {
 				got, err := LinkedSets(tc.x, eps, 2, &Settings{Workers: w})
 				if err != nil {
@@ -395,4 +375,20 @@ func TestLinkedSetsCorners(t *testing.T) {
 	if amb == 0 || 2*amb > len(x) {
 		t.Errorf("%d of %d corner rows ambiguous: the test does not exercise both routes", amb, len(x))
 	}
+}
+
+// singleSets returns the clusters of at least two rows of single linkage's tree full cut at
+// height eps, in label order: the sets LinkedSets must return.
+func singleSets(full *Dendrogram, eps float64) [][]int {
+	by := map[int][]int{}
+	for i, l := range full.CutHeight(nil, eps) {
+		by[l] = append(by[l], i)
+	}
+	var want [][]int
+	for l := 0; l < len(by); l++ {
+		if len(by[l]) >= 2 {
+			want = append(want, by[l])
+		}
+	}
+	return want
 }
