@@ -529,7 +529,7 @@ func (c *tagCSV) wide(id string, date time.Time, hasDate bool, groups []string, 
 		b = append(b, ',')
 		b = c.appendCell(b, g)
 	}
-	best, n := top3(theta)
+	best, n := export.Top3(theta)
 	b = append(b, ',')
 	b = strconv.AppendInt(b, int64(best[0]), 10)
 	b = append(b, ',')
@@ -538,7 +538,7 @@ func (c *tagCSV) wide(id string, date time.Time, hasDate bool, groups []string, 
 	b = strconv.AppendFloat(b, theta[best[0]], 'f', 4, 64)
 	for i := 1; i < 3; i++ {
 		b = append(b, ',')
-		if i < n && theta[best[i]] > 0 { // as export.WriteWide: no share, no next theme
+		if i < n {
 			b = strconv.AppendInt(b, int64(best[i]), 10)
 			b = append(b, ',')
 			b = strconv.AppendFloat(b, theta[best[i]], 'f', 4, 64)
@@ -646,25 +646,4 @@ func finiteShare(v float64) error {
 		return fmt.Errorf("share %v is not between 0 and 1", v)
 	}
 	return nil
-}
-
-// top3 returns the indices of the three largest values, ties to the lower index (export's
-// rule), and how many there are.
-func top3(theta []float64) ([3]int, int) {
-	var best [3]int
-	n := 0
-	for i, v := range theta {
-		pos := n
-		for pos > 0 && v > theta[best[pos-1]] {
-			pos--
-		}
-		if pos < 3 {
-			if n < 3 {
-				n++
-			}
-			copy(best[pos+1:n], best[pos:n-1])
-			best[pos] = i
-		}
-	}
-	return best, n
 }

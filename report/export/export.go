@@ -135,24 +135,32 @@ func finiteShare(v float64) error {
 	return nil
 }
 
-// top3 returns the indices of the three largest values, ties to the lower index.
-func top3(theta []float64) []int {
-	var best []int
+// Top3 returns the narrative's strongest theme and the next two, highest share first, ties
+// to the lower theme number, in best[:n]. A theme with no share is not counted: a routine
+// narrative, whose share is all in the routine column, has n = 1 (when no theme has a share,
+// theme 0 stands alone). It allocates nothing (the tagger calls it for every row); n is 0
+// only for an empty theta.
+func Top3(theta []float64) (best [3]int, n int) {
 	for i, v := range theta {
-		pos := len(best)
+		if !(v > 0) {
+			continue
+		}
+		pos := n
 		for pos > 0 && v > theta[best[pos-1]] {
 			pos--
 		}
 		if pos < 3 {
-			best = append(best, 0)
-			copy(best[pos+1:], best[pos:])
-			best[pos] = i
-			if len(best) > 3 {
-				best = best[:3]
+			if n < 3 {
+				n++
 			}
+			copy(best[pos+1:n], best[pos:n-1])
+			best[pos] = i
 		}
 	}
-	return best
+	if n == 0 && len(theta) > 0 {
+		n = 1
+	}
+	return best, n
 }
 
 // WriteWide writes one row per narrative: id, date, the group columns, the strongest
@@ -188,15 +196,13 @@ func WriteWide(w io.Writer, groupCols, labels []string, rows []WideRow) error {
 		for _, g := range row.Groups {
 			rec = append(rec, safe(g))
 		}
-		best := top3(row.Theta)
-		if len(best) == 0 {
+		best, n := Top3(row.Theta)
+		if n == 0 {
 			return &RowError{Row: r, ID: row.ID, Err: fmt.Errorf("no themes")}
 		}
 		rec = append(rec, strconv.Itoa(best[0]), safe(labels[best[0]]), share(row.Theta[best[0]]))
 		for i := 1; i < 3; i++ {
-			// A theme with no share is not a "next strongest" theme (routine narratives
-			// have all their share in the routine column).
-			if i < len(best) && row.Theta[best[i]] > 0 {
+			if i < n {
 				rec = append(rec, strconv.Itoa(best[i]), share(row.Theta[best[i]]))
 			} else {
 				rec = append(rec, "", "")

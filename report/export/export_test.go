@@ -44,18 +44,25 @@ func TestWriteWide(t *testing.T) {
 	}
 }
 
+// TestTop3: expected orders worked by hand from the rule (highest share first, ties to the
+// lower theme; themes without a share left out).
 func TestTop3(t *testing.T) {
 	for _, tc := range []struct {
 		in   []float64
 		want []int
 	}{
+		{nil, nil},
+		{[]float64{0, 0, 0, 1}, []int{3}},        // routine: all its share in the last column
+		{[]float64{0, 0.6, 0, 0.4}, []int{1, 3}}, // zero shares are not next themes
+		{[]float64{0, 0}, []int{0}},              // no share anywhere: theme 0 alone
 		{[]float64{0.5}, []int{0}},
 		{[]float64{0.2, 0.8}, []int{1, 0}},
 		{[]float64{0.1, 0.3, 0.2, 0.4}, []int{3, 1, 2}},
 		{[]float64{0.3, 0.3, 0.3, 0.1}, []int{0, 1, 2}},
 		{[]float64{0.1, 0.2, 0.2, 0.2, 0.3}, []int{4, 1, 2}},
 	} {
-		got := top3(tc.in)
+		best, n := Top3(tc.in)
+		got := best[:n]
 		if len(got) != len(tc.want) {
 			t.Errorf("top3(%v) = %v, want %v", tc.in, got, tc.want)
 			continue
