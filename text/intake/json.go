@@ -38,9 +38,11 @@ func (c *lineCounter) Read(p []byte) (int, error) {
 	return n, err
 }
 
-// mark drops the kept bytes before offset off.
+// mark lets the kept bytes before offset off go. They are dropped only once they are at
+// least half of what is kept, so each byte is moved at most about once however small the
+// elements are (the decoder reads ahead of the element being decoded).
 func (c *lineCounter) mark(off int64) {
-	if d := off - c.keptAt; d > 0 && d <= int64(len(c.kept)) {
+	if d := off - c.keptAt; d > 0 && d <= int64(len(c.kept)) && 2*d >= int64(len(c.kept)) {
 		c.kept = c.kept[:copy(c.kept, c.kept[d:])]
 		c.keptAt = off
 	}
