@@ -134,7 +134,7 @@ func nnChainCondensed(dist []float64, n int, m Linkage, workers int, own bool) (
 				b0 = cand{v: d[cidx(n, x, prev)], prev: true, key: prev}
 			}
 			if stale[x] {
-				rescanColumn(d, rs, act, x, colV, colI, workers)
+				rescanColumn(d, rs, act, x, colV, colI)
 				stale[x] = false
 			}
 			mid, _ := slices.BinarySearch(act, x)
@@ -287,7 +287,7 @@ func initColumns(d []float64, rs []int, n int, colV []float64, colI []int, worke
 
 // rescanColumn recomputes the minimum of column x over the active rows
 // below x (act ascending).
-func rescanColumn(d []float64, rs, act []int, x int, colV []float64, colI []int, workers int) {
+func rescanColumn(d []float64, rs, act []int, x int, colV []float64, colI []int) {
 	mid, _ := slices.BinarySearch(act, x)
 	bv, bk := math.Inf(1), -1
 	for _, i := range act[:mid] {
