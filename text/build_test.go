@@ -131,9 +131,16 @@ func TestBuildDeterministic(t *testing.T) {
 	if oshaPath != "" {
 		docs = append(docs, loadOSHA(t, 1500)...)
 	}
+	sameAtProcs(t, docs, DefaultSettings())
+}
+
+// sameAtProcs fails t unless Build of docs with s gives byte-identical corpus and frozen
+// pipeline (as JSON) with GOMAXPROCS 1 and 4.
+func sameAtProcs(t *testing.T, docs []string, s Settings) {
+	t.Helper()
 	enc := func(procs int) []byte {
 		defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(procs))
-		c, f := build(t, docs, DefaultSettings())
+		c, f := build(t, docs, s)
 		b, err := json.Marshal(struct {
 			C *Corpus
 			F *Frozen
@@ -143,8 +150,7 @@ func TestBuildDeterministic(t *testing.T) {
 		}
 		return b
 	}
-	a, b := enc(1), enc(4)
-	if !bytes.Equal(a, b) {
+	if a, b := enc(1), enc(4); !bytes.Equal(a, b) {
 		t.Fatal("builds with GOMAXPROCS 1 and 4 differ")
 	}
 }

@@ -6,7 +6,6 @@ import (
 	"encoding/json"
 	"path/filepath"
 	"reflect"
-	"runtime"
 	"strings"
 	"testing"
 
@@ -221,21 +220,7 @@ func TestSentencesDeterministic(t *testing.T) {
 	}
 	s := DefaultSettings()
 	s.Sentences = SentenceSettings{Enabled: true, Repeats: true}
-	enc := func(procs int) []byte {
-		defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(procs))
-		c, f := build(t, docs, s)
-		b, err := json.Marshal(struct {
-			C *Corpus
-			F *Frozen
-		}{c, f})
-		if err != nil {
-			t.Fatal(err)
-		}
-		return b
-	}
-	if a, b := enc(1), enc(4); !bytes.Equal(a, b) {
-		t.Fatal("builds with GOMAXPROCS 1 and 4 differ")
-	}
+	sameAtProcs(t, docs, s)
 }
 
 // TestSentencesSegmentation: the tokenizer's tokens cut as package sentences documents
